@@ -1,0 +1,43 @@
+import Link from 'next/link';
+import type { ReactNode } from 'react';
+import { AccountMenu } from '@/components/shell/account-menu';
+import { TeamSwitcher } from '@/components/shell/team-switcher';
+import { PaletteProvider } from '@/components/palette/palette';
+import { PaletteButton, ThemeToggle } from '@/components/palette/theme-toggle';
+import { BrandMark } from '@/components/ui/brand';
+import { requirePageUser } from '@/lib/auth/page';
+
+export default async function WorkspaceLayout({ children }: { children: ReactNode }) {
+  const { user, teams } = await requirePageUser();
+  return (
+    <PaletteProvider>
+    <div className="min-h-screen">
+      <header className="sticky top-0 z-20 border-b border-rule bg-paper/95 backdrop-blur">
+        <div className="mx-auto flex h-12 max-w-[1400px] items-center gap-4 px-4">
+          <Link href="/sheets" className="flex items-center gap-2 font-semibold tracking-tight">
+            <BrandMark />
+            <span>Denudata</span>
+          </Link>
+          <nav aria-label="Main" className="flex items-center gap-3 text-[13px]">
+            <Link href="/sheets" className="text-slate hover:text-basalt">
+              Sheets
+            </Link>
+            <Link href="/team" className="text-slate hover:text-basalt">
+              Team
+            </Link>
+          </nav>
+          <div className="ml-auto flex items-center gap-3">
+            <PaletteButton />
+            <ThemeToggle />
+            <TeamSwitcher teams={teams} />
+            <AccountMenu name={user.name} email={user.email} />
+          </div>
+        </div>
+      </header>
+      <main id="main" className="mx-auto max-w-[1400px] px-4 py-5">
+        {children}
+      </main>
+    </div>
+    </PaletteProvider>
+  );
+}

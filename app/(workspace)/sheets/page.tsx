@@ -1,0 +1,146 @@
+import type { Metadata } from 'next';
+import Link from 'next/link';
+import { NewSheetForm } from '@/components/sheets/new-sheet-form';
+import { StatusTag, STATUS_WORDS, type SheetStatus } from '@/components/ui/status';
+import { requirePageUser } from '@/lib/auth/page';
+import { roleAllows } from '@/lib/auth/permissions';
+import { listSheetsByTeam, type SheetSort } from '@/lib/db/sheets';
+
+export const metadata: Metadata = { title: 'Sheets' };
+
+const COLUMNS: { key: SheetSort | null; label: string }[] = [
+  { key: 'title', label: 'Title' },
+  { key: 'site', label: 'Site' },
+  { key: 'status', label: 'Status' },
+  { key: 'revision', label: 'Revision' },
+  { key: 'updated', label: 'Updated' },
+  { key: null, label: 'Last edited by' },
+];
+
+const SORTS = new Set<SheetSort>(['updated', 'title', 'site', 'revision', 'status']);
+
+type Search = Record<string, string | string[] | undefined>;
+
+export default async function SheetsPage({ searchParams }: { searchParams: Promise<Search> }) {
+  const params = await searchParams;
+  const { current } = await requirePageUser();
+  const q = typeof params.q === 'string' ? params.q.slice(0, 200) : '';
+  const rawSort = typeof params.sort === 'string' ? params.sort : 'updated';
+  const sortKey = (SORTS.has(rawSort.replace(/^-/, '') as SheetSort) ? rawSort.replace(/^-/, '') : 'updated') as SheetSort;
+  const reversed = rawSort.startsWith('-');
+  const descending = sortKey === 'updated' ? !reversed : reversed;
+  const status = typeof params.status === 'string' && params.status in STATUS_WORDS ? (params.status as SheetStatus) : undefined;
+
+  if (!current) {
+    return <p className="text-slate">You are not a member of any team yet.</p>;
+  }
+  const { items, total } = await listSheetsByTeam({ teamId: current.id, q, sort: sortKey, descending, status });
+  const canEdit = roleAllows(current.role, 'edit');
+
+  const hrefFor = (key: SheetSort) => {
+    const next = new URLSearchParams();
+    if (q) next.set('q', q);
+    if (status) next.set('status', status);
+    next.set('sort', key === sortKey && !reversed ? `-${key}` : key);
+    return `/sheets?${next.toString()}`;
+  };
+
+  return (
+    <div className="flex flex-col gap-4">
+      <div className="flex flex-wrap items-end justify-between gap-3">
+        <div>
+          <h1 className="text-[20px] font-semibold tracking-tight">Sheets</h1>
+          <p className="text-[13px] text-slate">
+            {current.name} · your role: {current.role}
+          </p>
+        </div>
+        {canEdit ? <NewSheetForm /> : null}
+      </div>
+
+      <form role="search" className="flex flex-wrap items-center gap-2" action="/sheets">
+        <label htmlFor="sheet-search" className="sr-only">
+          Search sheets by title or site
+        </label>
+        <input
+          id="sheet-search"
+          name="q"
+          defaultValue={q}
+          placeholder="Search title or site"
+          className="h-8 w-72 rounded-[3px] border border-rule bg-chalk px-2 text-[13px]"
+        />
+        <label htmlFor="sheet-status" className="sr-only">
+          Filter by status
+        </label>
+        <select id="sheet-status" name="status" defaultValue={status ?? ''} className="h-8 rounded-[3px] border border-rule bg-chalk px-2 text-[13px]">
+          <option value="">Any status</option>
+          {Object.entries(STATUS_WORDS).map(([key, s]) => (
+            <option key={key} value={key}>
+              {s.word}
+            </option>
+          ))}
+        </select>
+        <input type="hidden" name="sort" value={rawSort} />
+        <button type="submit" className="h-8 rounded-[3px] border border-rule bg-chalk px-3 text-[13px] hover:bg-wash">
+          Search
+        </button>
+        <span className="text-[12px] text-slate">
+          {total} {total === 1 ? 'sheet' : 'sheets'}
+        </span>
+      </form>
+
+      <div className="overflow-x-auto rounded-[4px] border border-rule bg-chalk">
+        <table className="w-full border-collapse text-[13px]">
+          <thead>
+            <tr className="border-b border-rule text-left text-[12px] text-slate">
+              {COLUMNS.map((c) => (
+                <th
+                  key={c.label}
+                  scope="col"
+                  className="px-3 py-2 font-medium"
+                  aria-sort={c.key === sortKey ? (descending ? 'descending' : 'ascending') : undefined}
+                >
+                  {c.key ? (
+                    <Link href={hrefFor(c.key)} className="hover:text-basalt">
+                      {c.label}
+                      {c.key === sortKey ? <span aria-hidden="true">{descending ? ' ↓' : ' ↑'}</span> : null}
+                    </Link>
+                  ) : (
+                    c.label
+                  )}
+                </th>
+              ))}
+            </tr>
+          </thead>
+          <tbody>
+            {items.length === 0 ? (
+              <tr>
+                <td colSpan={COLUMNS.length} className="px-3 py-6 text-center text-slate">
+                  {q || status ? 'No sheet matches that search.' : 'No sheets yet.'}
+                </td>
+              </tr>
+            ) : (
+              items.map((sheet) => (
+                <tr key={sheet.id} className="border-b border-rule last:border-0 hover:bg-wash/60">
+                  <td className="px-3 py-2 font-medium">
+                    <Link href={`/sheets/${sheet.id}`} className="text-river hover:underline">
+                      {sheet.title}
+                    </Link>
+                  </td>
+                  <td className="px-3 py-2">{sheet.site ?? <span className="text-slate">—</span>}</td>
+                  <td className="px-3 py-2">
+                    <StatusTag status={sheet.status} />
+                  </td>
+                  <td className="num px-3 py-2">{sheet.revision > 0 ? `r${sheet.revision}` : <span className="text-slate">—</span>}</td>
+                  <td className="num px-3 py-2 whitespace-nowrap">
+                    <time dateTime={sheet.updatedAt}>{sheet.updatedAt.slice(0, 16).replace('T', ' ')} UTC</time>
+                  </td>
+                  <td className="px-3 py-2">{sheet.author?.name ?? '—'}</td>
+                </tr>
+              ))
+            )}
+          </tbody>
+        </table>
+      </div>
+    </div>
+  );
+}

@@ -1,0 +1,7 @@
+import { z } from 'zod';
+
+// The document itself is checked by the engine's strict schema after this envelope.
+export const saveDraftSchema = z.strictObject({
+  baseVersion: z.number().int('must be a whole number').min(1, 'must be 1 or more'),
+  document: z.unknown(),
+});

@@ -1,0 +1,29 @@
+import { requireUser } from '@/lib/auth/guard';
+import { resolveTeam } from '@/lib/auth/team';
+import { createSheet, listSheetsByTeam, type SheetSort } from '@/lib/db/sheets';
+import { json, readJson, readQuery, route } from '@/lib/http';
+import { createSheetSchema, listSheetsQuerySchema } from './schema';
+
+export const GET = route(async (request) => {
+  const user = await requireUser();
+  const query = readQuery(request, listSheetsQuerySchema);
+  const { teamId } = await resolveTeam({ userId: user.id, teamId: query.team, action: 'read' });
+  const sort = query.sort ?? 'updated';
+  const descending = sort === 'updated' ? true : sort === '-updated' ? false : sort.startsWith('-');
+  const result = await listSheetsByTeam({
+    teamId,
+    q: query.q,
+    sort: sort.replace(/^-/, '') as SheetSort,
+    descending,
+    status: query.status,
+  });
+  return json(result);
+});
+
+export const POST = route(async (request) => {
+  const user = await requireUser();
+  const input = await readJson(request, createSheetSchema);
+  const { teamId } = await resolveTeam({ userId: user.id, teamId: input.teamId, action: 'edit' });
+  const sheet = await createSheet({ teamId, userId: user.id, title: input.title, site: input.site });
+  return json({ sheet }, 201);
+});

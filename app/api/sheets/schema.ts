@@ -1,0 +1,28 @@
+import { z } from 'zod';
+import { REVIEW_STATUSES } from '@/models';
+
+export const siteSchema = z.strictObject({
+  name: z.string().trim().min(1, 'enter the site name').max(200, 'use at most 200 characters'),
+  latitude: z.number().min(-90, 'latitude is between -90 and 90').max(90, 'latitude is between -90 and 90').optional(),
+  longitude: z.number().min(-180, 'longitude is between -180 and 180').max(180, 'longitude is between -180 and 180').optional(),
+  notes: z.string().max(5000, 'use at most 5000 characters').optional(),
+});
+
+export const titleSchema = z.string().trim().min(1, 'enter a title').max(200, 'use at most 200 characters');
+
+export const createSheetSchema = z.strictObject({
+  title: titleSchema,
+  site: siteSchema.optional(),
+  teamId: z.string().uuid('must be a team id').optional(),
+});
+
+export const listSheetsQuerySchema = z.strictObject({
+  team: z.string().uuid('must be a team id').optional(),
+  q: z.string().max(200).optional(),
+  sort: z
+    .enum(['updated', '-updated', 'title', '-title', 'site', '-site', 'revision', '-revision', 'status', '-status'], {
+      message: 'sort by updated, title, site, revision or status (a leading - reverses it)',
+    })
+    .optional(),
+  status: z.enum([...REVIEW_STATUSES, 'draft']).optional(),
+});

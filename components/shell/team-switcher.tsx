@@ -1,0 +1,42 @@
+'use client';
+
+import { useRouter } from 'next/navigation';
+import { useState } from 'react';
+
+type Team = { id: string; name: string; role: string; current: boolean };
+
+/** Shown only when the user belongs to more than one team. */
+export function TeamSwitcher({ teams }: { teams: Team[] }) {
+  const router = useRouter();
+  const [pending, setPending] = useState(false);
+  const current = teams.find((t) => t.current);
+  if (teams.length < 2) {
+    return current ? <span className="text-[13px] text-slate">{current.name}</span> : null;
+  }
+  return (
+    <label className="flex items-center gap-1.5 text-[13px]">
+      <span className="sr-only">Current team</span>
+      <select
+        className="h-8 rounded-[3px] border border-rule bg-chalk px-2 text-[13px]"
+        value={current?.id}
+        disabled={pending}
+        onChange={async (e) => {
+          setPending(true);
+          await fetch('/api/teams/current', {
+            method: 'PUT',
+            headers: { 'content-type': 'application/json' },
+            body: JSON.stringify({ teamId: e.target.value }),
+          });
+          setPending(false);
+          router.refresh();
+        }}
+      >
+        {teams.map((t) => (
+          <option key={t.id} value={t.id}>
+            {t.name} ({t.role})
+          </option>
+        ))}
+      </select>
+    </label>
+  );
+}

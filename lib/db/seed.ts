@@ -1,0 +1,113 @@
+import 'server-only';
+import { Membership, Sheet, SheetRevision, Team, User, type TeamRole } from '@/models';
+import { ENGINE_VERSION, evaluateSheet, hashSheetDocument, parseSheetDocument } from '@/lib/engine';
+import { DEMO_SHEETS } from '@/lib/demo/sheets';
+import { db } from './index';
+import { siteColumns } from './sheets';
+import { hashPassword } from './users';
+
+// The invented demo scenario: a small consultancy, four people, four worked sheets.
+export const DEMO_PASSWORD = 'demo-password';
+export const DEMO_TEAM_ID = '6b1f3c2e-8d4a-4c1e-9f3b-2a7d5e0c9a11';
+export const DEMO_TEAM_NAME = 'Harrow Vale Geoscience';
+export const DEMO_ACCOUNTS: { email: string; name: string; role: TeamRole }[] = [
+  { email: 'owner@demo.test', name: 'Maren Okafor', role: 'owner' },
+  { email: 'editor@demo.test', name: 'Tomas Rinaldi', role: 'editor' },
+  { email: 'reviewer@demo.test', name: 'Ilse Varga', role: 'reviewer' },
+  { email: 'viewer@demo.test', name: 'Priya Halvorsen', role: 'viewer' },
+];
+
+/** Fixed ids make the demo idempotent: seeding twice finds what the first run made. */
+export const demoSheetId = (index: number) => `0d3a7e10-5c2b-4f6a-8e1d-${String(index + 1).padStart(12, '0')}`;
+
+export async function seedDemo(): Promise<{ users: number; sheets: number }> {
+  const sequelize = db();
+  return sequelize.transaction(async (transaction) => {
+    const [team] = await Team.findOrCreate({
+      where: { id: DEMO_TEAM_ID },
+      defaults: { id: DEMO_TEAM_ID, name: DEMO_TEAM_NAME },
+      transaction,
+    });
+    const passwordHash = await hashPassword(DEMO_PASSWORD);
+    const users: Record<string, User> = {};
+    for (const account of DEMO_ACCOUNTS) {
+      const [user] = await User.findOrCreate({
+        where: { email: account.email },
+        defaults: { email: account.email, name: account.name, passwordHash, currentTeamId: team.id },
+        transaction,
+      });
+      users[account.role] = user;
+      await Membership.findOrCreate({
+        where: { teamId: team.id, userId: user.id },
+        defaults: { teamId: team.id, userId: user.id, role: account.role },
+        transaction,
+      });
+    }
+    for (const [index, demo] of DEMO_SHEETS.entries()) {
+      await Sheet.findOrCreate({
+        where: { id: demoSheetId(index) },
+        defaults: {
+          id: demoSheetId(index),
+          teamId: team.id,
+          title: demo.document.title,
+          ...siteColumns(demo.document.site),
+          draftDocument: demo.document,
+          createdBy: users.editor.id,
+          updatedBy: users.editor.id,
+          forkedFromSheetId: null,
+          forkedFromRevision: null,
+          archivedAt: null,
+        },
+        transaction,
+      });
+      await seedDemoRevision({ index, document: demo.document, users }, transaction);
+    }
+    return { users: DEMO_ACCOUNTS.length, sheets: DEMO_SHEETS.length };
+  });
+}
+
+/** The demo sheet that shows a review in progress (revision 1 awaiting its check). */
+export const DEMO_IN_REVIEW_INDEX = 1;
+
+/**
+ * Revision 1 of a demo sheet, made by the editor from the seeded document (idempotent: an existing
+ * revision 1 is left alone). One sheet's revision is sent to the reviewer, so a review shows in progress.
+ */
+async function seedDemoRevision(
+  { index, document: raw, users }: { index: number; document: unknown; users: Record<string, User> },
+  transaction: import('sequelize').Transaction,
+): Promise<void> {
+  const sheetId = demoSheetId(index);
+  const existing = await SheetRevision.findOne({ where: { sheetId, number: 1 }, attributes: ['id'], transaction });
+  if (existing) return;
+  const parsed = parseSheetDocument(raw);
+  if (!parsed.ok) throw new Error(`demo sheet ${index} is not a valid document: ${parsed.path} ${parsed.message}`);
+  const results = evaluateSheet(parsed.document);
+  const inReview = index === DEMO_IN_REVIEW_INDEX;
+  const madeAt = new Date(Date.UTC(2026, 10, 3 + index, 9, 30));
+  await SheetRevision.create(
+    {
+      sheetId,
+      number: 1,
+      document: parsed.document,
+      hash: hashSheetDocument(parsed.document),
+      engineVersion: results.engine ?? ENGINE_VERSION,
+      results,
+      authorId: users.editor.id,
+      message: 'First issue of the worked example',
+      reviewStatus: inReview ? 'in_review' : 'unsigned',
+      reviewRequestedBy: inReview ? users.editor.id : null,
+      reviewRequestedAt: inReview ? new Date(madeAt.getTime() + 3_600_000) : null,
+      reviewerId: inReview ? users.reviewer.id : null,
+      checkedBy: null,
+      checkedAt: null,
+      approvedBy: null,
+      approvedAt: null,
+      returnedBy: null,
+      returnedAt: null,
+      createdAt: madeAt,
+    },
+    { transaction },
+  );
+  await Sheet.update({ headRevision: 1 }, { where: { id: sheetId, headRevision: 0 }, transaction });
+}

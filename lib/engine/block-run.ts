@@ -1,0 +1,125 @@
+/**
+ * Running a block type on evaluated values: coercion and range checks at the boundary, the pure
+ * evaluate(), and formatting of its outputs. Also registers each calculation type as a
+ * function in expressions, e.g. peclet_number(1 mm/yr, 30 km, 1e-6 m^2/s).
+ */
+import type { BlockOutcome, BlockTypeDefinition, InputSpec, InputValues, OutputSpec } from './block-type';
+import { EngineError } from './errors';
+import { checkExpression, defineExpressionFunction } from './expression';
+import { BLOCK_TYPES } from './registry';
+import { coerceInput, describeValue, formatFromSI, quantityFromSI, sameDimension, type FormattedOutput, type Quantity } from './units';
+
+function inRange(spec: InputSpec, quantity: Quantity): boolean {
+  const range = spec.range;
+  if (!range) return true;
+  const v = quantity.si;
+  if (range.min !== undefined && (range.minExclusive ? v <= range.min : v < range.min)) return false;
+  if (range.max !== undefined && (range.maxExclusive ? v >= range.max : v > range.max)) return false;
+  return true;
+}
+
+/** Coerces one evaluated input value against its declaration (dimension and range). */
+export function coerceBlockInput(spec: InputSpec, value: unknown): Quantity {
+  const quantity = coerceInput(spec.name, spec.dimension, value);
+  if (!inRange(spec, quantity)) {
+    throw new EngineError(`${spec.name}: must be ${spec.range!.text}, got ${describeValue(value)}`, {
+      input: spec.name,
+      expected: spec.range!.text,
+      given: describeValue(value),
+    });
+  }
+  return quantity;
+}
+
+const defaultValues = new Map<string, unknown>();
+/** The value of an input's default expression (defaults are constants). */
+export function defaultValue(spec: InputSpec): unknown {
+  const text = spec.default!;
+  if (!defaultValues.has(text)) defaultValues.set(text, checkExpression(text).evaluate(new Map()));
+  return defaultValues.get(text);
+}
+
+/**
+ * Runs a calculation type on evaluated values (undefined = left empty). Applies defaults,
+ * checks dimensions and ranges, and checks that every numeric output is finite.
+ */
+export function runBlockType(type: BlockTypeDefinition, values: Record<string, unknown>): BlockOutcome {
+  if (!type.evaluate) throw new EngineError(`${type.id} blocks are not calculated`);
+  const coerced: InputValues = {};
+  for (const spec of type.inputs) {
+    let value = values[spec.name];
+    if (value === undefined && spec.default !== undefined) value = defaultValue(spec);
+    if (value === undefined) {
+      if (spec.optional) continue;
+      throw new EngineError(`${spec.name}: this input is required`, { input: spec.name });
+    }
+    coerced[spec.name] = coerceBlockInput(spec, value);
+  }
+  const outcome = type.evaluate(coerced);
+  for (const [name, output] of Object.entries(outcome.outputs)) {
+    if ('si' in output && !Number.isFinite(output.si)) {
+      throw new EngineError(`${name}: the result is not finite (${output.si}); check the inputs`);
+    }
+  }
+  for (const [name, series] of Object.entries(outcome.series ?? {})) {
+    if (!series.y.every(Number.isFinite) || !series.x.every(Number.isFinite)) {
+      throw new EngineError(`${name}: the series has values that are not finite; check the inputs`);
+    }
+  }
+  return outcome;
+}
+
+/** Formats one output of a calculation type, in the user's display unit when one is set. */
+export function formatBlockOutput(spec: OutputSpec, outcome: BlockOutcome, displayUnit: string | undefined): FormattedOutput | null {
+  const output = outcome.outputs[spec.name];
+  if (!output) return null;
+  if ('text' in output) return { value: output.text, unit: '', si: output.text, siUnit: '' };
+  const natural = output.unit ?? spec.unit ?? '';
+  if (displayUnit === undefined || displayUnit.trim() === '' || displayUnit === natural) {
+    return formatFromSI(output.si, natural);
+  }
+  if (natural === '') {
+    throw new EngineError(`display unit for ${spec.name}: the output is dimensionless, so ${displayUnit} does not apply`);
+  }
+  if (!sameDimension(displayUnit, natural)) {
+    throw new EngineError(`display unit for ${spec.name}: ${displayUnit} does not measure the same thing as ${natural}`);
+  }
+  return formatFromSI(output.si, displayUnit);
+}
+
+/* ------------------------------------------------------- expression functions */
+function expressionFunctionFor(type: BlockTypeDefinition) {
+  const primary = type.outputs[0]!;
+  const names = type.inputs.map((spec) => spec.name).join(', ');
+  return (...args: unknown[]): unknown => {
+    if (args.length > type.inputs.length) {
+      throw new EngineError(`${type.id}: takes at most ${type.inputs.length} inputs (${names}), got ${args.length}`);
+    }
+    const values: Record<string, unknown> = {};
+    type.inputs.forEach((spec, i) => {
+      values[spec.name] = args[i];
+    });
+    let outcome: BlockOutcome;
+    try {
+      outcome = runBlockType(type, values);
+    } catch (error) {
+      if (error instanceof EngineError) throw new EngineError(`${type.id}: ${error.message}`, error);
+      throw error;
+    }
+    const output = outcome.outputs[primary.name]!;
+    if ('text' in output) return output.text;
+    const unit = output.unit ?? primary.unit ?? '';
+    return unit === '' ? output.si : quantityFromSI(output.si, unit);
+  };
+}
+
+let registered = false;
+/** Adds every calculation type to expressions as a function (idempotent). */
+export function registerBlockFunctions(): void {
+  if (registered) return;
+  registered = true;
+  for (const type of BLOCK_TYPES) {
+    if (type.expressionFunction) defineExpressionFunction(type.id, expressionFunctionFor(type));
+  }
+}
+registerBlockFunctions();

@@ -1,0 +1,118 @@
+/**
+ * The shape of a block type: its documentation as data, and a pure evaluate().
+ */
+import type { DimensionKey, Quantity } from './units';
+
+/** A hard limit on an input: values outside it are an error for the block. */
+export interface InputRange {
+  /** Lower limit in SI units (a gradient for slopes, K for temperatures). */
+  min?: number;
+  max?: number;
+  /** When true the limit itself is outside the range. */
+  minExclusive?: boolean;
+  maxExclusive?: boolean;
+  /** The limit in words, e.g. "> 0" or "0 ≤ φ < 1". */
+  text: string;
+}
+
+export interface InputSpec {
+  name: string;
+  label: string;
+  /** The symbol in the formula, e.g. "K" or "ρ_c". */
+  symbol?: string;
+  dimension: DimensionKey;
+  /** Expression used when the input is empty or left out. */
+  default?: string;
+  /** May be left empty with no default. */
+  optional?: boolean;
+  range?: InputRange;
+  /** Suggested unit to type, in mathjs syntax (for forms). */
+  unitHint?: string;
+  help: string;
+}
+
+export interface OutputSpec {
+  name: string;
+  label: string;
+  /** Default display unit in mathjs syntax; "" for dimensionless; null when set by the inputs. */
+  unit: string | null;
+  kind: 'quantity' | 'text';
+  description: string;
+}
+
+export interface SeriesSpec {
+  name: string;
+  label: string;
+  points: number;
+  xLabel: string;
+  yLabel: string;
+  xUnit: string;
+  yUnit: string;
+  description: string;
+}
+
+export interface WorkedExample {
+  /** Input expressions by input name. */
+  inputs: Record<string, string>;
+  /** The output the expectation applies to (the primary one unless stated). */
+  output: string;
+  expected: { value: number; unit: string; relTol: number };
+  source: string;
+}
+
+/** One computed output: an SI value (unit optional when the type sets it from the inputs), or text. */
+export type OutputValue = { si: number; unit?: string } | { text: string };
+
+export interface Series {
+  x: number[];
+  y: number[];
+  xLabel: string;
+  yLabel: string;
+  xUnit: string;
+  yUnit: string;
+}
+
+export interface BlockOutcome {
+  outputs: Record<string, OutputValue>;
+  series?: Record<string, Series>;
+  warnings: string[];
+}
+
+/** Coerced inputs by name; optional inputs left out are undefined. */
+export type InputValues = Record<string, Quantity | undefined>;
+
+export interface BlockTypeDefinition {
+  id: string;
+  title: string;
+  /** One line: what the block answers. */
+  purpose: string;
+  formula: { text: string; tex?: string };
+  sources: string[];
+  inputs: InputSpec[];
+  /** True for `quantities`: any input names, each becomes an output. */
+  freeInputs?: boolean;
+  outputs: OutputSpec[];
+  series?: SeriesSpec[];
+  /** Conditions under which the relation holds. */
+  validity: string[];
+  /** Standing cautions shown wherever results are reported. */
+  cautions: string[];
+  /** The warnings the block can raise at run time, in words. */
+  warnings: string[];
+  example: WorkedExample | null;
+  /** Whether the type is also a function in expressions. */
+  expressionFunction: boolean;
+  /** Pure evaluation from coerced inputs. Absent for quantities, formula and note. */
+  evaluate?: (inputs: InputValues) => BlockOutcome;
+}
+
+/** The caution every calculation type carries. */
+export const STANDING_CAUTION =
+  'Results are estimates from a simplified model. Check them against site data, and defer to local codes and licensed professional practice before using them in hazard or design decisions.';
+
+/** A required input's SI value (the engine guarantees required inputs are present). */
+export function required(inputs: InputValues, name: string): number {
+  const value = inputs[name];
+  if (value === undefined) throw new Error(`internal: input ${name} missing`);
+  return value.si;
+}

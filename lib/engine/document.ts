@@ -1,0 +1,171 @@
+/**
+ * The sheet document, `denudata-sheet@1`: its zod schema (structural faults only), parsing
+ * with the first fault and its path, block-name checks and the document hash.
+ */
+import { createHash } from 'node:crypto';
+import { z } from 'zod';
+import { canonicalJson } from './canonical-json';
+import { reservedNameReason } from './expression';
+import { BLOCK_TYPE_IDS, getBlockType } from './registry';
+
+export const SHEET_FORMAT = 'denudata-sheet@1';
+export const BLOCK_NAME_PATTERN = /^[a-z][a-z0-9_]{0,39}$/;
+export const QUANTITY_NAME_PATTERN = /^[A-Za-z][A-Za-z0-9_]{0,39}$/;
+
+/** Why a block name cannot be used, or null when it is fine. */
+export function checkBlockName(name: string): string | null {
+  const cached = nameChecks.get(name);
+  if (cached !== undefined) return cached;
+  const problem = findNameProblem(name);
+  if (nameChecks.size > 10_000) nameChecks.clear();
+  nameChecks.set(name, problem);
+  return problem;
+}
+
+const nameChecks = new Map<string, string | null>();
+
+function findNameProblem(name: string): string | null {
+  if (!BLOCK_NAME_PATTERN.test(name)) {
+    return `"${name}" is not a valid block name: use 1–40 characters, lower-case letters, digits and _, starting with a letter`;
+  }
+  if (getBlockType(name)?.expressionFunction) {
+    return `"${name}" cannot be a block name: it is a block type's function in expressions`;
+  }
+  const reason = reservedNameReason(name);
+  return reason ? `"${name}" cannot be a block name: ${reason}` : null;
+}
+
+/** Names that would reach JavaScript object internals when used as name.parameter. */
+const OBJECT_PROPERTY_NAMES = new Set(Object.getOwnPropertyNames(Object.prototype));
+
+function checkInputKeys(block: { type: string; inputs: Record<string, string> }, ctx: z.RefinementCtx): void {
+  const type = getBlockType(block.type);
+  if (!type) return;
+  const keys = Object.keys(block.inputs);
+  if (type.id === 'note') {
+    if (keys.length > 0) ctx.addIssue({ code: 'custom', path: ['inputs', keys[0]!], message: 'a note block takes no inputs; use {}' });
+    return;
+  }
+  for (const key of keys) {
+    if (type.freeInputs) {
+      if (!QUANTITY_NAME_PATTERN.test(key)) {
+        ctx.addIssue({ code: 'custom', path: ['inputs', key], message: `"${key}" is not a valid parameter name: use 1–40 letters, digits and _, starting with a letter` });
+        return;
+      }
+      if (OBJECT_PROPERTY_NAMES.has(key)) {
+        ctx.addIssue({ code: 'custom', path: ['inputs', key], message: `"${key}" is reserved; choose another parameter name` });
+        return;
+      }
+    } else if (!type.inputs.some((spec) => spec.name === key)) {
+      const known = type.inputs.map((spec) => spec.name).join(', ');
+      ctx.addIssue({ code: 'custom', path: ['inputs', key], message: `unknown input "${key}" for a ${type.id} block (its inputs: ${known})` });
+      return;
+    }
+  }
+}
+
+function checkDisplayKeys(block: { type: string; inputs: Record<string, string>; display?: Record<string, string> }, ctx: z.RefinementCtx): void {
+  const type = getBlockType(block.type);
+  if (!type || !block.display) return;
+  const outputs = type.freeInputs ? Object.keys(block.inputs) : type.outputs.map((o) => o.name);
+  for (const key of Object.keys(block.display)) {
+    if (!outputs.includes(key)) {
+      ctx.addIssue({
+        code: 'custom',
+        path: ['display', key],
+        message: outputs.length > 0 ? `unknown output "${key}" (outputs: ${outputs.join(', ')})` : `a ${type.id} block has no outputs to display`,
+      });
+      return;
+    }
+  }
+}
+
+const blockSchema = z
+  .strictObject({
+    id: z.string({ error: 'id must be a string' }).min(1, 'id must not be empty').max(64, 'id must be at most 64 characters'),
+    name: z.string({ error: 'name must be a string' }).superRefine((name, ctx) => {
+      const problem = checkBlockName(name);
+      if (problem) ctx.addIssue({ code: 'custom', message: problem });
+    }),
+    type: z.string({ error: 'type must be a string' }).superRefine((type, ctx) => {
+      if (!getBlockType(type)) {
+        ctx.addIssue({ code: 'custom', message: `unknown block type "${type}" (known: ${BLOCK_TYPE_IDS.join(', ')})` });
+      }
+    }),
+    inputs: z.record(z.string(), z.string({ error: 'each input must be an expression (a string)' }), {
+      error: 'inputs must be an object of expressions',
+    }),
+    note: z.string({ error: 'note must be a string (markdown)' }).optional(),
+    display: z.record(z.string(), z.string({ error: 'each display unit must be a string' })).optional(),
+  })
+  .superRefine((block, ctx) => {
+    checkInputKeys(block, ctx);
+    checkDisplayKeys(block, ctx);
+  });
+
+const siteSchema = z.strictObject({
+  name: z.string({ error: 'site.name must be a string' }).min(1, 'site name must not be empty').max(200),
+  latitude: z.number().min(-90).max(90).optional(),
+  longitude: z.number().min(-180).max(180).optional(),
+  notes: z.string().optional(),
+});
+
+/** The strict schema of a `denudata-sheet@1` document (structural faults only). */
+export const sheetDocumentSchema = z
+  .strictObject({
+    format: z.literal(SHEET_FORMAT, { error: `format must be "${SHEET_FORMAT}"` }),
+    title: z.string({ error: 'title must be a string' }).min(1, 'title must not be empty').max(200, 'title must be at most 200 characters'),
+    site: siteSchema.optional(),
+    blocks: z.array(blockSchema, { error: 'blocks must be a list' }),
+  })
+  .superRefine((doc, ctx) => {
+    const names = new Map<string, number>();
+    const ids = new Map<string, number>();
+    doc.blocks.forEach((block, i) => {
+      if (ids.has(block.id)) {
+        ctx.addIssue({ code: 'custom', path: ['blocks', i, 'id'], message: `duplicate id "${block.id}" (also blocks[${ids.get(block.id)}])` });
+      } else ids.set(block.id, i);
+      if (names.has(block.name)) {
+        ctx.addIssue({ code: 'custom', path: ['blocks', i, 'name'], message: `duplicate name "${block.name}" (also blocks[${names.get(block.name)}])` });
+      } else names.set(block.name, i);
+    });
+  });
+
+export type SheetDocument = z.infer<typeof sheetDocumentSchema>;
+export type SheetBlock = SheetDocument['blocks'][number];
+
+function formatPath(path: readonly PropertyKey[]): string {
+  let text = '';
+  for (const part of path) {
+    if (typeof part === 'number') text += `[${part}]`;
+    else if (typeof part === 'string' && /^[A-Za-z_][A-Za-z0-9_]*$/.test(part)) text += text === '' ? part : `.${part}`;
+    else text += `[${JSON.stringify(String(part))}]`;
+  }
+  return text;
+}
+
+export type ParseSheetResult = { ok: true; document: SheetDocument } | { ok: false; message: string; path: string };
+
+/** Validates a document; on failure reports the first fault and where it is, e.g. blocks[2].name. */
+export function parseSheetDocument(input: unknown): ParseSheetResult {
+  const parsed = sheetDocumentSchema.safeParse(input);
+  if (parsed.success) {
+    try {
+      canonicalJson(parsed.data);
+    } catch {
+      return { ok: false, message: 'the document holds text that is not valid Unicode (an unpaired surrogate)', path: '' };
+    }
+    return { ok: true, document: parsed.data };
+  }
+  const issue = parsed.error.issues[0]!;
+  const path = formatPath(issue.path);
+  let message = issue.message;
+  if (issue.code === 'unrecognized_keys') message = `unknown key${issue.keys.length > 1 ? 's' : ''}: ${issue.keys.join(', ')}`;
+  return { ok: false, message, path };
+}
+
+/** Lowercase hex SHA-256 of the document's RFC 8785 canonical JSON (as the canonicalize package). */
+export function hashSheetDocument(document: SheetDocument): string {
+  const text = canonicalJson(document);
+  return createHash('sha256').update(text, 'utf8').digest('hex');
+}

@@ -1,0 +1,276 @@
+/**
+ * Evaluation of a sheet: expressions are checked and their references resolved, the dependency
+ * graph orders the blocks, and each block becomes ok, error or blocked. Incremental evaluation
+ * reuses previous results for blocks that neither changed nor depend on a change.
+ */
+import { formatBlockOutput, runBlockType } from './block-run';
+import type { BlockTypeDefinition, Series } from './block-type';
+import { hashSheetDocument, type SheetBlock, type SheetDocument } from './document';
+import { EngineError, toSafeMessage } from './errors';
+import { checkExpression, type CheckedExpression, type OutputReference } from './expression';
+import { buildDependencyGraph, type DependencyGraph } from './graph';
+import { getBlockType } from './registry';
+import { formatValue, valueFromFormatted, type FormattedOutput } from './units';
+
+export const ENGINE_VERSION = '1.0.0';
+export const RESULTS_FORMAT = 'denudata-results@1';
+
+export type BlockStatus = 'ok' | 'error' | 'blocked';
+
+export interface BlockResult {
+  id: string;
+  type: string;
+  status: BlockStatus;
+  error?: string;
+  warnings: string[];
+  outputs: Record<string, FormattedOutput>;
+  series?: Record<string, Series>;
+}
+
+export interface SheetResults {
+  format: typeof RESULTS_FORMAT;
+  sheetHash: string;
+  engine: string;
+  blocks: Record<string, BlockResult>;
+}
+
+interface PreparedInput {
+  name: string;
+  text: string;
+  checked: CheckedExpression;
+}
+
+interface PreparedBlock {
+  block: SheetBlock;
+  type: BlockTypeDefinition;
+  inputs: Map<string, PreparedInput>;
+  references: OutputReference[];
+  dependencies: string[];
+  /** A fault found before evaluation (parse, refused function, unknown reference). */
+  problem?: string;
+}
+
+interface Prepared {
+  blocks: Map<string, PreparedBlock>;
+  graph: DependencyGraph;
+}
+
+/** Output names a block offers to others. */
+function outputNames(block: SheetBlock, type: BlockTypeDefinition): string[] {
+  if (type.freeInputs) return Object.keys(block.inputs);
+  return type.outputs.map((output) => output.name);
+}
+
+function blockMessage(name: string, message: string): string {
+  return `block "${name}", ${message}`;
+}
+
+function prepare(document: SheetDocument): Prepared {
+  const byName = new Map<string, { block: SheetBlock; type: BlockTypeDefinition }>();
+  const notes = new Set<string>();
+  for (const block of document.blocks) {
+    const type = getBlockType(block.type);
+    if (!type) throw new EngineError(`unknown block type "${block.type}"`);
+    if (type.id === 'note') notes.add(block.name);
+    else byName.set(block.name, { block, type });
+  }
+
+  const blocks = new Map<string, PreparedBlock>();
+  for (const { block, type } of byName.values()) {
+    const prepared: PreparedBlock = { block, type, inputs: new Map(), references: [], dependencies: [] };
+    const setProblem = (input: string, message: string) => {
+      prepared.problem ??= blockMessage(block.name, `${input}: ${message}`);
+    };
+    for (const [input, text] of Object.entries(block.inputs)) {
+      if (text.trim() === '') continue;
+      let checked: CheckedExpression;
+      try {
+        checked = checkExpression(text);
+      } catch (error) {
+        setProblem(input, toSafeMessage(error));
+        continue;
+      }
+      prepared.inputs.set(input, { name: input, text, checked });
+      for (const symbol of checked.freeSymbols) {
+        if (byName.has(symbol) || notes.has(symbol)) {
+          setProblem(input, `"${symbol}" is a block; refer to one of its outputs as ${symbol}.<output>`);
+        } else {
+          setProblem(input, `unknown name "${symbol}" (not a block, unit, constant or function)`);
+        }
+      }
+      for (const reference of checked.references) {
+        const label = `${reference.block}.${reference.output}`;
+        const target = byName.get(reference.block);
+        if (notes.has(reference.block)) {
+          setProblem(input, `refers to ${label}, but "${reference.block}" is a note and has no outputs`);
+        } else if (!target) {
+          setProblem(input, `refers to ${label}, but there is no block named "${reference.block}"`);
+        } else {
+          const names = outputNames(target.block, target.type);
+          if (!names.includes(reference.output)) {
+            setProblem(input, `refers to ${label}, but block "${reference.block}" has no output "${reference.output}" (its outputs: ${names.join(', ') || 'none'})`);
+          }
+        }
+        if (target) {
+          prepared.references.push(reference);
+          if (!prepared.dependencies.includes(reference.block)) prepared.dependencies.push(reference.block);
+        }
+      }
+    }
+    blocks.set(block.name, prepared);
+  }
+  const graph = buildDependencyGraph([...blocks.values()].map((p) => ({ name: p.block.name, dependencies: p.dependencies })));
+  return { blocks, graph };
+}
+
+/** Evaluation state shared by the blocks of one run. */
+class Run {
+  readonly results = new Map<string, BlockResult>();
+  private readonly scopeObjects = new Map<string, Record<string, unknown>>();
+
+  /** The values of a block's outputs as expressions see them (rebuilt from the results). */
+  scopeObject(name: string): Record<string, unknown> {
+    let object = this.scopeObjects.get(name);
+    if (!object) {
+      object = {};
+      for (const [output, formatted] of Object.entries(this.results.get(name)!.outputs)) {
+        object[output] = valueFromFormatted(formatted);
+      }
+      this.scopeObjects.set(name, object);
+    }
+    return object;
+  }
+
+  evaluateBlock(prepared: PreparedBlock, graph: DependencyGraph): BlockResult {
+    const { block, type } = prepared;
+    const base = { id: block.id, type: block.type };
+    const cycle = graph.cycles.get(block.name);
+    if (cycle) {
+      const text = cycle.length === 2 ? `block "${block.name}" refers to itself` : `part of a dependency cycle: ${cycle.join(' → ')}`;
+      return { ...base, status: 'error', error: text, warnings: [], outputs: {} };
+    }
+    if (prepared.problem) return { ...base, status: 'error', error: prepared.problem, warnings: [], outputs: {} };
+    for (const dependency of prepared.dependencies) {
+      const upstream = this.results.get(dependency)!;
+      if (upstream.status !== 'ok') {
+        const why = upstream.status === 'error' ? 'which has an error' : 'which is itself blocked';
+        return { ...base, status: 'blocked', error: `waiting on block "${dependency}", ${why}`, warnings: [], outputs: {} };
+      }
+    }
+    const scope = new Map<string, unknown>();
+    for (const reference of prepared.references) {
+      const upstream = this.results.get(reference.block)!;
+      if (!(reference.output in upstream.outputs)) {
+        const message = `${reference.block}.${reference.output} has no value (block "${reference.block}" did not produce it)`;
+        return { ...base, status: 'error', error: blockMessage(block.name, message), warnings: [], outputs: {} };
+      }
+      if (!scope.has(reference.block)) scope.set(reference.block, this.scopeObject(reference.block));
+    }
+    try {
+      return { ...base, status: 'ok', ...this.compute(prepared, scope) };
+    } catch (error) {
+      return { ...base, status: 'error', error: blockMessage(block.name, toSafeMessage(error)), warnings: [], outputs: {} };
+    }
+  }
+
+  private compute(prepared: PreparedBlock, scope: Map<string, unknown>): Pick<BlockResult, 'warnings' | 'outputs' | 'series'> {
+    const { block, type } = prepared;
+    const display = block.display ?? {};
+    const evaluateInput = (name: string): unknown => {
+      const input = prepared.inputs.get(name);
+      if (!input) return undefined;
+      try {
+        return input.checked.evaluate(scope);
+      } catch (error) {
+        throw new EngineError(`${name}: ${toSafeMessage(error)}`, { input: name });
+      }
+    };
+
+    if (type.freeInputs || type.id === 'formula') {
+      const outputs: Record<string, FormattedOutput> = {};
+      const names = type.freeInputs ? Object.keys(block.inputs) : ['expr'];
+      for (const name of names) {
+        const value = evaluateInput(name);
+        if (value === undefined) throw new EngineError(`${name}: the expression is empty`, { input: name });
+        const outputName = type.freeInputs ? name : 'value';
+        try {
+          outputs[outputName] = formatValue(value, display[outputName]);
+        } catch (error) {
+          throw new EngineError(`${name}: ${toSafeMessage(error)}`, { input: name });
+        }
+      }
+      return { warnings: [], outputs };
+    }
+
+    const values: Record<string, unknown> = {};
+    for (const spec of type.inputs) values[spec.name] = evaluateInput(spec.name);
+    const outcome = runBlockType(type, values);
+    const outputs: Record<string, FormattedOutput> = {};
+    for (const spec of type.outputs) {
+      const formatted = formatBlockOutput(spec, outcome, display[spec.name]);
+      if (formatted) outputs[spec.name] = formatted;
+    }
+    const result: Pick<BlockResult, 'warnings' | 'outputs' | 'series'> = { warnings: outcome.warnings, outputs };
+    if (outcome.series) result.series = outcome.series;
+    return result;
+  }
+}
+
+function assemble(document: SheetDocument, results: Map<string, BlockResult>): SheetResults {
+  const blocks: Record<string, BlockResult> = {};
+  for (const block of document.blocks) {
+    const result = results.get(block.name);
+    if (result) blocks[block.name] = result;
+  }
+  return { format: RESULTS_FORMAT, sheetHash: hashSheetDocument(document), engine: ENGINE_VERSION, blocks };
+}
+
+function run(
+  document: SheetDocument,
+  reuse: (prepared: PreparedBlock, graph: DependencyGraph, reused: Set<string>) => BlockResult | null,
+): { results: SheetResults; evaluatedBlockIds: string[] } {
+  const { blocks, graph } = prepare(document);
+  const state = new Run();
+  const reused = new Set<string>();
+  const evaluatedBlockIds: string[] = [];
+  for (const name of graph.order) {
+    const prepared = blocks.get(name)!;
+    const previous = reuse(prepared, graph, reused);
+    if (previous) {
+      reused.add(name);
+      state.results.set(name, previous);
+      continue;
+    }
+    evaluatedBlockIds.push(prepared.block.id);
+    state.results.set(name, state.evaluateBlock(prepared, graph));
+  }
+  return { results: assemble(document, state.results), evaluatedBlockIds };
+}
+
+/** Evaluates every block of a (validated) sheet document. */
+export function evaluateSheet(document: SheetDocument): SheetResults {
+  return run(document, () => null).results;
+}
+
+/**
+ * Re-evaluates only the changed blocks, blocks that are new, renamed or retyped since the
+ * previous results, and everything downstream of them. The results equal a full evaluation.
+ */
+export function evaluateSheetIncremental(
+  document: SheetDocument,
+  previous: SheetResults | null,
+  changedBlockIds: readonly string[],
+): { results: SheetResults; evaluatedBlockIds: string[] } {
+  if (!previous || previous.engine !== ENGINE_VERSION || previous.format !== RESULTS_FORMAT) {
+    return run(document, () => null);
+  }
+  const changed = new Set(changedBlockIds);
+  return run(document, (prepared, graph, reused) => {
+    const { block } = prepared;
+    const before = previous.blocks[block.name];
+    if (!before || before.id !== block.id || before.type !== block.type) return null;
+    if (changed.has(block.id) || prepared.problem || graph.cycles.has(block.name)) return null;
+    if (!prepared.dependencies.every((dependency) => reused.has(dependency))) return null;
+    return before;
+  });
+}

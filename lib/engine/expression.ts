@@ -1,0 +1,351 @@
+/**
+ * The one locked-down mathjs instance of the engine, its geological time units, and the
+ * checks every expression passes before it runs.
+ *
+ * Expressions come from users, so the instance is locked: functions that reach the parser,
+ * change the configuration or make results irreproducible throw, and every parsed expression
+ * is checked against an allow-list of functions, a node-count cap and matrix-size caps
+ * before it is compiled.
+ */
+import { all, create, type MathNode, type Unit } from 'mathjs';
+import { EngineError } from './errors';
+
+export const MAX_EXPRESSION_LENGTH = 2000;
+export const MAX_EXPRESSION_NODES = 1000;
+export const MAX_NESTING_DEPTH = 40;
+export const MAX_MATRIX_ELEMENTS = 1000;
+
+const math = create(all, { number: 'number', precision: 64 });
+
+/* ------------------------------------------------------------------ units */
+// The Julian year (365.25 d), with SI-prefixed multiples and the annus forms used for ages
+// (IUPAC–IUGS usage, Holden et al. 2011).
+math.createUnit('yr', { definition: '365.25 day', aliases: ['yrs'] });
+math.createUnit('kyr', { definition: '1000 yr', aliases: ['kyrs', 'ka'] });
+math.createUnit('Myr', { definition: '1e6 yr', aliases: ['Myrs', 'Ma'] });
+math.createUnit('Gyr', { definition: '1e9 yr', aliases: ['Gyrs', 'Ga'] });
+
+/* ------------------------------------------------------ private references */
+const privateParse = math.parse.bind(math) as (text: string) => MathNode;
+const privateImport = math.import.bind(math) as (
+  object: Record<string, unknown>,
+  options?: { override?: boolean; silent?: boolean },
+) => void;
+
+type AnyFunction = (...args: unknown[]) => unknown;
+const original = {
+  ones: math.ones as unknown as AnyFunction,
+  zeros: math.zeros as unknown as AnyFunction,
+  identity: math.identity as unknown as AnyFunction,
+  range: math.range as unknown as AnyFunction,
+  matrix: math.matrix as unknown as AnyFunction,
+};
+
+/** Namespace names known before any engine function is added (for the reserved-name check). */
+const builtInNames = new Set(Object.keys(math));
+
+/* ---------------------------------------------------------- size limits */
+function numericArgument(fn: string, value: unknown): number {
+  if (typeof value === 'number') return value;
+  if (typeof value === 'boolean') return value ? 1 : 0;
+  throw new EngineError(`${fn}: expects plain numbers for sizes`);
+}
+
+function flattenSizes(fn: string, args: unknown[]): number[] {
+  const sizes: number[] = [];
+  for (const arg of args) {
+    if (typeof arg === 'string') continue; // storage format such as 'dense'
+    if (Array.isArray(arg)) sizes.push(...arg.flat(Infinity).map((v) => numericArgument(fn, v)));
+    else if (math.isMatrix(arg)) sizes.push(...(arg.toArray() as unknown[]).flat(Infinity).map((v) => numericArgument(fn, v)));
+    else sizes.push(numericArgument(fn, arg));
+  }
+  return sizes;
+}
+
+function assertElementCount(fn: string, count: number): void {
+  if (!Number.isFinite(count) || count > MAX_MATRIX_ELEMENTS) {
+    throw new EngineError(
+      `${fn}: a matrix may hold at most ${MAX_MATRIX_ELEMENTS} elements (asked for ${Number.isFinite(count) ? count : 'too many'})`,
+    );
+  }
+}
+
+function countElements(value: unknown): number {
+  if (Array.isArray(value)) return value.reduce((n: number, item) => n + countElements(item), 0);
+  if (math.isMatrix(value)) return value.size().reduce((a: number, b: number) => a * b, 1);
+  return 1;
+}
+
+const boundedConstructors: Record<string, AnyFunction> = {
+  ones: (...args) => {
+    assertElementCount('ones', flattenSizes('ones', args).reduce((a, b) => a * Math.max(0, b), 1));
+    return original.ones(...args);
+  },
+  zeros: (...args) => {
+    assertElementCount('zeros', flattenSizes('zeros', args).reduce((a, b) => a * Math.max(0, b), 1));
+    return original.zeros(...args);
+  },
+  identity: (...args) => {
+    const sizes = flattenSizes('identity', args);
+    const count = sizes.length === 1 ? sizes[0]! * sizes[0]! : sizes.reduce((a, b) => a * Math.max(0, b), 1);
+    assertElementCount('identity', count);
+    return original.identity(...args);
+  },
+  range: (...args) => {
+    if (args.some((a) => typeof a !== 'number' && typeof a !== 'boolean')) {
+      throw new EngineError('range: expects plain numbers, as range(start, end) or range(start, end, step)');
+    }
+    const [start, end, step = 1] = args as number[];
+    if (step === 0) throw new EngineError('range: the step must not be zero');
+    assertElementCount('range', Math.floor(Math.abs((end! - start!) / step)) + 1);
+    return original.range(...args);
+  },
+  matrix: (...args) => {
+    assertElementCount('matrix', countElements(args[0]));
+    return original.matrix(...args);
+  },
+};
+
+/* --------------------------------------------------------------- lockdown */
+function refused(name: string): AnyFunction {
+  return () => {
+    throw new EngineError(`the function "${name}" is not available in Denudata expressions`);
+  };
+}
+
+const LOCKED_FUNCTIONS = [
+  'import', 'createUnit', 'evaluate', 'parse', 'compile', 'simplify', 'simplifyConstant',
+  'simplifyCore', 'derivative', 'resolve', 'rationalize', 'config', 'reviver', 'replacer',
+  'chain', 'help', 'parser', 'leafCount', 'symbolicEqual', 'random', 'randomInt', 'pickRandom',
+] as const;
+
+// Resolve every lazily created function now, so that none is built later against an
+// overridden dependency.
+for (const name of Object.keys(math)) void (math as unknown as Record<string, unknown>)[name];
+
+privateImport(
+  {
+    ...Object.fromEntries(LOCKED_FUNCTIONS.map((name) => [name, refused(name)])),
+    ...boundedConstructors,
+  },
+  { override: true },
+);
+
+/** Functions an expression may call. Everything else is refused before evaluation. */
+const ALLOWED_FUNCTIONS = new Set<string>([
+  // arithmetic
+  'abs', 'add', 'subtract', 'multiply', 'divide', 'unaryMinus', 'unaryPlus', 'pow', 'sqrt', 'cbrt',
+  'nthRoot', 'square', 'cube', 'exp', 'expm1', 'log', 'log10', 'log2', 'log1p', 'mod', 'sign',
+  'round', 'floor', 'ceil', 'fix', 'hypot', 'gcd', 'lcm', 'dotMultiply', 'dotDivide', 'dotPow',
+  // trigonometry and special functions
+  'sin', 'cos', 'tan', 'asin', 'acos', 'atan', 'atan2', 'sinh', 'cosh', 'tanh', 'asinh', 'acosh',
+  'atanh', 'sec', 'csc', 'cot', 'erf', 'gamma', 'lgamma', 'factorial',
+  // statistics
+  'min', 'max', 'mean', 'median', 'std', 'variance', 'sum', 'prod', 'cumsum', 'mad',
+  // comparison and logic
+  'equal', 'unequal', 'larger', 'largerEq', 'smaller', 'smallerEq', 'compare', 'and', 'or', 'not',
+  'xor', 'isNaN', 'isZero', 'isPositive', 'isNegative', 'isInteger',
+  // units and numbers
+  'unit', 'to', 'number', 'splitUnit',
+  // small matrices (sizes are capped)
+  'ones', 'zeros', 'identity', 'range', 'matrix', 'size', 'transpose', 'dot', 'cross', 'det',
+  'inv', 'norm', 'trace', 'subset', 'concat', 'flatten', 'sort', 'count',
+]);
+
+/** Named values an expression may use: numeric or unit constants such as pi, e or gravity. */
+function isAllowedConstant(name: string): boolean {
+  if (!builtInNames.has(name)) return false;
+  const value = (math as unknown as Record<string, unknown>)[name];
+  return typeof value === 'number' || math.isUnit(value);
+}
+
+const expressionFunctions = new Set<string>();
+
+/**
+ * Adds an engine function (a block type used as a function) to expressions. Uses the private
+ * import reference, so it works after the lockdown.
+ */
+export function defineExpressionFunction(name: string, fn: AnyFunction): void {
+  if (expressionFunctions.has(name)) return;
+  privateImport({ [name]: fn }, { override: true });
+  expressionFunctions.add(name);
+}
+
+export function isExpressionFunction(name: string): boolean {
+  return expressionFunctions.has(name);
+}
+
+/* ----------------------------------------------------------- reserved names */
+const KEYWORDS = new Set(['to', 'in', 'and', 'or', 'not', 'xor', 'mod', 'end', 'true', 'false', 'null', 'undefined']);
+
+/** Why a name cannot be used as a block name in expressions, or null when it is free. */
+export function reservedNameReason(name: string): string | null {
+  if (KEYWORDS.has(name)) return `"${name}" is a word of the expression language`;
+  if (math.Unit.isValuelessUnit(name)) return `"${name}" is a unit the engine knows, so ${name}.x would be ambiguous`;
+  if (expressionFunctions.has(name)) return `"${name}" is a block type's function in expressions`;
+  if (builtInNames.has(name)) {
+    const value = (math as unknown as Record<string, unknown>)[name];
+    return typeof value === 'function'
+      ? `"${name}" is a function the engine knows`
+      : `"${name}" is a constant the engine knows`;
+  }
+  return null;
+}
+
+/* --------------------------------------------------------- expression checks */
+export interface OutputReference {
+  block: string;
+  output: string;
+}
+
+export interface CheckedExpression {
+  readonly text: string;
+  /** `name.output` references, in order of appearance (duplicates removed). */
+  readonly references: readonly OutputReference[];
+  /** Symbols that are neither units, constants nor functions (block names used bare, typos). */
+  readonly freeSymbols: readonly string[];
+  evaluate(scope: Map<string, unknown>): unknown;
+}
+
+function checkNesting(text: string): void {
+  let depth = 0;
+  let quote: string | null = null;
+  for (let i = 0; i < text.length; i++) {
+    const c = text[i]!;
+    if (quote) {
+      if (c === '\\') i++;
+      else if (c === quote) quote = null;
+      continue;
+    }
+    if (c === '"' || c === "'") quote = c;
+    else if (c === '(' || c === '[' || c === '{') {
+      depth++;
+      if (depth > MAX_NESTING_DEPTH) {
+        throw new EngineError(`the expression is nested more than ${MAX_NESTING_DEPTH} levels deep`);
+      }
+    } else if (c === ')' || c === ']' || c === '}') depth--;
+  }
+}
+
+interface Walk {
+  nodes: number;
+  references: Map<string, OutputReference>;
+  freeSymbols: Set<string>;
+}
+
+function refuse(message: string): never {
+  throw new EngineError(message);
+}
+
+function walk(node: MathNode, state: Walk, depth: number): void {
+  state.nodes++;
+  if (state.nodes > MAX_EXPRESSION_NODES) refuse(`the expression has more than ${MAX_EXPRESSION_NODES} parts`);
+  if (depth > 4 * MAX_NESTING_DEPTH) refuse('the expression is nested too deeply');
+  const n = node as MathNode & Record<string, unknown>;
+  switch (node.type) {
+    case 'AssignmentNode':
+      refuse('assignments (=) are not allowed: each input is a single expression');
+      break;
+    case 'FunctionAssignmentNode':
+      refuse('defining functions is not allowed in expressions');
+      break;
+    case 'BlockNode':
+      refuse('only one expression per input: ";" and line breaks separating statements are not allowed');
+      break;
+    case 'ObjectNode':
+      refuse('objects ({...}) are not allowed in expressions');
+      break;
+    case 'FunctionNode': {
+      const fn = n.fn as MathNode & { name?: string };
+      if (fn.type !== 'SymbolNode' || typeof fn.name !== 'string') {
+        refuse('only named functions can be called, such as sqrt(x)');
+      }
+      const name = fn.name!;
+      if (!ALLOWED_FUNCTIONS.has(name) && !expressionFunctions.has(name)) {
+        refuse(`the function "${name}" is not available in Denudata expressions`);
+      }
+      for (const arg of n.args as MathNode[]) walk(arg, state, depth + 1);
+      return;
+    }
+    case 'SymbolNode': {
+      const name = n.name as string;
+      if (ALLOWED_FUNCTIONS.has(name) || expressionFunctions.has(name) || builtInNames.has(name)) {
+        if (!isAllowedConstant(name)) refuse(`"${name}" can only be called as a function, such as ${name}(x)`);
+      } else if (!math.Unit.isValuelessUnit(name)) {
+        state.freeSymbols.add(name);
+      }
+      return;
+    }
+    case 'AccessorNode': {
+      const object = n.object as MathNode & { name?: string };
+      const index = n.index as MathNode & { dotNotation?: boolean; dimensions?: MathNode[] };
+      if (index.dotNotation) {
+        if (object.type !== 'SymbolNode') refuse('a dot may only follow a block name, as in name.output');
+        const output = (index.dimensions?.[0] as MathNode & { value?: unknown })?.value;
+        const key = `${object.name}.${String(output)}`;
+        if (!state.references.has(key)) state.references.set(key, { block: object.name!, output: String(output) });
+        state.nodes += 2;
+        return;
+      }
+      break;
+    }
+    case 'ArrayNode': {
+      const items = n.items as MathNode[];
+      if (items.length > MAX_MATRIX_ELEMENTS) refuse(`an array may hold at most ${MAX_MATRIX_ELEMENTS} elements`);
+      break;
+    }
+    default:
+      break;
+  }
+  node.forEach((child) => walk(child, state, depth + 1));
+}
+
+const cache = new Map<string, CheckedExpression>();
+const MAX_CACHE_ENTRIES = 5000;
+
+/**
+ * Parses and checks one expression (cached by its text). Throws an EngineError with a
+ * user-safe message when the expression does not parse or is refused.
+ */
+export function checkExpression(text: string): CheckedExpression {
+  const cached = cache.get(text);
+  if (cached) return cached;
+  if (text.length > MAX_EXPRESSION_LENGTH) {
+    throw new EngineError(`the expression is longer than ${MAX_EXPRESSION_LENGTH} characters`);
+  }
+  if (text.trim() === '') throw new EngineError('the expression is empty');
+  checkNesting(text);
+  let node: MathNode;
+  try {
+    node = privateParse(text);
+  } catch (error) {
+    if (error instanceof RangeError) throw new EngineError('the expression is nested too deeply');
+    const message = error instanceof Error ? error.message : 'unreadable';
+    throw new EngineError(`the expression does not parse: ${message}`);
+  }
+  const state: Walk = { nodes: 0, references: new Map(), freeSymbols: new Set() };
+  walk(node, state, 0);
+  const compiled = node.compile();
+  const checked: CheckedExpression = {
+    text,
+    references: [...state.references.values()],
+    freeSymbols: [...state.freeSymbols],
+    evaluate: (scope) => compiled.evaluate(scope),
+  };
+  if (cache.size >= MAX_CACHE_ENTRIES) cache.clear();
+  cache.set(text, checked);
+  return checked;
+}
+
+/** Parses a unit string such as "mm/yr" into a valueless Unit, or null when it is not a unit. */
+export function parseUnitText(text: string): Unit | null {
+  try {
+    if (text.length > 200) return null;
+    return math.unit(text);
+  } catch {
+    return null;
+  }
+}
+
+/** The locked instance, for the engine's own modules (units, blocks). Never export it further. */
+export { math };

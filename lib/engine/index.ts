@@ -1,0 +1,134 @@
+/**
+ * Denudata's calculation engine: the public API. Pure and server-only (it bundles mathjs);
+ * the client receives block-type metadata as plain data from blockCatalog().
+ */
+import type { BlockTypeDefinition, InputSpec, OutputSpec, SeriesSpec, WorkedExample } from './block-type';
+import { parseSheetDocument, type SheetDocument } from './document';
+import { EngineError, toSafeMessage } from './errors';
+import {
+  ENGINE_VERSION,
+  evaluateSheet as evaluateValidSheet,
+  evaluateSheetIncremental as evaluateValidSheetIncremental,
+  type SheetResults,
+} from './evaluate';
+import { checkExpression } from './expression';
+import { BLOCK_TYPES } from './registry';
+import { DIMENSIONS, formatValue, type DimensionInfo, type FormattedOutput } from './units';
+
+export { ENGINE_VERSION, RESULTS_FORMAT } from './evaluate';
+export type { BlockResult, BlockStatus, SheetResults } from './evaluate';
+export {
+  SHEET_FORMAT,
+  checkBlockName,
+  hashSheetDocument,
+  parseSheetDocument,
+  sheetDocumentSchema,
+} from './document';
+export type { ParseSheetResult, SheetBlock, SheetDocument } from './document';
+export { EngineError } from './errors';
+export type { Series } from './block-type';
+export { MAX_EXPRESSION_LENGTH } from './expression';
+
+/** The answer of a quick calculation. */
+export type QuickResult = FormattedOutput;
+
+function assertValid(document: SheetDocument): SheetDocument {
+  const parsed = parseSheetDocument(document);
+  if (!parsed.ok) throw new EngineError(`invalid document at ${parsed.path || 'the top level'}: ${parsed.message}`);
+  return parsed.document;
+}
+
+/** Evaluates every block of a sheet. Throws EngineError when the document is invalid. */
+export function evaluateSheet(document: SheetDocument): SheetResults {
+  return evaluateValidSheet(assertValid(document));
+}
+
+/**
+ * Re-evaluates the changed blocks and their dependents (plus blocks new, renamed or removed
+ * since `previous`); the results equal those of evaluateSheet.
+ */
+export function evaluateSheetIncremental(
+  document: SheetDocument,
+  previous: SheetResults | null,
+  changedBlockIds: string[],
+): { results: SheetResults; evaluatedBlockIds: string[] } {
+  return evaluateValidSheetIncremental(assertValid(document), previous, changedBlockIds);
+}
+
+/**
+ * Evaluates one expression with no sheet around it, e.g. "scarp_age(2 m, 0, 25 deg, 1 m^2/kyr)".
+ * Throws EngineError with a user-safe message.
+ */
+export function evaluateQuick(expr: string): QuickResult {
+  if (typeof expr !== 'string') throw new EngineError('the expression must be text');
+  try {
+    const checked = checkExpression(expr);
+    if (checked.references.length > 0) {
+      const first = checked.references[0]!;
+      throw new EngineError(`a quick calculation cannot refer to a block (${first.block}.${first.output})`);
+    }
+    if (checked.freeSymbols.length > 0) {
+      throw new EngineError(`unknown name "${checked.freeSymbols[0]}" (not a unit, constant or function)`);
+    }
+    return formatValue(checked.evaluate(new Map()), undefined);
+  } catch (error) {
+    if (error instanceof EngineError) throw error;
+    throw new EngineError(toSafeMessage(error));
+  }
+}
+
+/* ------------------------------------------------------------------ catalog */
+export interface InputInfo extends Omit<InputSpec, 'dimension'> {
+  dimension: DimensionInfo;
+}
+
+/** Plain, JSON-serialisable metadata of a block type (no functions). */
+export interface BlockTypeInfo {
+  id: string;
+  title: string;
+  purpose: string;
+  formula: { text: string; tex?: string };
+  sources: string[];
+  inputs: InputInfo[];
+  freeInputs: boolean;
+  outputs: OutputSpec[];
+  series: SeriesSpec[];
+  validity: string[];
+  cautions: string[];
+  warnings: string[];
+  example: WorkedExample | null;
+  /** Whether the type is also a function in expressions, with its call signature. */
+  expressionFunction: { name: string; signature: string } | null;
+}
+
+function describe(type: BlockTypeDefinition): BlockTypeInfo {
+  const info: BlockTypeInfo = {
+    id: type.id,
+    title: type.title,
+    purpose: type.purpose,
+    formula: { ...type.formula },
+    sources: [...type.sources],
+    inputs: type.inputs.map((input) => ({ ...input, dimension: { ...DIMENSIONS[input.dimension] } })),
+    freeInputs: type.freeInputs ?? false,
+    outputs: type.outputs.map((output) => ({ ...output })),
+    series: (type.series ?? []).map((series) => ({ ...series })),
+    validity: [...type.validity],
+    cautions: [...type.cautions],
+    warnings: [...type.warnings],
+    example: type.example,
+    expressionFunction: type.expressionFunction
+      ? {
+          name: type.id,
+          signature: `${type.id}(${type.inputs.map((i) => (i.optional || i.default !== undefined ? `[${i.name}]` : i.name)).join(', ')})`,
+        }
+      : null,
+  };
+  return JSON.parse(JSON.stringify(info)) as BlockTypeInfo;
+}
+
+let catalog: BlockTypeInfo[] | null = null;
+/** Metadata of every block type, for forms, help and the palette. */
+export function blockCatalog(): BlockTypeInfo[] {
+  catalog ??= BLOCK_TYPES.map(describe);
+  return JSON.parse(JSON.stringify(catalog)) as BlockTypeInfo[];
+}

@@ -1,0 +1,45 @@
+/**
+ * The one list of block types. Adding a type means adding its file under blocks/ and one line here.
+ */
+import type { BlockTypeDefinition } from './block-type';
+import { advectiveGeotherm } from './blocks/advective-geotherm';
+import { denudationConversion } from './blocks/denudation-conversion';
+import { formula } from './blocks/formula';
+import { hillslopeDiffusion } from './blocks/hillslope-diffusion';
+import { hilltopErosion } from './blocks/hilltop-erosion';
+import { isostaticResponse } from './blocks/isostatic-response';
+import { netChange } from './blocks/net-change';
+import { note } from './blocks/note';
+import { pecletNumber } from './blocks/peclet-number';
+import { quantities } from './blocks/quantities';
+import { scarpAge } from './blocks/scarp-age';
+import { scarpForward } from './blocks/scarp-forward';
+import { steadyStateChannel } from './blocks/steady-state-channel';
+import { streamPower } from './blocks/stream-power';
+import { transportCapacity } from './blocks/transport-capacity';
+
+export const BLOCK_TYPES: readonly BlockTypeDefinition[] = [
+  quantities,
+  formula,
+  note,
+  hillslopeDiffusion,
+  hilltopErosion,
+  scarpForward,
+  scarpAge,
+  transportCapacity,
+  netChange,
+  pecletNumber,
+  advectiveGeotherm,
+  streamPower,
+  steadyStateChannel,
+  isostaticResponse,
+  denudationConversion,
+];
+
+const byId = new Map(BLOCK_TYPES.map((type) => [type.id, type]));
+
+export const BLOCK_TYPE_IDS = BLOCK_TYPES.map((type) => type.id) as [string, ...string[]];
+
+export function getBlockType(id: string): BlockTypeDefinition | undefined {
+  return byId.get(id);
+}

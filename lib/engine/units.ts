@@ -1,0 +1,283 @@
+/**
+ * Units at the engine's boundary: dimension checks (by comparing dimensions, never unit
+ * strings), slope and temperature conventions, and formatting of outputs with explicit
+ * display units plus their SI form.
+ */
+import type { Unit } from 'mathjs';
+import { EngineError } from './errors';
+import { math } from './expression';
+
+/** The dimensions block inputs can declare. */
+export type DimensionKey =
+  | 'length'
+  | 'area'
+  | 'time'
+  | 'velocity'
+  | 'area_per_time'
+  | 'inverse_length'
+  | 'density'
+  | 'temperature'
+  | 'slope'
+  | 'dimensionless'
+  | 'variable';
+
+export interface DimensionInfo {
+  key: DimensionKey;
+  /** Dimensional formula, e.g. "L^2/T". */
+  symbol: string;
+  /** Phrase used in messages, e.g. "an area per time". */
+  noun: string;
+  /** A reference unit of that dimension (mathjs syntax), null when none applies. */
+  reference: string | null;
+}
+
+export const DIMENSIONS: Record<DimensionKey, DimensionInfo> = {
+  length: { key: 'length', symbol: 'L', noun: 'a length', reference: 'm' },
+  area: { key: 'area', symbol: 'L^2', noun: 'an area', reference: 'm^2' },
+  time: { key: 'time', symbol: 'T', noun: 'a time', reference: 's' },
+  velocity: { key: 'velocity', symbol: 'L/T', noun: 'a velocity (length per time)', reference: 'm/s' },
+  area_per_time: { key: 'area_per_time', symbol: 'L^2/T', noun: 'an area per time', reference: 'm^2/s' },
+  inverse_length: { key: 'inverse_length', symbol: '1/L', noun: 'an inverse length', reference: 'm^-1' },
+  density: { key: 'density', symbol: 'M/L^3', noun: 'a density (mass per volume)', reference: 'kg/m^3' },
+  temperature: { key: 'temperature', symbol: 'Θ', noun: 'a temperature', reference: 'K' },
+  slope: { key: 'slope', symbol: '1', noun: 'a slope (a gradient such as 0.2, or an angle such as 25 deg)', reference: null },
+  dimensionless: { key: 'dimensionless', symbol: '1', noun: 'a dimensionless number', reference: null },
+  variable: { key: 'variable', symbol: 'varies', noun: 'a quantity', reference: null },
+};
+
+/** A coerced input: its SI value (K for temperatures, a gradient for slopes) and dimensions. */
+export interface Quantity {
+  si: number;
+  /** mathjs base dimensions: [M, L, T, I, Θ, J, N, angle, bit]. */
+  dimensions: readonly number[];
+}
+
+const ZERO_DIMENSIONS: readonly number[] = Object.freeze([0, 0, 0, 0, 0, 0, 0, 0, 0]);
+const ANGLE_INDEX = 7;
+
+const referenceUnits = new Map<string, Unit>();
+function reference(text: string): Unit {
+  let unit = referenceUnits.get(text);
+  if (!unit) {
+    unit = math.unit(text);
+    referenceUnits.set(text, unit);
+  }
+  return unit;
+}
+
+/** Formats a value for an error message, e.g. "3 m / yr". */
+export function describeValue(value: unknown): string {
+  try {
+    if (typeof value === 'string') return JSON.stringify(value);
+    return math.format(value as never, { precision: 6 });
+  } catch {
+    return String(value);
+  }
+}
+
+function isAngle(unit: Unit): boolean {
+  return unit.dimensions.every((d, i) => (i === ANGLE_INDEX ? d === 1 : d === 0));
+}
+
+function isDimensionless(unit: Unit): boolean {
+  return unit.dimensions.every((d) => d === 0);
+}
+
+function expectation(info: DimensionInfo): string {
+  return info.symbol === '1' || info.symbol === 'varies' ? info.noun : `${info.noun} (${info.symbol})`;
+}
+
+function mismatch(input: string, info: DimensionInfo, value: unknown): EngineError {
+  const expected = expectation(info);
+  const given = describeValue(value);
+  return new EngineError(`${input}: expected ${expected}, got ${given}`, { input, expected, given });
+}
+
+/**
+ * Checks a mathjs value against a declared dimension and converts it to a Quantity.
+ * Slopes given as angles are converted with tan; temperatures go to kelvin.
+ */
+export function coerceInput(input: string, dimension: DimensionKey, value: unknown): Quantity {
+  const info = DIMENSIONS[dimension];
+  if (typeof value === 'boolean' || value === null || value === undefined || typeof value === 'string') {
+    throw mismatch(input, info, value);
+  }
+  if (math.isMatrix(value) || Array.isArray(value)) {
+    throw new EngineError(`${input}: expected a single value, got a list of ${countOf(value)} values`, {
+      input,
+      expected: expectation(info),
+      given: 'a list',
+    });
+  }
+  if (typeof value === 'number') {
+    if (!Number.isFinite(value)) throw new EngineError(`${input}: the value is not finite (${value})`, { input });
+    if (dimension === 'slope' || dimension === 'dimensionless' || dimension === 'variable') {
+      return { si: value, dimensions: ZERO_DIMENSIONS };
+    }
+    throw new EngineError(`${input}: expected ${expectation(info)}, got the plain number ${describeValue(value)} (add a unit, such as ${info.reference})`, {
+      input,
+      expected: expectation(info),
+      given: describeValue(value),
+    });
+  }
+  if (!math.isUnit(value)) throw mismatch(input, info, value);
+  const unit = value as Unit;
+  if (unit.value === null) {
+    throw new EngineError(`${input}: expected a value with its unit, got the unit ${unit.formatUnits()} alone`, { input });
+  }
+  let result: Quantity;
+  if (dimension === 'variable') {
+    result = { si: unit.toSI().toNumber(), dimensions: [...unit.dimensions] };
+  } else if (dimension === 'slope') {
+    if (isAngle(unit)) result = { si: Math.tan(unit.toNumber('rad')), dimensions: ZERO_DIMENSIONS };
+    else if (isDimensionless(unit)) result = { si: unit.toSI().toNumber(), dimensions: ZERO_DIMENSIONS };
+    else throw mismatch(input, info, value);
+  } else if (dimension === 'dimensionless') {
+    if (!isDimensionless(unit)) throw mismatch(input, info, value);
+    result = { si: unit.toSI().toNumber(), dimensions: ZERO_DIMENSIONS };
+  } else {
+    const ref = reference(info.reference!);
+    if (!unit.equalBase(ref)) throw mismatch(input, info, value);
+    result = { si: unit.toNumber(info.reference!), dimensions: [...unit.dimensions] };
+  }
+  if (!Number.isFinite(result.si)) throw new EngineError(`${input}: the value is not finite`, { input });
+  return result;
+}
+
+function countOf(value: unknown): number {
+  if (Array.isArray(value)) return value.flat(Infinity).length;
+  if (math.isMatrix(value)) return value.size().reduce((a: number, b: number) => a * b, 1);
+  return 1;
+}
+
+/* -------------------------------------------------------------- formatting */
+
+/** One formatted output, as the results document holds it. */
+export interface FormattedOutput {
+  value: number | string;
+  unit: string;
+  si: number | string;
+  siUnit: string;
+}
+
+interface UnitTemplate {
+  /** The display unit, valueless. */
+  display: Unit;
+  /** Its SI form, valueless, e.g. "m / s" for "mm / yr". */
+  si: Unit;
+  siText: string;
+  displayText: string;
+}
+
+const templates = new Map<string, UnitTemplate | null>();
+
+/** A parsed display unit with its SI form, or null when the text is not a unit. */
+export function unitTemplate(text: string): UnitTemplate | null {
+  if (templates.has(text)) return templates.get(text)!;
+  let template: UnitTemplate | null = null;
+  try {
+    if (text.length <= 200) {
+      const display = math.unit(text);
+      if (display.value === null) {
+        const si = math.unit(1, text).toSI();
+        const siText = si.formatUnits();
+        if (siText !== '') template = { display, si: math.unit(siText), siText, displayText: display.formatUnits() };
+      }
+    }
+  } catch {
+    template = null;
+  }
+  if (templates.size > 2000) templates.clear();
+  templates.set(text, template);
+  return template;
+}
+
+/** Whether two unit texts measure the same dimension. */
+export function sameDimension(a: string, b: string): boolean {
+  const ta = unitTemplate(a);
+  const tb = unitTemplate(b);
+  return ta !== null && tb !== null && ta.display.equalBase(tb.display);
+}
+
+/**
+ * A Unit in SI units holding the given SI value. mathjs keeps a unit's value in SI base units
+ * internally, and the SI form has no offset or prefix factor, so the value is set directly on a
+ * clone of the cached valueless SI unit (no string parsing on this hot path).
+ */
+function siUnitWithValue(template: UnitTemplate, si: number): Unit {
+  const unit = template.si.clone();
+  (unit as Unit & { value: number | null }).value = si;
+  return unit;
+}
+
+/** Builds a Unit from an SI value, shown in the given display unit. */
+export function quantityFromSI(si: number, displayUnit: string): Unit {
+  const template = unitTemplate(displayUnit);
+  if (!template) throw new EngineError(`"${displayUnit}" is not a unit`);
+  return siUnitWithValue(template, si).to(template.display);
+}
+
+/** Formats a mathjs Unit: value in its own unit, plus the SI form. */
+export function formatUnit(unit: Unit): FormattedOutput {
+  const si = unit.toSI();
+  const siUnit = si.formatUnits();
+  return {
+    value: unit.toNumber(),
+    unit: unit.formatUnits(),
+    si: si.toNumber(),
+    siUnit,
+  };
+}
+
+/** Formats an SI value in a display unit ("" = dimensionless). */
+export function formatFromSI(si: number, displayUnit: string): FormattedOutput {
+  if (displayUnit === '') return { value: si, unit: '', si, siUnit: '' };
+  return formatUnit(quantityFromSI(si, displayUnit));
+}
+
+/**
+ * Rebuilds the mathjs value of a formatted output, for use in later expressions. Built from the
+ * SI value so that a value read back from stored results is the very same number.
+ */
+export function valueFromFormatted(output: FormattedOutput): unknown {
+  if (typeof output.value === 'string') return output.value;
+  if (output.unit === '') return output.si;
+  return quantityFromSI(output.si as number, output.unit);
+}
+
+/** Formats any evaluated value of a quantities or formula block. */
+export function formatValue(value: unknown, displayUnit: string | undefined): FormattedOutput {
+  if (typeof value === 'string') return { value, unit: '', si: value, siUnit: '' };
+  if (typeof value === 'number') {
+    if (!Number.isFinite(value)) throw new EngineError(`the result is not finite (${value})`);
+    if (displayUnit !== undefined && displayUnit !== '') {
+      throw new EngineError(`the result is a plain number, so it cannot be shown in ${displayUnit}`);
+    }
+    return { value, unit: '', si: value, siUnit: '' };
+  }
+  if (math.isUnit(value)) {
+    let unit = value as Unit;
+    if (unit.value === null) throw new EngineError(`the result is the unit ${unit.formatUnits()} without a value`);
+    if (displayUnit !== undefined && displayUnit !== '') {
+      const template = unitTemplate(displayUnit);
+      if (!template) throw new EngineError(`the display unit "${displayUnit}" is not a unit`);
+      if (!unit.equalBase(template.display)) {
+        throw new EngineError(`the display unit ${displayUnit} does not fit the result ${describeValue(unit)}`);
+      }
+      unit = unit.to(template.display);
+    } else if (!(unit as Unit & { skipAutomaticSimplification?: boolean }).skipAutomaticSimplification) {
+      unit = (unit as Unit & { simplify(): Unit }).simplify();
+    }
+    const formatted = formatUnit(unit);
+    if (!Number.isFinite(formatted.value as number) || !Number.isFinite(formatted.si as number)) {
+      throw new EngineError('the result is not finite');
+    }
+    return formatted;
+  }
+  if (typeof value === 'boolean') throw new EngineError('the result is true/false; expected a number or a quantity');
+  if (math.isMatrix(value) || Array.isArray(value)) {
+    throw new EngineError(`the result is a list of ${countOf(value)} values; expected a single value (try sum, mean or max)`);
+  }
+  if (math.isComplex(value)) throw new EngineError(`the result is a complex number (${describeValue(value)})`);
+  throw new EngineError('the result is not a number, quantity or text');
+}

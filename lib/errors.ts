@@ -1,0 +1,51 @@
+// One error type for everything the web layer may show a user, mapped to HTTP in one place.
+export type ErrorCode =
+  | 'validation'
+  | 'unauthenticated'
+  | 'forbidden'
+  | 'not_found'
+  | 'conflict'
+  | 'too_large'
+  | 'timeout'
+  | 'internal';
+
+const STATUS: Record<ErrorCode, number> = {
+  validation: 400,
+  unauthenticated: 401,
+  forbidden: 403,
+  not_found: 404,
+  conflict: 409,
+  too_large: 413,
+  timeout: 422,
+  internal: 500,
+};
+
+export class AppError extends Error {
+  readonly code: ErrorCode;
+  readonly status: number;
+  readonly field?: string;
+  /** Extra members of the error body, such as `current` on a conflict. */
+  readonly extra?: Record<string, unknown>;
+
+  constructor(code: ErrorCode, message: string, options: { field?: string; extra?: Record<string, unknown> } = {}) {
+    super(message);
+    this.name = 'AppError';
+    this.code = code;
+    this.status = STATUS[code];
+    this.field = options.field;
+    this.extra = options.extra;
+  }
+
+  toBody() {
+    return {
+      error: { code: this.code, message: this.message, ...(this.field ? { field: this.field } : {}) },
+      ...this.extra,
+    };
+  }
+}
+
+export const badRequest = (message: string, field?: string) => new AppError('validation', message, { field });
+export const unauthenticated = () => new AppError('unauthenticated', 'Sign in to continue.');
+export const forbidden = (message = 'Your role in this team does not allow that.') => new AppError('forbidden', message);
+export const notFound = (what = 'That') => new AppError('not_found', `${what} was not found.`);
+export const conflict = (message: string, extra?: Record<string, unknown>) => new AppError('conflict', message, { extra });

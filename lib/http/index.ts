@@ -1,0 +1,73 @@
+import 'server-only';
+import { NextResponse } from 'next/server';
+import { z, type ZodType } from 'zod';
+import { AppError, badRequest } from '@/lib/errors';
+
+/** The largest JSON body any route accepts, in bytes. */
+export const MAX_BODY_BYTES = 1_000_000;
+
+export function json(data: unknown, status = 200, headers?: HeadersInit): NextResponse {
+  return NextResponse.json(data, { status, headers });
+}
+
+/** The first problem zod found, as a message and a dotted field path. */
+export function firstIssue(error: z.ZodError): { message: string; field?: string } {
+  const issue = error.issues[0];
+  const field = issue.path.length ? issue.path.map(String).join('.') : undefined;
+  return { message: field ? `${field}: ${issue.message}` : issue.message, field };
+}
+
+export function parseWith<T>(schema: ZodType<T>, input: unknown): T {
+  const parsed = schema.safeParse(input);
+  if (!parsed.success) {
+    const { message, field } = firstIssue(parsed.error);
+    throw badRequest(message, field);
+  }
+  return parsed.data;
+}
+
+/** Reads a JSON body (at most MAX_BODY_BYTES) and parses it with the schema: 400 or 413 otherwise. */
+export async function readJson<T>(request: Request, schema: ZodType<T>): Promise<T> {
+  const text = await request.text();
+  if (Buffer.byteLength(text) > MAX_BODY_BYTES) {
+    throw new AppError('too_large', `The request body is larger than ${MAX_BODY_BYTES / 1_000_000} MB.`);
+  }
+  let body: unknown;
+  try {
+    body = text.length ? JSON.parse(text) : undefined;
+  } catch {
+    throw badRequest('The request body is not valid JSON.');
+  }
+  if (body === undefined) throw badRequest('The request needs a JSON body.');
+  return parseWith(schema, body);
+}
+
+export function readQuery<T>(request: Request, schema: ZodType<T>): T {
+  const params = Object.fromEntries(new URL(request.url).searchParams.entries());
+  return parseWith(schema, params);
+}
+
+/** Turns any error into the contract's JSON error body; unexpected ones are logged, never shown. */
+export function errorResponse(error: unknown): NextResponse {
+  if (error instanceof AppError) {
+    if (error.status >= 500) console.error('[denudata]', error.code, error.message);
+    return json(error.toBody(), error.status);
+  }
+  console.error('[denudata] unexpected error:', error instanceof Error ? `${error.name}: ${error.message}` : 'unknown');
+  return json({ error: { code: 'internal', message: 'Something went wrong on the server. Try again.' } }, 500);
+}
+
+type Handler<Ctx> = (request: Request, context: Ctx) => Promise<Response>;
+
+/** Wraps a route handler so every error leaves as the contract's JSON shape. */
+export function route<Ctx>(handler: Handler<Ctx>): Handler<Ctx> {
+  return async (request, context) => {
+    try {
+      return await handler(request, context);
+    } catch (error) {
+      return errorResponse(error);
+    }
+  };
+}
+
+export const uuidParam = z.string().uuid('must be a valid id');

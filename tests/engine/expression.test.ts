@@ -1,0 +1,101 @@
+import { describe, expect, it } from 'vitest';
+import { EngineError, evaluateQuick } from '@/lib/engine';
+import { math } from '@/lib/engine/expression';
+import { expectClose } from '../support/approx';
+
+/** Runs a quick calculation and returns the message it is refused with, and how long it took. */
+function refusal(expr: string): { message: string; ms: number } {
+  const started = performance.now();
+  try {
+    evaluateQuick(expr);
+  } catch (error) {
+    expect(error).toBeInstanceOf(EngineError);
+    return { message: (error as Error).message, ms: performance.now() - started };
+  }
+  throw new Error(`expected "${expr.slice(0, 40)}" to be refused`);
+}
+
+describe('expression', () => {
+  describe('time units', () => {
+    it('should define yr as the Julian year of 365.25 d (common practice; FORMULAS.md §0)', () => {
+      expect(evaluateQuick('1 yr to s').value).toBe(31557600);
+      expect(evaluateQuick('2 yrs to yr').value).toBe(2);
+    });
+
+    it('should define kyr, Myr and Gyr with ka, Ma and Ga as aliases (Holden et al. 2011)', () => {
+      expectClose(evaluateQuick('1 ka to yr').value, 1000, 1e-12);
+      expectClose(evaluateQuick('3 Ma to kyr').value, 3000, 1e-12);
+      expectClose(evaluateQuick('1 Ga to Myr').value, 1000, 1e-12);
+      expectClose(evaluateQuick('1 mm/yr to km/Myr').value, 1, 1e-12);
+    });
+  });
+
+  describe('quick results', () => {
+    it('should report value, unit, SI value and SI unit as mathjs formats them', () => {
+      const result = evaluateQuick('1 mm/yr');
+      expect(result.unit).toBe('mm / yr');
+      expect(result.siUnit).toBe('m / s');
+      expectClose(result.si, 1e-3 / 31557600, 1e-12);
+    });
+
+    it('should give temperatures in K as their SI form', () => {
+      expect(evaluateQuick('10 degC')).toMatchObject({ value: 10, unit: 'degC', siUnit: 'K' });
+      expectClose(evaluateQuick('10 degC').si, 283.15, 1e-12);
+    });
+
+    it('should refuse names it does not know and references to blocks', () => {
+      expect(refusal('foo * 2').message).toContain('unknown name "foo"');
+      expect(refusal('hill.dz_dt * 2').message).toContain('cannot refer to a block');
+    });
+  });
+
+  describe('hostile expressions', () => {
+    const hostile: Array<[string, string, RegExp]> = [
+      ['import', 'import({x: 1}, {override: true})', /not available|objects/],
+      ['createUnit', 'createUnit("zz")', /createUnit/],
+      ['evaluate', 'evaluate("1 + 1")', /evaluate/],
+      ['parse', 'parse("1 + 1")', /parse/],
+      ['compile', 'compile("1 + 1")', /compile/],
+      ['simplify', 'simplify("x + x")', /simplify/],
+      ['derivative', 'derivative("x^2", "x")', /derivative/],
+      ['resolve', 'resolve("x")', /resolve/],
+      ['config', 'config({number: "BigNumber"})', /config/],
+      ['random', 'random()', /random/],
+      ['randomInt', 'randomInt(1, 10)', /randomInt/],
+      ['pickRandom', 'pickRandom([1, 2, 3])', /pickRandom/],
+      ['huge ones', 'ones(30000, 30000)', /at most 1000 elements/],
+      ['huge zeros', 'zeros([100000, 100000])', /at most 1000 elements/],
+      ['huge range', 'range(0, 1e12)', /at most 1000 elements/],
+      ['huge range syntax', 'sum(1:1e9)', /at most 1000 elements/],
+      ['huge identity', 'identity(100000)', /at most 1000 elements/],
+      ['huge matrix', `matrix([${Array.from({ length: 1001 }, () => '1').join(',')}])`, /at most 1000|longer than 2000 characters/],
+      ['deep nesting', `${'('.repeat(500)}1${')'.repeat(500)}`, /nested/],
+      ['long expression', `1${' + 1'.repeat(600)}`, /longer than 2000 characters/],
+      ['many parts', Array.from({ length: 700 }, () => '1').join('+'), /more than 1000 parts|nested too deeply/],
+      ['function definition', 'f(x) = x^2', /defining functions/],
+      ['assignment', 'x = 3', /assignments/],
+      ['statement separator', '1 + 1; 2 + 2', /one expression/],
+      ['function as value', 'sqrt', /can only be called/],
+      ['property of a value', '(1 m).constructor', /dot may only follow a block name/],
+    ];
+
+    for (const [label, expr, pattern] of hostile) {
+      it(`should refuse ${label} in well under a second`, () => {
+        const { message, ms } = refusal(expr);
+        expect(message).toMatch(pattern);
+        expect(ms).toBeLessThan(500);
+      });
+    }
+
+    it('should have locked the instance itself (direct calls throw)', () => {
+      expect(() => (math as unknown as { evaluate: (s: string) => unknown }).evaluate('1+1')).toThrow(/not available/);
+      expect(() => (math as unknown as { import: (o: object) => unknown }).import({})).toThrow(/not available/);
+      expect(() => (math as unknown as { createUnit: (s: string) => unknown }).createUnit('zz')).toThrow(/not available/);
+    });
+
+    it('should still allow small matrices and statistics', () => {
+      expect(evaluateQuick('sum(ones(10) * 2)').value).toBe(20);
+      expect(evaluateQuick('mean([1, 2, 3] m)').unit).toBe('m');
+    });
+  });
+});

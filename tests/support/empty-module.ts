@@ -1,0 +1,2 @@
+// Stands in for 'server-only' outside React Server Components (vitest, scripts).
+export {};
