@@ -12,7 +12,7 @@ export default defineConfig({
   },
   test: {
     include: ['tests/**/*.test.ts'],
-    exclude: ['tests/e2e/**', 'node_modules/**'],
+    exclude: ['tests/e2e/**', 'tests/api/**', 'node_modules/**'],
     environment: 'node',
     fileParallelism: false,
     testTimeout: 20_000,

@@ -1,0 +1,77 @@
+import type { Metadata } from 'next';
+import Link from 'next/link';
+import { notFound } from 'next/navigation';
+import { RevisionBlocks, ResultCautions } from '@/components/history/revision-view';
+import { ReviewBar } from '@/components/review/review-bar';
+import { RevisionSideRail } from '@/components/history/revision-side-rail';
+import { roleAllows } from '@/lib/auth/permissions';
+import { listCommentsBySheet } from '@/lib/db/comments';
+import { listMembersByTeam } from '@/lib/db/members';
+import { getRevision } from '@/lib/db/revisions';
+import { requireSheetPage } from '@/lib/sheets/page-access';
+
+export const metadata: Metadata = { title: 'Revision' };
+
+export default async function RevisionPage({ params }: { params: Promise<{ sheetId: string; n: string }> }) {
+  const { sheetId, n } = await params;
+  const { user, sheet, role } = await requireSheetPage(sheetId);
+  const number = Number(n);
+  if (!Number.isInteger(number) || number < 1) notFound();
+  const revision = await getRevision({ sheetId, number }).catch(() => null);
+  if (!revision) notFound();
+  const [members, comments] = await Promise.all([listMembersByTeam({ teamId: sheet.teamId }), listCommentsBySheet({ sheetId })]);
+  const checkers = members.items.filter((m) => roleAllows(m.role, 'check')).map((m) => m.user);
+  const isHead = number === sheet.headRevision;
+  const document = revision.document;
+  return (
+    <div className="grid gap-6 lg:grid-cols-[minmax(0,1fr)_340px]">
+    <div className="flex min-w-0 flex-col gap-4">
+      <nav aria-label="Breadcrumb" className="text-[13px] text-slate">
+        <Link href="/sheets" className="hover:text-basalt">Sheets</Link> /{' '}
+        <Link href={`/sheets/${sheetId}`} className="hover:text-basalt">{sheet.title}</Link> /{' '}
+        <Link href={`/sheets/${sheetId}/revisions`} className="hover:text-basalt">Revisions</Link> / r{number}
+      </nav>
+      <header className="flex flex-col gap-1">
+        <h1 className="text-[20px] font-semibold tracking-tight">
+          {document.title} <span className="num text-slate">r{number}</span>
+        </h1>
+        <p className="text-[13px] text-slate">
+          {document.site ? `${document.site.name} · ` : ''}read-only record · saved {revision.createdAt.slice(0, 16).replace('T', ' ')} UTC by{' '}
+          {revision.author?.name ?? '—'} · engine {revision.engineVersion} ·{' '}
+          <span className="num" title={revision.hash}>
+            {revision.hash.slice(0, 12)}
+          </span>
+        </p>
+        {revision.message ? <p className="text-[14px]">“{revision.message}”</p> : null}
+        <p className="flex flex-wrap gap-3 text-[13px]">
+          {number > 1 ? (
+            <Link className="text-river hover:underline" href={`/sheets/${sheetId}/compare?from=${number - 1}&to=${number}`}>
+              Changes since r{number - 1}
+            </Link>
+          ) : null}
+          <a className="text-river hover:underline" href={`/api/sheets/${sheetId}/export?revision=${number}`}>
+            Export this revision
+          </a>
+          {!isHead ? (
+            <Link className="text-river hover:underline" href={`/sheets/${sheetId}/revisions/${sheet.headRevision}`}>
+              Newest revision (r{sheet.headRevision})
+            </Link>
+          ) : null}
+        </p>
+      </header>
+      <ReviewBar sheetId={sheetId} revision={number} isHead={isHead} review={revision.review} role={role} userId={user.id} checkers={checkers} />
+      <ResultCautions />
+      <RevisionBlocks blocks={document.blocks} results={revision.results} openCounts={comments.openByBlock} />
+    </div>
+    <RevisionSideRail
+      sheetId={sheetId}
+      sheetTitle={sheet.title}
+      revision={number}
+      blocks={document.blocks.map((b) => ({ id: b.id, name: b.name, type: b.type }))}
+      userId={user.id}
+      canComment={roleAllows(role, 'comment')}
+      canFork={roleAllows(role, 'edit')}
+    />
+    </div>
+  );
+}

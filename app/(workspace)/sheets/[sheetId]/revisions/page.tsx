@@ -1,0 +1,83 @@
+import type { Metadata } from 'next';
+import Link from 'next/link';
+import { StatusTag } from '@/components/ui/status';
+import { listRevisionsBySheet } from '@/lib/db/revisions';
+import { requireSheetPage } from '@/lib/sheets/page-access';
+
+export const metadata: Metadata = { title: 'Revisions' };
+
+export default async function RevisionsPage({ params }: { params: Promise<{ sheetId: string }> }) {
+  const { sheetId } = await params;
+  const { sheet } = await requireSheetPage(sheetId);
+  const { items, total } = await listRevisionsBySheet({ sheetId });
+  return (
+    <div className="flex flex-col gap-4">
+      <nav aria-label="Breadcrumb" className="text-[13px] text-slate">
+        <Link href="/sheets" className="hover:text-basalt">Sheets</Link> /{' '}
+        <Link href={`/sheets/${sheetId}`} className="hover:text-basalt">{sheet.title}</Link> / Revisions
+      </nav>
+      <h1 className="text-[20px] font-semibold tracking-tight">Revisions of {sheet.title}</h1>
+      {total === 0 ? (
+        <p className="text-[13px] text-slate">No revision yet. Save one from the sheet to keep a numbered, reproducible record.</p>
+      ) : (
+        <>
+          <form action={`/sheets/${sheetId}/compare`} className="flex flex-wrap items-end gap-2 text-[13px]">
+            <label className="flex flex-col gap-1">
+              <span>From</span>
+              <select name="from" defaultValue={items[1]?.number ?? items[0].number} className="h-8 rounded-[3px] border border-rule bg-chalk px-2">
+                {items.map((r) => (
+                  <option key={r.number} value={r.number}>r{r.number}</option>
+                ))}
+              </select>
+            </label>
+            <label className="flex flex-col gap-1">
+              <span>To</span>
+              <select name="to" defaultValue={items[0].number} className="h-8 rounded-[3px] border border-rule bg-chalk px-2">
+                {items.map((r) => (
+                  <option key={r.number} value={r.number}>r{r.number}</option>
+                ))}
+              </select>
+            </label>
+            <button type="submit" className="h-8 rounded-[3px] border border-rule bg-chalk px-3 hover:bg-wash">Compare</button>
+          </form>
+          <div className="overflow-x-auto rounded-[4px] border border-rule bg-chalk">
+            <table className="w-full border-collapse text-[13px]">
+              <thead>
+                <tr className="border-b border-rule text-left text-[12px] text-slate">
+                  <th scope="col" className="px-3 py-2 font-medium">Revision</th>
+                  <th scope="col" className="px-3 py-2 font-medium">Message</th>
+                  <th scope="col" className="px-3 py-2 font-medium">Prepared by</th>
+                  <th scope="col" className="px-3 py-2 font-medium">Saved</th>
+                  <th scope="col" className="px-3 py-2 font-medium">Status</th>
+                  <th scope="col" className="px-3 py-2 font-medium">Hash</th>
+                  <th scope="col" className="px-3 py-2 font-medium"><span className="sr-only">Links</span></th>
+                </tr>
+              </thead>
+              <tbody>
+                {items.map((r, i) => (
+                  <tr key={r.number} className="border-b border-rule last:border-0" data-revision={r.number}>
+                    <td className="num px-3 py-2">
+                      <Link href={`/sheets/${sheetId}/revisions/${r.number}`} className="text-river hover:underline">r{r.number}</Link>
+                      {i === 0 ? <span className="ml-1 text-[12px] text-slate">(newest)</span> : null}
+                    </td>
+                    <td className="px-3 py-2">{r.message || <span className="text-slate">—</span>}</td>
+                    <td className="px-3 py-2">{r.author?.name ?? '—'}</td>
+                    <td className="num px-3 py-2 whitespace-nowrap"><time dateTime={r.createdAt}>{r.createdAt.slice(0, 16).replace('T', ' ')} UTC</time></td>
+                    <td className="px-3 py-2"><StatusTag status={r.review.status} /></td>
+                    <td className="num px-3 py-2 text-slate" title={r.hash}>{r.hash.slice(0, 10)}</td>
+                    <td className="px-3 py-2 whitespace-nowrap text-[12px]">
+                      {items[i + 1] ? (
+                        <Link href={`/sheets/${sheetId}/compare?from=${items[i + 1].number}&to=${r.number}`} className="text-river hover:underline">changes</Link>
+                      ) : null}{' '}
+                      <a href={`/api/sheets/${sheetId}/export?revision=${r.number}`} className="text-river hover:underline">export</a>
+                    </td>
+                  </tr>
+                ))}
+              </tbody>
+            </table>
+          </div>
+        </>
+      )}
+    </div>
+  );
+}

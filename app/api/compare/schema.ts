@@ -1,0 +1,11 @@
+import { z } from 'zod';
+
+const side = z
+  .string({ message: 'write it as {sheetId}:{revision}' })
+  .regex(/^[0-9a-f-]{36}:[1-9][0-9]{0,8}$/i, 'write it as {sheetId}:{revision}, e.g. 0d3a…:2')
+  .transform((value) => {
+    const [sheetId, n] = value.split(':');
+    return { sheetId: sheetId.toLowerCase(), number: Number(n) };
+  });
+
+export const compareQuerySchema = z.strictObject({ from: side, to: side });

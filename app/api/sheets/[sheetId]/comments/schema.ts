@@ -1,0 +1,14 @@
+import { z } from 'zod';
+
+export const blockIdSchema = z.string().min(1, 'name the block').max(64, 'a block id has at most 64 characters');
+
+export const listCommentsQuerySchema = z.strictObject({ blockId: blockIdSchema.optional() });
+
+export const commentBodySchema = z.string().trim().min(1, 'write something').max(10000, 'use at most 10000 characters');
+
+export const createCommentSchema = z.strictObject({
+  blockId: blockIdSchema,
+  revision: z.number({ message: 'must be a revision number' }).int('must be a whole number').min(0, 'must be 0 or more'),
+  body: commentBodySchema,
+  parentId: z.string().uuid('must be a comment id').optional(),
+});

@@ -1,0 +1,28 @@
+import { requireSheetRole, requireUser } from '@/lib/auth/guard';
+import { getSheetDraft } from '@/lib/db/sheets';
+import { json, parseWith, route } from '@/lib/http';
+import { badRequest } from '@/lib/errors';
+import { evaluateDraft, requireValidDocument } from '@/lib/sheet/evaluation.server';
+import { evaluateDraftSchema } from './schema';
+
+type Context = { params: Promise<{ sheetId: string }> };
+
+/** Results of the stored draft (incremental on the server) with the draft version they belong to. */
+export const POST = route(async (request, { params }: Context) => {
+  const user = await requireUser();
+  const { sheetId } = await params;
+  await requireSheetRole({ userId: user.id, sheetId, action: 'read' });
+  const text = await request.text();
+  if (text.trim()) {
+    let body: unknown;
+    try {
+      body = JSON.parse(text);
+    } catch {
+      throw badRequest('The request body is not valid JSON.');
+    }
+    parseWith(evaluateDraftSchema, body);
+  }
+  const draft = await getSheetDraft({ sheetId });
+  const document = requireValidDocument(draft.document, 'draft');
+  return json(await evaluateDraft({ sheetId, draftVersion: draft.version, document }));
+});

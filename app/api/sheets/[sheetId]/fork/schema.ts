@@ -1,0 +1,9 @@
+import { z } from 'zod';
+import { siteSchema, titleSchema } from '../../schema';
+
+export const forkSchema = z.strictObject({
+  title: titleSchema,
+  site: siteSchema.optional(),
+  revision: z.number().int('must be a whole number').min(1, 'revisions are numbered from 1').optional(),
+  teamId: z.string().uuid('must be a team id').optional(),
+});

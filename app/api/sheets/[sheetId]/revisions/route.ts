@@ -1,0 +1,22 @@
+import { requireSheetRole, requireUser } from '@/lib/auth/guard';
+import { listRevisionsBySheet, saveRevision } from '@/lib/db/revisions';
+import { json, readJson, route } from '@/lib/http';
+import { saveRevisionSchema } from './schema';
+
+type Context = { params: Promise<{ sheetId: string }> };
+
+export const GET = route(async (_request, { params }: Context) => {
+  const user = await requireUser();
+  const { sheetId } = await params;
+  await requireSheetRole({ userId: user.id, sheetId, action: 'read' });
+  return json(await listRevisionsBySheet({ sheetId }));
+});
+
+export const POST = route(async (request, { params }: Context) => {
+  const user = await requireUser();
+  const { sheetId } = await params;
+  await requireSheetRole({ userId: user.id, sheetId, action: 'edit' });
+  const body = await readJson(request, saveRevisionSchema);
+  const saved = await saveRevision({ sheetId, userId: user.id, baseRevision: body.baseRevision, document: body.document, message: body.message });
+  return json(saved, 201);
+});

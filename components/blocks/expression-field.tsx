@@ -1,0 +1,104 @@
+'use client';
+
+import { closeBrackets } from '@codemirror/autocomplete';
+import { Compartment, EditorState, Prec, type Extension } from '@codemirror/state';
+import { EditorView, keymap, placeholder as placeholderText } from '@codemirror/view';
+import { useEffect, useRef } from 'react';
+import { expressionCompletion, expressionHighlight, expressionLanguage, type CompletionData } from './expression-language';
+
+export interface ExpressionFieldProps {
+  id: string;
+  labelId: string;
+  describedBy?: string;
+  value: string;
+  placeholder?: string;
+  readOnly: boolean;
+  invalid: boolean;
+  completion: () => CompletionData;
+  units: readonly string[];
+  functions: readonly string[];
+  onChange: (value: string) => void;
+}
+
+/**
+ * One-line expression editor on CodeMirror's view and state only (no basic setup: it keeps the
+ * sheet page light). Undo and redo go to the sheet's own history, so Ctrl+Z is one stack.
+ */
+export default function ExpressionField(props: ExpressionFieldProps) {
+  const host = useRef<HTMLDivElement>(null);
+  const view = useRef<EditorView | null>(null);
+  const latest = useRef(props);
+  latest.current = props;
+  const attributes = useRef(new Compartment());
+  const editable = useRef(new Compartment());
+
+  const attributeExtension = (p: ExpressionFieldProps): Extension =>
+    EditorView.contentAttributes.of({
+      'aria-labelledby': p.labelId,
+      ...(p.describedBy ? { 'aria-describedby': p.describedBy } : {}),
+      ...(p.invalid ? { 'aria-invalid': 'true' } : {}),
+      ...(p.readOnly ? { 'aria-readonly': 'true' } : {}),
+      'aria-multiline': 'false',
+      spellcheck: 'false',
+      autocapitalize: 'off',
+      autocorrect: 'off',
+    });
+  const editableExtension = (readOnly: boolean): Extension => [EditorView.editable.of(!readOnly), EditorState.readOnly.of(readOnly)];
+
+  useEffect(() => {
+    if (!host.current) return;
+    const p = latest.current;
+    const state = EditorState.create({
+      doc: p.value,
+      extensions: [
+        expressionLanguage(new Set(p.units), new Set(p.functions)),
+        expressionHighlight,
+        expressionCompletion(() => latest.current.completion()),
+        closeBrackets(),
+        placeholderText(p.placeholder ?? ''),
+        EditorView.lineWrapping,
+        // One line: Enter adds nothing; pasted line breaks become spaces.
+        Prec.high(keymap.of([{ key: 'Enter', run: () => true }])),
+        EditorState.transactionFilter.of((tr) => {
+          if (!tr.docChanged || tr.newDoc.lines <= 1) return tr;
+          const text = tr.newDoc.toString().replace(/\s*\n\s*/g, ' ');
+          return [tr, { changes: { from: 0, to: tr.newDoc.length, insert: text }, sequential: true }];
+        }),
+        EditorView.updateListener.of((update) => {
+          if (update.docChanged) {
+            const text = update.state.doc.toString();
+            if (text !== latest.current.value) latest.current.onChange(text);
+          }
+        }),
+        attributes.current.of(attributeExtension(p)),
+        editable.current.of(editableExtension(p.readOnly)),
+      ],
+    });
+    view.current = new EditorView({ state, parent: host.current });
+    return () => {
+      view.current?.destroy();
+      view.current = null;
+    };
+    // The editor is made once; later prop changes are applied below.
+    // eslint-disable-next-line react-hooks/exhaustive-deps
+  }, []);
+
+  // Outside changes (undo, rename, merge) replace the text.
+  useEffect(() => {
+    const v = view.current;
+    if (!v) return;
+    const current = v.state.doc.toString();
+    if (current !== props.value) v.dispatch({ changes: { from: 0, to: current.length, insert: props.value } });
+  }, [props.value]);
+
+  useEffect(() => {
+    view.current?.dispatch({ effects: attributes.current.reconfigure(attributeExtension(props)) });
+    // eslint-disable-next-line react-hooks/exhaustive-deps
+  }, [props.labelId, props.describedBy, props.invalid, props.readOnly]);
+
+  useEffect(() => {
+    view.current?.dispatch({ effects: editable.current.reconfigure(editableExtension(props.readOnly)) });
+  }, [props.readOnly]);
+
+  return <div ref={host} className="expr-field" data-invalid={props.invalid ? 'true' : undefined} data-readonly={props.readOnly ? 'true' : undefined} id={props.id} />;
+}

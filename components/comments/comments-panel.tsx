@@ -1,0 +1,204 @@
+'use client';
+
+import { useMutation, useQuery, useQueryClient } from '@tanstack/react-query';
+import { useState, type FormEvent } from 'react';
+import { Button } from '@/components/ui/button';
+
+type Person = { id: string; name: string; email: string };
+type Comment = {
+  id: string;
+  blockId: string;
+  revision: number;
+  parentId: string | null;
+  author: Person | null;
+  body: string;
+  createdAt: string;
+  edited: boolean;
+  resolved: boolean;
+  resolvedBy: Person | null;
+  outdated: boolean;
+};
+type Thread = Comment & { replies: Comment[] };
+type Listing = { items: Thread[]; total: number; openByBlock: Record<string, number> };
+
+export const commentsKey = (sheetId: string) => ['comments', sheetId] as const;
+
+async function call(url: string, method: string, body?: unknown) {
+  const response = await fetch(url, { method, headers: body ? { 'content-type': 'application/json' } : undefined, body: body ? JSON.stringify(body) : undefined });
+  const payload = await response.json().catch(() => null);
+  if (!response.ok) throw new Error(payload?.error?.message ?? 'That did not work. Try again.');
+  return payload;
+}
+
+/** Every comment of a sheet (one query shared by the panel and the per-block counts). */
+export function useSheetComments(sheetId: string) {
+  return useQuery<Listing>({ queryKey: commentsKey(sheetId), queryFn: () => call(`/api/sheets/${sheetId}/comments`, 'GET') });
+}
+
+/** The number of open threads on a block, for the badge on its card. */
+export function OpenCommentCount({ sheetId, blockId }: { sheetId: string; blockId: string }) {
+  const { data } = useSheetComments(sheetId);
+  const count = data?.openByBlock[blockId] ?? 0;
+  if (!count) return null;
+  return (
+    <span className="inline-flex items-center gap-1 text-[12px] text-ochre" data-open-comments={count} aria-label={`${count} open ${count === 1 ? 'comment' : 'comments'}`}>
+      <span aria-hidden="true">◆</span>
+      {count}
+    </span>
+  );
+}
+
+function when(iso: string) {
+  return iso.slice(0, 16).replace('T', ' ');
+}
+
+function CommentBody({ comment, userId, canComment, onEdit }: { comment: Comment; userId: string; canComment: boolean; onEdit: (id: string, body: string) => Promise<void> }) {
+  const [editing, setEditing] = useState(false);
+  const [text, setText] = useState(comment.body);
+  return (
+    <div className="flex flex-col gap-1" data-comment-id={comment.id}>
+      <div className="flex flex-wrap items-baseline gap-2 text-[12px] text-slate">
+        <span className="font-medium text-basalt">{comment.author?.name ?? 'Former member'}</span>
+        <time dateTime={comment.createdAt} className="num">{when(comment.createdAt)}</time>
+        <span className="num">r{comment.revision}</span>
+        {comment.edited ? <span>(edited)</span> : null}
+        {comment.outdated ? (
+          <span className="text-clay" title="The block has changed since this comment was made">
+            <span aria-hidden="true">⚠ </span>block changed since
+          </span>
+        ) : null}
+      </div>
+      {editing ? (
+        <form
+          className="flex flex-col gap-1"
+          onSubmit={async (e) => {
+            e.preventDefault();
+            await onEdit(comment.id, text);
+            setEditing(false);
+          }}
+        >
+          <textarea aria-label="Edit comment" value={text} onChange={(e) => setText(e.target.value)} rows={3} maxLength={10000} className="rounded-[3px] border border-rule bg-chalk px-2 py-1 text-[13px]" />
+          <div className="flex gap-2">
+            <Button type="submit" variant="primary">Save</Button>
+            <Button onClick={() => { setEditing(false); setText(comment.body); }}>Cancel</Button>
+          </div>
+        </form>
+      ) : (
+        <p className="whitespace-pre-wrap text-[13px]">{comment.body}</p>
+      )}
+      {!editing && canComment && comment.author?.id === userId ? (
+        <button type="button" className="self-start text-[12px] text-river hover:underline" onClick={() => setEditing(true)}>
+          Edit
+        </button>
+      ) : null}
+    </div>
+  );
+}
+
+/** Comments on the selected block: threads with replies, resolve and reopen, edit one's own. */
+export function CommentsPanel({
+  sheetId,
+  blockId,
+  blockName,
+  revision,
+  userId,
+  canComment,
+}: {
+  sheetId: string;
+  blockId: string;
+  blockName: string;
+  /** The revision the new comment is about (the head; 0 while the sheet has none). */
+  revision: number;
+  userId: string;
+  canComment: boolean;
+}) {
+  const queryClient = useQueryClient();
+  const { data, isLoading } = useSheetComments(sheetId);
+  const [error, setError] = useState<string | null>(null);
+  const [showResolved, setShowResolved] = useState(false);
+  const refresh = () => queryClient.invalidateQueries({ queryKey: commentsKey(sheetId) });
+  const mutate = useMutation({
+    mutationFn: ({ url, method, body }: { url: string; method: string; body: unknown }) => call(url, method, body),
+    onSuccess: () => {
+      setError(null);
+      return refresh();
+    },
+    onError: (e: Error) => setError(e.message),
+  });
+
+  const threads = (data?.items ?? []).filter((t) => t.blockId === blockId);
+  const open = threads.filter((t) => !t.resolved);
+  const resolved = threads.filter((t) => t.resolved);
+
+  async function post(event: FormEvent<HTMLFormElement>, parentId?: string) {
+    event.preventDefault();
+    const form = event.currentTarget;
+    const body = String(new FormData(form).get('body') ?? '').trim();
+    if (!body) return;
+    await mutate.mutateAsync({ url: `/api/sheets/${sheetId}/comments`, method: 'POST', body: { blockId, revision, body, ...(parentId ? { parentId } : {}) } }).then(
+      () => form.reset(),
+      () => undefined,
+    );
+  }
+  const edit = async (id: string, body: string) => {
+    await mutate.mutateAsync({ url: `/api/comments/${id}`, method: 'PATCH', body: { body } }).catch(() => undefined);
+  };
+  const setResolved = (id: string, value: boolean) => mutate.mutate({ url: `/api/comments/${id}`, method: 'PATCH', body: { resolved: value } });
+
+  const renderThread = (thread: Thread) => (
+    <li key={thread.id} className={`flex flex-col gap-2 rounded-[4px] border border-rule p-2 ${thread.resolved ? 'opacity-70' : ''}`} data-thread={thread.id}>
+      <CommentBody comment={thread} userId={userId} canComment={canComment} onEdit={edit} />
+      {thread.replies.length ? (
+        <ul className="flex flex-col gap-2 border-l-2 border-rule pl-3">
+          {thread.replies.map((r) => (
+            <li key={r.id}>
+              <CommentBody comment={r} userId={userId} canComment={canComment} onEdit={edit} />
+            </li>
+          ))}
+        </ul>
+      ) : null}
+      {canComment ? (
+        <div className="flex flex-col gap-1">
+          {!thread.resolved ? (
+            <form onSubmit={(e) => post(e, thread.id)} className="flex gap-1">
+              <input name="body" aria-label="Reply" placeholder="Reply…" maxLength={10000} className="h-8 flex-1 rounded-[3px] border border-rule bg-chalk px-2 text-[13px]" />
+              <Button type="submit" disabled={mutate.isPending}>Reply</Button>
+            </form>
+          ) : null}
+          <button type="button" className="self-start text-[12px] text-river hover:underline" onClick={() => setResolved(thread.id, !thread.resolved)}>
+            {thread.resolved ? 'Reopen' : 'Resolve'}
+          </button>
+        </div>
+      ) : null}
+      {thread.resolved && thread.resolvedBy ? <p className="text-[12px] text-moss"><span aria-hidden="true">✓ </span>Resolved by {thread.resolvedBy.name}</p> : null}
+    </li>
+  );
+
+  return (
+    <section aria-label={`Comments on ${blockName}`} className="flex flex-col gap-3 text-[13px]">
+      <h2 className="text-[14px] font-semibold">
+        Comments on <span className="num">{blockName}</span> <span className="font-normal text-slate">({open.length} open)</span>
+      </h2>
+      {isLoading ? <p className="text-slate">Loading…</p> : null}
+      {canComment ? (
+        <form onSubmit={(e) => post(e)} className="flex flex-col gap-1">
+          <textarea name="body" aria-label="New comment" placeholder="Comment on this block… (@name to mention)" rows={3} maxLength={10000} className="rounded-[3px] border border-rule bg-chalk px-2 py-1" />
+          <Button type="submit" variant="primary" disabled={mutate.isPending} className="self-end">Comment</Button>
+        </form>
+      ) : (
+        <p className="text-[12px] text-slate">Your role can read comments but not write them.</p>
+      )}
+      {error ? <p role="alert" className="text-oxide"><span aria-hidden="true">✕ </span>{error}</p> : null}
+      {open.length === 0 && !isLoading ? <p className="text-slate">No open comments on this block.</p> : null}
+      <ul className="flex flex-col gap-2">{open.map(renderThread)}</ul>
+      {resolved.length ? (
+        <div>
+          <button type="button" className="text-[12px] text-river hover:underline" aria-expanded={showResolved} onClick={() => setShowResolved((v) => !v)}>
+            {showResolved ? 'Hide' : 'Show'} {resolved.length} resolved
+          </button>
+          {showResolved ? <ul className="mt-2 flex flex-col gap-2">{resolved.map(renderThread)}</ul> : null}
+        </div>
+      ) : null}
+    </section>
+  );
+}

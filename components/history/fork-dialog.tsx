@@ -1,0 +1,87 @@
+'use client';
+
+import { useRouter } from 'next/navigation';
+import { useState, type FormEvent } from 'react';
+import { Button } from '@/components/ui/button';
+import { Dialog } from '@/components/ui/dialog';
+import { Field } from '@/components/ui/field';
+
+/** Forks a sheet for a new site: title and site; the fork starts from the chosen (default: newest) revision. */
+export function ForkDialog({
+  open,
+  onClose,
+  sheetId,
+  sourceTitle,
+  revision,
+  teams,
+}: {
+  open: boolean;
+  onClose: () => void;
+  sheetId: string;
+  sourceTitle: string;
+  revision?: number;
+  /** Teams where the user may create sheets; the first is the default. */
+  teams?: { id: string; name: string }[];
+}) {
+  const router = useRouter();
+  const [errors, setErrors] = useState<Record<string, string>>({});
+  const [pending, setPending] = useState(false);
+
+  async function onSubmit(event: FormEvent<HTMLFormElement>) {
+    event.preventDefault();
+    const form = new FormData(event.currentTarget);
+    const siteName = String(form.get('siteName') ?? '').trim();
+    const lat = String(form.get('latitude') ?? '').trim();
+    const lon = String(form.get('longitude') ?? '').trim();
+    const body = {
+      title: String(form.get('title') ?? ''),
+      ...(siteName ? { site: { name: siteName, ...(lat ? { latitude: Number(lat) } : {}), ...(lon ? { longitude: Number(lon) } : {}) } } : {}),
+      ...(revision ? { revision } : {}),
+      ...(form.get('teamId') ? { teamId: String(form.get('teamId')) } : {}),
+    };
+    setPending(true);
+    setErrors({});
+    const response = await fetch(`/api/sheets/${sheetId}/fork`, { method: 'POST', headers: { 'content-type': 'application/json' }, body: JSON.stringify(body) });
+    const payload = (await response.json().catch(() => null)) as { sheet?: { id: string }; error?: { message: string; field?: string } } | null;
+    setPending(false);
+    if (response.status === 201 && payload?.sheet) {
+      onClose();
+      router.push(`/sheets/${payload.sheet.id}`);
+      return;
+    }
+    const field = payload?.error?.field ?? 'form';
+    const key = field.startsWith('site.name') ? 'siteName' : field.startsWith('site.latitude') ? 'latitude' : field.startsWith('site.longitude') ? 'longitude' : field;
+    setErrors({ [key]: (payload?.error?.message ?? 'The fork could not be made.').replace(/^[\w.]+: /, '') });
+  }
+
+  return (
+    <Dialog open={open} onClose={onClose} title="Fork for a new site">
+      <form onSubmit={onSubmit} className="flex flex-col gap-3" noValidate>
+        <p className="text-[13px] text-slate">
+          A copy of “{sourceTitle}”{revision ? ` at revision ${revision}` : ''} as a new draft that remembers where it came from.
+        </p>
+        <Field label="Title" name="title" required defaultValue={`${sourceTitle} (copy)`} error={errors.title} />
+        <Field label="Site" name="siteName" error={errors.siteName} hint="Leave empty to keep the source's site." />
+        <div className="grid grid-cols-2 gap-2">
+          <Field label="Latitude" name="latitude" inputMode="decimal" error={errors.latitude} />
+          <Field label="Longitude" name="longitude" inputMode="decimal" error={errors.longitude} />
+        </div>
+        {teams && teams.length > 1 ? (
+          <label className="flex flex-col gap-1 text-[13px]">
+            <span className="font-medium">Team</span>
+            <select name="teamId" defaultValue={teams[0].id} className="h-9 rounded-[3px] border border-rule bg-chalk px-2">
+              {teams.map((t) => <option key={t.id} value={t.id}>{t.name}</option>)}
+            </select>
+          </label>
+        ) : null}
+        {errors.form || errors.revision || errors.teamId ? (
+          <p role="alert" className="text-[13px] text-oxide"><span aria-hidden="true">✕ </span>{errors.form ?? errors.revision ?? errors.teamId}</p>
+        ) : null}
+        <div className="flex justify-end gap-2">
+          <Button onClick={onClose}>Cancel</Button>
+          <Button type="submit" variant="primary" disabled={pending}>{pending ? 'Forking…' : 'Fork'}</Button>
+        </div>
+      </form>
+    </Dialog>
+  );
+}

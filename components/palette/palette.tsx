@@ -1,0 +1,347 @@
+'use client';
+
+import { Command, defaultFilter } from 'cmdk';
+import { useRouter } from 'next/navigation';
+import { useQuery, useQueryClient } from '@tanstack/react-query';
+import { useCallback, useEffect, useMemo, useRef, useState, type ReactNode } from 'react';
+import { toggleTheme } from '@/lib/ui/theme';
+import { formatNumber } from '@/lib/sheet/format';
+import type { QuickAnswer, QuickRecord } from '@/lib/sheet/types';
+import { RegistryProvider, useCommandRegistry, type PaletteCommand } from './command-registry';
+import { FIXED_SHORTCUTS, isTypingTarget } from './shortcuts';
+
+const LOOKS_LIKE_EXPRESSION = /[0-9(]/;
+
+async function postQuick(expr: string, preview: boolean): Promise<QuickAnswer> {
+  const response = await fetch('/api/quick', {
+    method: 'POST',
+    headers: { 'content-type': 'application/json' },
+    body: JSON.stringify({ expr, preview }),
+  });
+  const body = await response.json().catch(() => null);
+  if (!response.ok) throw new Error(body?.error?.message ?? `The server answered ${response.status}.`);
+  return body as QuickAnswer;
+}
+
+export function formatQuick(answer: QuickAnswer): string {
+  return `${typeof answer.value === 'number' ? formatNumber(answer.value) : answer.value}${answer.unit ? ` ${answer.unit}` : ''}`;
+}
+
+function useDebounced<T>(value: T, ms: number): T {
+  const [debounced, setDebounced] = useState(value);
+  useEffect(() => {
+    const t = setTimeout(() => setDebounced(value), ms);
+    return () => clearTimeout(t);
+  }, [value, ms]);
+  return debounced;
+}
+
+/** The palette (Ctrl+K / ⌘K), its command registry and the shortcuts sheet, for every workspace page. */
+export function PaletteProvider({ children }: { children: ReactNode }) {
+  const [open, setOpen] = useState(false);
+  const [query, setQuery] = useState('');
+  const [shortcutsOpen, setShortcutsOpen] = useState(false);
+  const onOpen = useCallback((initial?: string) => {
+    setQuery(initial ?? '');
+    setOpen(true);
+  }, []);
+  const onShowShortcuts = useCallback(() => {
+    setOpen(false);
+    setShortcutsOpen(true);
+  }, []);
+
+  useEffect(() => {
+    const onKey = (event: KeyboardEvent) => {
+      if ((event.ctrlKey || event.metaKey) && !event.altKey && event.key.toLowerCase() === 'k') {
+        event.preventDefault();
+        setOpen((v) => {
+          if (!v) setQuery('');
+          return !v;
+        });
+        return;
+      }
+      if (event.key === '?' && !event.ctrlKey && !event.metaKey && !isTypingTarget(event.target)) {
+        event.preventDefault();
+        setShortcutsOpen(true);
+      }
+    };
+    // Capture phase: the palette opens even from inside an expression editor.
+    window.addEventListener('keydown', onKey, true);
+    return () => window.removeEventListener('keydown', onKey, true);
+  }, []);
+
+  return (
+    <RegistryProvider onOpen={onOpen} onShowShortcuts={onShowShortcuts}>
+      <GlobalCommands />
+      {children}
+      <Palette open={open} setOpen={setOpen} query={query} setQuery={setQuery} />
+      {shortcutsOpen ? <ShortcutsSheet onClose={() => setShortcutsOpen(false)} /> : null}
+    </RegistryProvider>
+  );
+}
+
+function GlobalCommands() {
+  const router = useRouter();
+  const { register, unregister, showShortcuts } = useCommandRegistry();
+  const commands = useMemo<PaletteCommand[]>(
+    () => [
+      { id: 'theme', title: 'Switch theme (light / dark)', group: 'General', keywords: ['dark', 'light', 'colour', 'appearance'], run: () => toggleTheme() },
+      { id: 'shortcuts', title: 'Show keyboard shortcuts', group: 'General', keywords: ['keys', 'help'], shortcut: '?', run: showShortcuts },
+      { id: 'go-sheets', title: 'Go to all sheets', group: 'Go to', keywords: ['index', 'list'], run: () => router.push('/sheets') },
+      { id: 'go-team', title: 'Go to team and members', group: 'Go to', keywords: ['members', 'roles'], run: () => router.push('/team') },
+    ],
+    [router, showShortcuts],
+  );
+  useEffect(() => {
+    register('global', commands);
+    return () => unregister('global');
+  }, [commands, register, unregister]);
+  return null;
+}
+
+const GROUP_ORDER = ['Sheet', 'Block', 'Add block', 'Go to', 'General'];
+
+function Palette({
+  open,
+  setOpen,
+  query,
+  setQuery,
+}: {
+  open: boolean;
+  setOpen: (open: boolean) => void;
+  query: string;
+  setQuery: (query: string) => void;
+}) {
+  const { commands, quickInsert } = useCommandRegistry();
+  const queryClient = useQueryClient();
+  const trimmed = query.trim();
+  const debounced = useDebounced(trimmed, 250);
+  const isExpression = LOOKS_LIKE_EXPRESSION.test(debounced) && debounced.length <= 2000;
+  const [notice, setNotice] = useState<string | null>(null);
+
+  const quick = useQuery({
+    queryKey: ['quick-preview', debounced],
+    queryFn: () => postQuick(debounced, true),
+    enabled: open && isExpression,
+    retry: false,
+    staleTime: 60_000,
+  });
+  const recent = useQuery({
+    queryKey: ['quick-recent'],
+    queryFn: async () => {
+      const response = await fetch('/api/quick/recent');
+      if (!response.ok) throw new Error('Could not load recent quick calculations.');
+      return (await response.json()) as { items: QuickRecord[] };
+    },
+    enabled: open,
+    staleTime: 5_000,
+  });
+
+  useEffect(() => {
+    if (!open) setNotice(null);
+  }, [open]);
+
+
+  const groups = useMemo(() => {
+    const byGroup = new Map<string, PaletteCommand[]>();
+    for (const command of commands) {
+      const list = byGroup.get(command.group) ?? [];
+      list.push(command);
+      byGroup.set(command.group, list);
+    }
+    return [...byGroup.entries()].sort((a, b) => {
+      const ia = GROUP_ORDER.indexOf(a[0]);
+      const ib = GROUP_ORDER.indexOf(b[0]);
+      return (ia < 0 ? 99 : ia) - (ib < 0 ? 99 : ib);
+    });
+  }, [commands]);
+
+  const runCommand = (command: PaletteCommand) => {
+    setOpen(false);
+    // Let the dialog close before the command moves focus.
+    setTimeout(() => command.run(), 0);
+  };
+
+  const acceptQuick = async () => {
+    const expr = trimmed;
+    if (!expr) return;
+    try {
+      const answer = await postQuick(expr, false);
+      void queryClient.invalidateQueries({ queryKey: ['quick-recent'] });
+      if (quickInsert) {
+        setOpen(false);
+        setTimeout(() => quickInsert(expr), 0);
+      } else {
+        setNotice(`Kept in your recent quick calculations: ${expr} = ${formatQuick(answer)}. Open a sheet you can edit to insert it as a block.`);
+      }
+    } catch (error) {
+      setNotice(error instanceof Error ? error.message : 'The quick calculation failed.');
+    }
+  };
+
+  const showQuick = LOOKS_LIKE_EXPRESSION.test(trimmed) && trimmed.length <= 2000;
+  const quickIsCurrent = trimmed === debounced;
+  // While an expression is typed, Enter takes the quick result.
+  const [selected, setSelected] = useState('');
+  useEffect(() => {
+    if (showQuick) setSelected('__quick');
+  }, [showQuick, trimmed]);
+  const filter = (value: string, search: string, keywords?: string[]) =>
+    value === '__quick' ? 1 : defaultScore(value, search, keywords);
+
+  return (
+    <Command.Dialog
+      open={open}
+      onOpenChange={setOpen}
+      label="Command palette"
+      filter={filter}
+      value={selected}
+      onValueChange={setSelected}
+      loop
+      overlayClassName="fixed inset-0 z-40 bg-basalt/30"
+      contentClassName="fixed left-1/2 top-[12vh] z-50 w-[min(640px,calc(100vw-24px))] -translate-x-1/2 overflow-hidden rounded-[6px] border border-rule bg-chalk text-basalt shadow-2xl"
+    >
+      <div className="flex items-center gap-2 border-b border-rule px-3">
+        <span aria-hidden="true" className="text-slate">›</span>
+        <Command.Input
+          value={query}
+          onValueChange={setQuery}
+          aria-label="Search commands, or type an expression for a quick calculation"
+          placeholder="Search commands, or type an expression such as 2 m / 3 s"
+          className="h-11 w-full bg-transparent text-[14px] outline-none placeholder:text-slate"
+        />
+      </div>
+      <Command.List className="max-h-[min(60vh,480px)] overflow-y-auto p-1.5" aria-label="Commands">
+        {showQuick ? (
+          <Command.Group heading="Quick calculation" forceMount className="palette-group">
+            <Command.Item value="__quick" forceMount onSelect={acceptQuick} className="palette-item" data-testid="quick-result">
+              <span aria-hidden="true" className="text-slate">=</span>
+              <span className="flex min-w-0 flex-col">
+                {!quickIsCurrent || (quick.isFetching && !quick.data) ? (
+                  <span className="text-slate">Calculating…</span>
+                ) : quick.isError ? (
+                  <span className="text-oxide">
+                    <span aria-hidden="true">✕ </span>
+                    {quick.error.message}
+                  </span>
+                ) : quick.data ? (
+                  <span className="num" data-testid="quick-value">
+                    {formatQuick(quick.data)}
+                    {quick.data.siUnit !== quick.data.unit && typeof quick.data.si === 'number' ? (
+                      <span className="ml-2 text-slate">
+                        = {formatNumber(quick.data.si)} {quick.data.siUnit} (SI)
+                      </span>
+                    ) : null}
+                  </span>
+                ) : (
+                  <span className="text-slate">Calculating…</span>
+                )}
+                <span className="text-[12px] text-slate">
+                  {quickInsert ? 'Enter inserts it into this sheet as a formula block' : 'Enter keeps it in your recent quick calculations'}
+                </span>
+              </span>
+            </Command.Item>
+          </Command.Group>
+        ) : null}
+        {notice ? (
+          <p role="status" className="px-2 py-1.5 text-[12px] text-slate">
+            {notice}
+          </p>
+        ) : null}
+        <Command.Empty className="px-2 py-3 text-[13px] text-slate">No command matches. Type a number or a bracket to calculate.</Command.Empty>
+        {groups.map(([group, list]) => (
+          <Command.Group key={group} heading={group} className="palette-group">
+            {list.map((command) => (
+              <Command.Item
+                key={command.id}
+                value={`${command.group}: ${command.title} ${command.id}`}
+                keywords={command.keywords}
+                onSelect={() => runCommand(command)}
+                className="palette-item"
+              >
+                <span className="flex min-w-0 flex-1 flex-col">
+                  <span className="truncate">{command.title}</span>
+                  {command.detail ? <span className="truncate text-[12px] text-slate">{command.detail}</span> : null}
+                </span>
+                {command.shortcut ? <kbd className="palette-kbd">{command.shortcut}</kbd> : null}
+              </Command.Item>
+            ))}
+          </Command.Group>
+        ))}
+        {!trimmed && recent.data && recent.data.items.length > 0 ? (
+          <Command.Group heading="Recent quick calculations" className="palette-group">
+            {recent.data.items.slice(0, 8).map((item) => (
+              <Command.Item key={item.id} value={`recent ${item.id} ${item.expression}`} onSelect={() => setQuery(item.expression)} className="palette-item">
+                <span className="num min-w-0 flex-1 truncate">{item.expression}</span>
+                <span className="num text-slate">= {formatQuick(item.result)}</span>
+              </Command.Item>
+            ))}
+          </Command.Group>
+        ) : null}
+      </Command.List>
+    </Command.Dialog>
+  );
+}
+
+// cmdk's own scoring, kept for every entry but the quick result.
+function defaultScore(value: string, search: string, keywords?: string[]): number {
+  return defaultFilter(value, search, keywords);
+}
+
+function ShortcutsSheet({ onClose }: { onClose: () => void }) {
+  const { commands } = useCommandRegistry();
+  const closeRef = useRef<HTMLButtonElement>(null);
+  useEffect(() => {
+    const previous = document.activeElement as HTMLElement | null;
+    closeRef.current?.focus();
+    const onKey = (event: KeyboardEvent) => {
+      if (event.key === 'Escape') {
+        event.preventDefault();
+        onClose();
+      }
+    };
+    window.addEventListener('keydown', onKey);
+    return () => {
+      window.removeEventListener('keydown', onKey);
+      previous?.focus?.();
+    };
+  }, [onClose]);
+  const rows = [
+    ...FIXED_SHORTCUTS,
+    ...commands.filter((c) => c.shortcut).map((c) => ({ keys: c.shortcut!, action: c.title, group: c.group })),
+  ];
+  const groups = [...new Set(rows.map((r) => r.group))];
+  return (
+    <div className="fixed inset-0 z-50 grid place-items-center bg-basalt/30 p-3" onMouseDown={(e) => e.target === e.currentTarget && onClose()}>
+      <div role="dialog" aria-modal="true" aria-labelledby="shortcuts-title" className="max-h-[85vh] w-[min(560px,100%)] overflow-y-auto rounded-[6px] border border-rule bg-chalk p-4 shadow-2xl">
+        <div className="mb-2 flex items-center justify-between">
+          <h2 id="shortcuts-title" className="text-[16px] font-semibold">
+            Keyboard shortcuts
+          </h2>
+          <button ref={closeRef} type="button" onClick={onClose} className="h-7 rounded-[3px] border border-rule px-2 text-[12px] hover:bg-wash">
+            Close
+          </button>
+        </div>
+        {groups.map((group) => (
+          <section key={group} className="mt-3">
+            <h3 className="text-[12px] font-semibold uppercase tracking-wide text-slate">{group}</h3>
+            <table className="mt-1 w-full text-[13px]">
+              <tbody>
+                {rows
+                  .filter((r) => r.group === group)
+                  .map((r) => (
+                    <tr key={`${r.keys}-${r.action}`} className="border-b border-rule last:border-0">
+                      <td className="w-40 py-1 pr-3 align-top">
+                        <kbd className="palette-kbd">{r.keys}</kbd>
+                      </td>
+                      <td className="py-1">{r.action}</td>
+                    </tr>
+                  ))}
+              </tbody>
+            </table>
+          </section>
+        ))}
+      </div>
+    </div>
+  );
+}

@@ -1,0 +1,62 @@
+'use client';
+
+import { useId, useState, type ReactNode } from 'react';
+
+/** One tab of the side rail. Adding a panel is one more entry in the list the page passes. */
+export interface RailPanel {
+  id: string;
+  title: string;
+  render: () => ReactNode;
+}
+
+/** The side rail for the selected block: tabs over a list of panels; collapsible on narrow screens. */
+export function SideRail({ panels, label = 'Selected block' }: { panels: RailPanel[]; label?: string }) {
+  const [active, setActive] = useState(panels[0]?.id ?? '');
+  const [openOnNarrow, setOpenOnNarrow] = useState(false);
+  const base = useId();
+  const current = panels.find((p) => p.id === active) ?? panels[0];
+  const onKey = (event: React.KeyboardEvent, index: number) => {
+    if (event.key !== 'ArrowRight' && event.key !== 'ArrowLeft') return;
+    event.preventDefault();
+    const next = panels[(index + (event.key === 'ArrowRight' ? 1 : panels.length - 1)) % panels.length]!;
+    setActive(next.id);
+    document.getElementById(`${base}-tab-${next.id}`)?.focus();
+  };
+  return (
+    <aside aria-label={label} className="lg:sticky lg:top-16 lg:max-h-[calc(100vh-5rem)] lg:overflow-y-auto">
+      <button
+        type="button"
+        className="mb-2 h-8 w-full rounded-[3px] border border-rule bg-chalk px-3 text-left text-[13px] lg:hidden"
+        aria-expanded={openOnNarrow}
+        onClick={() => setOpenOnNarrow((v) => !v)}
+      >
+        {openOnNarrow ? 'Hide' : 'Show'} {current?.title.toLowerCase() ?? 'panel'} for the selected block
+      </button>
+      <div className={`${openOnNarrow ? 'block' : 'hidden'} rounded-[4px] border border-rule bg-chalk lg:block`}>
+        <div role="tablist" aria-label={label} className="flex border-b border-rule px-2">
+          {panels.map((panel, index) => (
+            <button
+              key={panel.id}
+              id={`${base}-tab-${panel.id}`}
+              role="tab"
+              type="button"
+              aria-selected={panel.id === current?.id}
+              aria-controls={`${base}-panel-${panel.id}`}
+              tabIndex={panel.id === current?.id ? 0 : -1}
+              onClick={() => setActive(panel.id)}
+              onKeyDown={(e) => onKey(e, index)}
+              className={`-mb-px h-9 border-b-2 px-3 text-[13px] ${panel.id === current?.id ? 'border-river font-semibold text-basalt' : 'border-transparent text-slate hover:text-basalt'}`}
+            >
+              {panel.title}
+            </button>
+          ))}
+        </div>
+        {current ? (
+          <div role="tabpanel" id={`${base}-panel-${current.id}`} aria-labelledby={`${base}-tab-${current.id}`} className="p-3" tabIndex={0}>
+            {current.render()}
+          </div>
+        ) : null}
+      </div>
+    </aside>
+  );
+}

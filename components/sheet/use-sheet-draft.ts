@@ -1,0 +1,363 @@
+'use client';
+
+import { useMutation } from '@tanstack/react-query';
+import { useCallback, useEffect, useRef, useState } from 'react';
+import { changedBlockIds, dependentsOf, mergeDocuments } from '@/lib/sheet/document-edits';
+import type { SheetDocument, SheetResults } from '@/lib/sheet/types';
+
+export type SaveState =
+  | { kind: 'saved' }
+  | { kind: 'pending' }
+  | { kind: 'saving' }
+  | { kind: 'retrying'; inSeconds: number; message: string }
+  | { kind: 'invalid'; message: string }
+  | { kind: 'conflict' }
+  | { kind: 'read-only' };
+
+export interface Conflict {
+  serverVersion: number;
+  serverDocument: SheetDocument;
+  /** True when the unsaved edits came from an earlier visit (restored from this browser). */
+  restored: boolean;
+}
+
+interface PendingEdits {
+  baseVersion: number;
+  baseDocument: SheetDocument;
+  document: SheetDocument;
+  at: string;
+}
+
+const storageKey = (sheetId: string) => `denudata-draft:${sheetId}`;
+const same = (a: unknown, b: unknown) => JSON.stringify(a) === JSON.stringify(b);
+const SAVE_DELAY_MS = 600;
+const HISTORY_LIMIT = 200;
+
+function readPending(sheetId: string): PendingEdits | null {
+  try {
+    const text = localStorage.getItem(storageKey(sheetId));
+    return text ? (JSON.parse(text) as PendingEdits) : null;
+  } catch {
+    return null;
+  }
+}
+
+function writePending(sheetId: string, pending: PendingEdits | null) {
+  try {
+    if (pending) localStorage.setItem(storageKey(sheetId), JSON.stringify(pending));
+    else localStorage.removeItem(storageKey(sheetId));
+  } catch {
+    // storage full or blocked: the edit still lives in memory and is saved to the server
+  }
+}
+
+async function fetchJson(url: string, init?: RequestInit) {
+  const response = await fetch(url, init);
+  const body = await response.json().catch(() => null);
+  return { status: response.status, body };
+}
+
+/**
+ * The sheet's draft on the client: local edits with undo/redo, saved to the server after a short
+ * pause (kept in localStorage until acknowledged, retried on failure), re-evaluated on the server,
+ * and merged block by block when someone else saved first.
+ */
+export function useSheetDraft({
+  sheetId,
+  initialVersion,
+  initialDocument,
+  canEdit,
+}: {
+  sheetId: string;
+  initialVersion: number;
+  initialDocument: SheetDocument;
+  canEdit: boolean;
+}) {
+  const [doc, setDoc] = useState(initialDocument);
+  const [version, setVersion] = useState(initialVersion);
+  const [results, setResults] = useState<SheetResults | null>(null);
+  const [stale, setStale] = useState<Set<string>>(() => new Set(initialDocument.blocks.map((b) => b.id)));
+  const [saveState, setSaveState] = useState<SaveState>(canEdit ? { kind: 'saved' } : { kind: 'read-only' });
+  const [conflict, setConflict] = useState<Conflict | null>(null);
+  const [notice, setNotice] = useState<string | null>(null);
+  const [history, setHistoryState] = useState<{ past: SheetDocument[]; future: SheetDocument[] }>({ past: [], future: [] });
+  const historyRef = useRef(history);
+  const setHistory = useCallback((change: (h: { past: SheetDocument[]; future: SheetDocument[] }) => { past: SheetDocument[]; future: SheetDocument[] }) => {
+    historyRef.current = change(historyRef.current);
+    setHistoryState(historyRef.current);
+  }, []);
+
+  const docRef = useRef(doc);
+  const versionRef = useRef(version);
+  const baseDocRef = useRef(initialDocument);
+  const editCounter = useRef(0);
+  const saving = useRef(false);
+  const again = useRef(false);
+  const timer = useRef<ReturnType<typeof setTimeout> | null>(null);
+  const retryDelay = useRef(2);
+  const lastCoalesce = useRef<{ key: string; at: number } | null>(null);
+  const conflictRef = useRef<Conflict | null>(null);
+  conflictRef.current = conflict;
+
+  const evaluate = useMutation({
+    mutationFn: async (stamp: number) => {
+      const { status, body } = await fetchJson(`/api/sheets/${sheetId}/evaluate`, { method: 'POST' });
+      if (status !== 200) throw new Error(body?.error?.message ?? `Evaluation failed (${status}).`);
+      return { ...(body as { draftVersion: number; results: SheetResults; evaluatedBlockIds: string[] }), stamp };
+    },
+    onSuccess: (data) => {
+      setResults(data.results);
+      if (data.stamp === editCounter.current && data.draftVersion === versionRef.current) setStale(new Set());
+    },
+  });
+  const evaluateRef = useRef(evaluate.mutate);
+  evaluateRef.current = evaluate.mutate;
+
+  const flush = useCallback(async () => {
+    if (!canEdit || conflictRef.current) return;
+    if (saving.current) {
+      again.current = true;
+      return;
+    }
+    const document = docRef.current;
+    if (same(document, baseDocRef.current)) {
+      writePending(sheetId, null);
+      setSaveState({ kind: 'saved' });
+      return;
+    }
+    saving.current = true;
+    const stamp = editCounter.current;
+    setSaveState({ kind: 'saving' });
+    try {
+      const { status, body } = await fetchJson(`/api/sheets/${sheetId}/draft`, {
+        method: 'PUT',
+        headers: { 'content-type': 'application/json' },
+        body: JSON.stringify({ baseVersion: versionRef.current, document }),
+      });
+      if (status === 200) {
+        retryDelay.current = 2;
+        versionRef.current = body.version;
+        setVersion(body.version);
+        baseDocRef.current = document;
+        if (stamp === editCounter.current) {
+          writePending(sheetId, null);
+          setSaveState({ kind: 'saved' });
+        } else {
+          again.current = true;
+        }
+        evaluateRef.current(stamp);
+      } else if (status === 409) {
+        const current = await fetchJson(`/api/sheets/${sheetId}`);
+        if (current.status === 200) {
+          const next: Conflict = { serverVersion: current.body.draft.version, serverDocument: current.body.draft.document, restored: false };
+          conflictRef.current = next;
+          setConflict(next);
+          setSaveState({ kind: 'conflict' });
+        } else {
+          throw new Error(current.body?.error?.message ?? 'Could not load the current version.');
+        }
+      } else if (status === 400 || status === 413) {
+        setSaveState({ kind: 'invalid', message: body?.error?.message ?? 'The server refused the draft.' });
+      } else if (status === 401 || status === 403) {
+        setSaveState({ kind: 'invalid', message: body?.error?.message ?? 'You may not edit this sheet.' });
+      } else {
+        throw new Error(body?.error?.message ?? `The server answered ${status}.`);
+      }
+    } catch (error) {
+      const wait = retryDelay.current;
+      retryDelay.current = Math.min(30, wait * 2);
+      setSaveState({ kind: 'retrying', inSeconds: wait, message: error instanceof Error ? error.message : 'network error' });
+      if (timer.current) clearTimeout(timer.current);
+      timer.current = setTimeout(() => void flush(), wait * 1000);
+    } finally {
+      saving.current = false;
+      if (again.current) {
+        again.current = false;
+        void flush();
+      }
+    }
+  }, [canEdit, sheetId]);
+
+  const schedule = useCallback(() => {
+    if (timer.current) clearTimeout(timer.current);
+    timer.current = setTimeout(() => void flush(), SAVE_DELAY_MS);
+  }, [flush]);
+
+  const markChanged = useCallback((before: SheetDocument, after: SheetDocument) => {
+    const changed = changedBlockIds(before, after);
+    if (changed.length === 0) return;
+    const affected = dependentsOf(after, changed);
+    setStale((s) => new Set([...s, ...affected]));
+  }, []);
+
+  /** Applies an edit; edits with the same coalesce key within 1.5 s form one undo step. */
+  const apply = useCallback(
+    (next: SheetDocument, options: { coalesce?: string } = {}) => {
+      if (!canEdit) return;
+      const before = docRef.current;
+      if (same(before, next)) return;
+      const now = Date.now();
+      const coalesce = options.coalesce && lastCoalesce.current?.key === options.coalesce && now - lastCoalesce.current.at < 1500;
+      lastCoalesce.current = options.coalesce ? { key: options.coalesce, at: now } : null;
+      if (!coalesce) setHistory((h) => ({ past: [...h.past, before].slice(-HISTORY_LIMIT), future: [] }));
+      else setHistory((h) => ({ past: h.past, future: [] }));
+      docRef.current = next;
+      editCounter.current += 1;
+      setDoc(next);
+      markChanged(before, next);
+      writePending(sheetId, { baseVersion: versionRef.current, baseDocument: baseDocRef.current, document: next, at: new Date().toISOString() });
+      setSaveState((s) => (s.kind === 'conflict' ? s : { kind: 'pending' }));
+      schedule();
+    },
+    [canEdit, markChanged, schedule, sheetId, setHistory],
+  );
+
+  const travel = useCallback(
+    (direction: 'undo' | 'redo') => {
+      if (!canEdit) return;
+      const h = historyRef.current;
+      const from = direction === 'undo' ? h.past : h.future;
+      if (from.length === 0) return;
+      const target = from[from.length - 1]!;
+      const current = docRef.current;
+      setHistory(() =>
+        direction === 'undo'
+          ? { past: h.past.slice(0, -1), future: [...h.future, current] }
+          : { past: [...h.past, current], future: h.future.slice(0, -1) },
+      );
+      docRef.current = target;
+      editCounter.current += 1;
+      lastCoalesce.current = null;
+      setDoc(target);
+      markChanged(current, target);
+      writePending(sheetId, { baseVersion: versionRef.current, baseDocument: baseDocRef.current, document: target, at: new Date().toISOString() });
+      setSaveState((s) => (s.kind === 'conflict' ? s : { kind: 'pending' }));
+      schedule();
+    },
+    [canEdit, markChanged, schedule, sheetId, setHistory],
+  );
+
+  const evaluateNow = useCallback(() => {
+    if (canEdit && !same(docRef.current, baseDocRef.current)) {
+      if (timer.current) clearTimeout(timer.current);
+      void flush();
+    } else {
+      evaluateRef.current(editCounter.current);
+    }
+  }, [canEdit, flush]);
+
+  /** Re-applies the local edits on the server's version (block-level three-way merge) and saves. */
+  const reapplyMine = useCallback(() => {
+    const current = conflictRef.current;
+    if (!current) return;
+    const { document, conflicts } = mergeDocuments(baseDocRef.current, docRef.current, current.serverDocument);
+    baseDocRef.current = current.serverDocument;
+    versionRef.current = current.serverVersion;
+    setVersion(current.serverVersion);
+    conflictRef.current = null;
+    setConflict(null);
+    const before = docRef.current;
+    docRef.current = document;
+    editCounter.current += 1;
+    setDoc(document);
+    setHistory((h) => ({ past: [...h.past, before].slice(-HISTORY_LIMIT), future: [] }));
+    markChanged(current.serverDocument, document);
+    setStale((s) => new Set([...s, ...document.blocks.map((b) => b.id)]));
+    setNotice(
+      conflicts.length
+        ? `Your edits were re-applied on version ${current.serverVersion}. ${conflicts.length} block(s) changed on both sides kept your version: ${conflicts
+            .map((id) => document.blocks.find((b) => b.id === id)?.name ?? id)
+            .join(', ')}.`
+        : `Your edits were re-applied on version ${current.serverVersion}.`,
+    );
+    writePending(sheetId, { baseVersion: current.serverVersion, baseDocument: current.serverDocument, document, at: new Date().toISOString() });
+    setSaveState({ kind: 'pending' });
+    void flush();
+  }, [flush, markChanged, sheetId, setHistory]);
+
+  /** Drops the local edits and takes the server's version. */
+  const keepTheirs = useCallback(() => {
+    const current = conflictRef.current;
+    if (!current) return;
+    baseDocRef.current = current.serverDocument;
+    versionRef.current = current.serverVersion;
+    setVersion(current.serverVersion);
+    conflictRef.current = null;
+    setConflict(null);
+    const before = docRef.current;
+    docRef.current = current.serverDocument;
+    editCounter.current += 1;
+    setDoc(current.serverDocument);
+    setHistory((h) => ({ past: [...h.past, before].slice(-HISTORY_LIMIT), future: [] }));
+    setStale(new Set(current.serverDocument.blocks.map((b) => b.id)));
+    writePending(sheetId, null);
+    setSaveState({ kind: 'saved' });
+    setNotice(`Showing version ${current.serverVersion} from the server; your unsaved edits were dropped (Ctrl+Z brings them back as a new edit).`);
+    evaluateRef.current(editCounter.current);
+  }, [sheetId, setHistory]);
+
+  // First load: restore unsaved edits kept in this browser, then evaluate.
+  useEffect(() => {
+    const pending = canEdit ? readPending(sheetId) : null;
+    if (pending && !same(pending.document, initialDocument)) {
+      if (pending.baseVersion === initialVersion) {
+        docRef.current = pending.document;
+        editCounter.current += 1;
+        setDoc(pending.document);
+        setStale(new Set(pending.document.blocks.map((b) => b.id)));
+        setNotice('Unsaved edits from your last visit were restored from this browser and are being saved.');
+        void flush();
+        return;
+      }
+      baseDocRef.current = pending.baseDocument;
+      docRef.current = pending.document;
+      setDoc(pending.document);
+      const next: Conflict = { serverVersion: initialVersion, serverDocument: initialDocument, restored: true };
+      conflictRef.current = next;
+      setConflict(next);
+      setSaveState({ kind: 'conflict' });
+      evaluateRef.current(editCounter.current);
+      return;
+    }
+    if (pending) writePending(sheetId, null);
+    evaluateRef.current(editCounter.current);
+    // eslint-disable-next-line react-hooks/exhaustive-deps
+  }, []);
+
+  // Try to save before the page goes away; the edits stay in localStorage either way.
+  useEffect(() => {
+    const onLeave = (event: BeforeUnloadEvent) => {
+      if (canEdit && !same(docRef.current, baseDocRef.current)) {
+        void flush();
+        event.preventDefault();
+      }
+    };
+    window.addEventListener('beforeunload', onLeave);
+    return () => window.removeEventListener('beforeunload', onLeave);
+  }, [canEdit, flush]);
+
+  useEffect(() => () => {
+    if (timer.current) clearTimeout(timer.current);
+  }, []);
+
+  return {
+    doc,
+    version,
+    results,
+    stale,
+    evaluating: evaluate.isPending,
+    evaluateError: evaluate.error?.message ?? null,
+    saveState,
+    conflict,
+    notice,
+    setNotice,
+    canUndo: history.past.length > 0,
+    canRedo: history.future.length > 0,
+    apply,
+    undo: () => travel('undo'),
+    redo: () => travel('redo'),
+    evaluateNow,
+    reapplyMine,
+    keepTheirs,
+  };
+}

@@ -1,0 +1,325 @@
+import 'server-only';
+import { Op } from 'sequelize';
+import { badRequest, forbidden, notFound } from '@/lib/errors';
+import { AuditEntry, Comment, Membership, Sheet, SheetRevision, User } from '@/models';
+import { recordAudit } from './audit';
+import { db } from './index';
+import { toPublicUser, type PublicUser } from './users';
+
+export type CommentItem = {
+  id: string;
+  blockId: string;
+  revision: number;
+  parentId: string | null;
+  author: PublicUser | null;
+  body: string;
+  mentions: PublicUser[];
+  createdAt: string;
+  updatedAt: string;
+  edited: boolean;
+  resolved: boolean;
+  resolvedAt: string | null;
+  resolvedBy: PublicUser | null;
+  /** Made on an earlier revision, and the block has changed (or gone) since. */
+  outdated: boolean;
+};
+
+export type CommentThread = CommentItem & { replies: CommentItem[] };
+
+type BlockLike = { id: string; name?: string };
+type DocumentLike = { title?: string; blocks?: BlockLike[] };
+
+const blocksOf = (document: unknown): BlockLike[] => ((document as DocumentLike | null)?.blocks ?? []).filter((b) => b && typeof b.id === 'string');
+
+/** A stable text form of a block for "has it changed" (key order ignored). */
+function blockFingerprint(block: unknown): string {
+  const sort = (value: unknown): unknown => {
+    if (Array.isArray(value)) return value.map(sort);
+    if (value && typeof value === 'object') {
+      return Object.fromEntries(Object.keys(value).sort().map((k) => [k, sort((value as Record<string, unknown>)[k])]));
+    }
+    return value;
+  };
+  return JSON.stringify(sort(block ?? null));
+}
+
+// ---------- mentions ----------
+
+/** The @handles in a comment body, lower-cased, in order, without repeats. */
+export function extractMentionHandles(body: string): string[] {
+  const handles = [...body.matchAll(/(?:^|[^\w@.])@([A-Za-z0-9][A-Za-z0-9._-]{0,63})/g)].map((m) => m[1].replace(/[._-]+$/, '').toLowerCase());
+  return [...new Set(handles)];
+}
+
+/** Every handle by which a member can be mentioned: the e-mail's local part and forms of the name. */
+export function handlesOf(person: PublicUser): string[] {
+  const local = person.email.split('@')[0].toLowerCase();
+  const words = person.name.toLowerCase().normalize('NFD').replace(/[\u0300-\u036f]/g, '').split(/[^a-z0-9]+/).filter(Boolean);
+  return [...new Set([local, words.join('.'), words.join('_'), words.join('-'), words.join('')].filter(Boolean))];
+}
+
+/** Resolves handles to team members; a handle that fits nobody, or more than one person, is left out. */
+export function resolveMentions(handles: string[], members: PublicUser[]): PublicUser[] {
+  const found = new Map<string, PublicUser>();
+  for (const handle of handles) {
+    let matches = members.filter((m) => handlesOf(m).includes(handle));
+    if (matches.length === 0) {
+      // A first name alone is enough when only one member has it.
+      matches = members.filter((m) => m.name.toLowerCase().split(/\s+/)[0] === handle);
+    }
+    if (matches.length === 1) found.set(matches[0].id, matches[0]);
+  }
+  return [...found.values()];
+}
+
+export async function listTeamMembersAsPeople({ teamId }: { teamId: string }): Promise<PublicUser[]> {
+  db();
+  const memberships = await Membership.findAll({ where: { teamId }, include: [User] });
+  return memberships.map((m) => toPublicUser((m as Membership & { User: User }).User));
+}
+
+// ---------- reading ----------
+
+async function documentsFor(sheet: Sheet, numbers: number[]): Promise<Map<number, unknown>> {
+  const wanted = [...new Set([...numbers, sheet.headRevision].filter((n) => n > 0))];
+  const rows = wanted.length
+    ? await SheetRevision.findAll({ where: { sheetId: sheet.id, number: wanted }, attributes: ['number', 'document'] })
+    : [];
+  return new Map(rows.map((r) => [r.number, r.document]));
+}
+
+/**
+ * A sheet's comments as threads (oldest first), optionally for one block, with the open-thread count
+ * of every block (for the sheet page's badges).
+ */
+export async function listCommentsBySheet({
+  sheetId,
+  blockId,
+}: {
+  sheetId: string;
+  blockId?: string;
+}): Promise<{ items: CommentThread[]; total: number; openByBlock: Record<string, number> }> {
+  db();
+  const sheet = await Sheet.findByPk(sheetId);
+  if (!sheet) throw notFound('Sheet');
+  const [comments, all] = await Promise.all([
+    Comment.findAll({
+      where: { sheetId, ...(blockId ? { blockId } : {}) },
+      order: [['createdAt', 'ASC'], ['id', 'ASC']],
+    }),
+    Comment.findAll({ where: { sheetId, parentId: null, resolvedAt: null }, attributes: ['blockId'] }),
+  ]);
+  const openByBlock: Record<string, number> = {};
+  for (const c of all) openByBlock[c.blockId] = (openByBlock[c.blockId] ?? 0) + 1;
+
+  const documents = await documentsFor(sheet, comments.map((c) => c.revision));
+  const headBlocks = new Map(blocksOf(documents.get(sheet.headRevision)).map((b) => [b.id, blockFingerprint(b)]));
+  const outdated = (c: Comment) => {
+    if (sheet.headRevision === 0 || c.revision >= sheet.headRevision) return false;
+    if (c.revision === 0) return true; // made on the draft before the first revision: that state is gone
+    const then = blocksOf(documents.get(c.revision)).find((b) => b.id === c.blockId);
+    const now = headBlocks.get(c.blockId);
+    return now === undefined || blockFingerprint(then) !== now;
+  };
+
+  const members = await listTeamMembersAsPeople({ teamId: sheet.teamId });
+  const people = new Map(members.map((m) => [m.id, m]));
+  const missing = comments.flatMap((c) => [c.authorId, c.resolvedBy]).filter((id): id is string => Boolean(id) && !people.has(id!));
+  if (missing.length) for (const u of await User.findAll({ where: { id: [...new Set(missing)] } })) people.set(u.id, toPublicUser(u));
+
+  const edited = new Set(
+    comments.length
+      ? (
+          await AuditEntry.findAll({
+            where: { action: 'comment.edited', subjectType: 'comment', subjectId: { [Op.in]: comments.map((c) => c.id) } },
+            attributes: ['subjectId'],
+          })
+        ).map((a) => a.subjectId)
+      : [],
+  );
+  const toItem = (c: Comment): CommentItem => ({
+    id: c.id,
+    blockId: c.blockId,
+    revision: c.revision,
+    parentId: c.parentId,
+    author: people.get(c.authorId) ?? null,
+    body: c.body,
+    mentions: resolveMentions(extractMentionHandles(c.body), members),
+    createdAt: new Date(c.createdAt).toISOString(),
+    updatedAt: new Date(c.updatedAt).toISOString(),
+    edited: edited.has(c.id),
+    resolved: c.resolvedAt !== null,
+    resolvedAt: c.resolvedAt ? new Date(c.resolvedAt).toISOString() : null,
+    resolvedBy: c.resolvedBy ? people.get(c.resolvedBy) ?? null : null,
+    outdated: outdated(c),
+  });
+
+  const threads = new Map<string, CommentThread>();
+  for (const c of comments) {
+    if (!c.parentId) threads.set(c.id, { ...toItem(c), replies: [] });
+  }
+  for (const c of comments) {
+    if (!c.parentId) continue;
+    threads.get(c.parentId)?.replies.push(toItem(c));
+  }
+  const items = [...threads.values()];
+  return { items, total: comments.length, openByBlock };
+}
+
+// ---------- writing ----------
+
+export type CreatedComment = {
+  comment: CommentItem;
+  sheet: { id: string; title: string; teamId: string };
+  blockName: string;
+  mentioned: PublicUser[];
+};
+
+/**
+ * Adds a comment (or a reply) on a block as it was in a given revision: the revision must exist (0 only
+ * while the sheet has none, for the draft), and the block must be in it. A reply joins its parent's
+ * thread (one level: a reply to a reply joins the same thread) and takes its block and revision.
+ */
+export async function createComment({
+  sheetId,
+  authorId,
+  blockId,
+  revision,
+  body,
+  parentId,
+}: {
+  sheetId: string;
+  authorId: string;
+  blockId: string;
+  revision: number;
+  body: string;
+  parentId?: string;
+}): Promise<CreatedComment> {
+  const sequelize = db();
+  return sequelize.transaction(async (transaction) => {
+    const sheet = await Sheet.findByPk(sheetId, { transaction });
+    if (!sheet) throw notFound('Sheet');
+    let anchorBlock = blockId;
+    let anchorRevision = revision;
+    let threadId: string | null = null;
+    let document: unknown = sheet.draftDocument;
+    if (parentId) {
+      const parent = await Comment.findOne({ where: { id: parentId, sheetId }, transaction });
+      if (!parent) throw badRequest('parentId: there is no such comment on this sheet', 'parentId');
+      threadId = parent.parentId ?? parent.id;
+      anchorBlock = parent.blockId;
+      anchorRevision = parent.revision;
+    } else {
+      if (revision === 0) {
+        if (sheet.headRevision > 0) throw badRequest('revision: comment on a saved revision (0 is only for a sheet without revisions)', 'revision');
+        document = sheet.draftDocument;
+      } else {
+        const row = await SheetRevision.findOne({ where: { sheetId, number: revision }, attributes: ['document'], transaction });
+        if (!row) throw badRequest(`revision: this sheet has no revision ${revision}`, 'revision');
+        document = row.document;
+      }
+      if (!blocksOf(document).some((b) => b.id === blockId)) {
+        throw badRequest(`blockId: revision ${revision} has no block with id "${blockId}"`, 'blockId');
+      }
+    }
+    const comment = await Comment.create(
+      { sheetId, blockId: anchorBlock, revision: anchorRevision, parentId: threadId, authorId, body, resolvedAt: null, resolvedBy: null },
+      { transaction },
+    );
+    const members = await listTeamMembersAsPeople({ teamId: sheet.teamId });
+    const mentioned = resolveMentions(extractMentionHandles(body), members);
+    await recordAudit(
+      {
+        teamId: sheet.teamId,
+        actorId: authorId,
+        action: threadId ? 'comment.replied' : 'comment.created',
+        subjectType: 'comment',
+        subjectId: comment.id,
+        details: { sheetId, title: sheet.title, blockId: anchorBlock, revision: anchorRevision, mentions: mentioned.map((m) => m.id) },
+      },
+      transaction,
+    );
+    const author = members.find((m) => m.id === authorId) ?? null;
+    if (threadId && anchorRevision > 0) {
+      document = (await SheetRevision.findOne({ where: { sheetId, number: anchorRevision }, attributes: ['document'], transaction }))?.document;
+    }
+    const blockName = blocksOf(document).find((b) => b.id === anchorBlock)?.name ?? anchorBlock;
+    return {
+      comment: {
+        id: comment.id,
+        blockId: comment.blockId,
+        revision: comment.revision,
+        parentId: comment.parentId,
+        author,
+        body: comment.body,
+        mentions: mentioned,
+        createdAt: new Date(comment.createdAt).toISOString(),
+        updatedAt: new Date(comment.updatedAt).toISOString(),
+        edited: false,
+        resolved: false,
+        resolvedAt: null,
+        resolvedBy: null,
+        outdated: false,
+      },
+      sheet: { id: sheet.id, title: sheet.title, teamId: sheet.teamId },
+      blockName,
+      mentioned: mentioned.filter((m) => m.id !== authorId),
+    };
+  });
+}
+
+/** The sheet a comment belongs to (for the route's role check); 404 when unknown. */
+export async function findCommentSheetId({ commentId }: { commentId: string }): Promise<string> {
+  db();
+  if (!/^[0-9a-f-]{36}$/i.test(commentId)) throw notFound('Comment');
+  const comment = await Comment.findByPk(commentId, { attributes: ['id', 'sheetId'] });
+  if (!comment) throw notFound('Comment');
+  return comment.sheetId;
+}
+
+/** Resolves or reopens a comment (any role that may comment), or edits its body (its author only). */
+export async function updateComment({
+  commentId,
+  userId,
+  resolved,
+  body,
+}: {
+  commentId: string;
+  userId: string;
+  resolved?: boolean;
+  body?: string;
+}): Promise<{ id: string; body: string; resolved: boolean; resolvedAt: string | null; resolvedBy: string | null; updatedAt: string }> {
+  const sequelize = db();
+  return sequelize.transaction(async (transaction) => {
+    const comment = await Comment.findByPk(commentId, { transaction, lock: transaction.LOCK.UPDATE });
+    if (!comment) throw notFound('Comment');
+    const sheet = await Sheet.findByPk(comment.sheetId, { transaction, attributes: ['id', 'teamId', 'title'] });
+    if (body !== undefined) {
+      if (comment.authorId !== userId) throw forbidden('Only the author of a comment can edit it.');
+      await comment.update({ body }, { transaction });
+    }
+    if (resolved !== undefined && resolved !== (comment.resolvedAt !== null)) {
+      await comment.update(resolved ? { resolvedAt: new Date(), resolvedBy: userId } : { resolvedAt: null, resolvedBy: null }, { transaction });
+    }
+    await recordAudit(
+      {
+        teamId: sheet?.teamId ?? null,
+        actorId: userId,
+        action: body !== undefined ? 'comment.edited' : resolved ? 'comment.resolved' : 'comment.reopened',
+        subjectType: 'comment',
+        subjectId: comment.id,
+        details: { sheetId: comment.sheetId, title: sheet?.title, blockId: comment.blockId },
+      },
+      transaction,
+    );
+    return {
+      id: comment.id,
+      body: comment.body,
+      resolved: comment.resolvedAt !== null,
+      resolvedAt: comment.resolvedAt ? new Date(comment.resolvedAt).toISOString() : null,
+      resolvedBy: comment.resolvedBy,
+      updatedAt: new Date(comment.updatedAt).toISOString(),
+    };
+  });
+}
+

@@ -1,0 +1,72 @@
+import 'server-only';
+import { badRequest, notFound } from '@/lib/errors';
+import { Sheet, SheetRevision } from '@/models';
+import { recordAudit } from './audit';
+import { db } from './index';
+import { siteColumns, toSheetRecord, type SheetRecord, type SiteInput } from './sheets';
+
+/**
+ * Forks a sheet (for a new site, typically) into a team: the new sheet's draft is the chosen revision's
+ * document (default: the head revision, or the source's draft when it has none) with the new title and
+ * site. It records where it came from; it has no revision of its own yet.
+ */
+export async function forkSheet({
+  sourceSheetId,
+  teamId,
+  userId,
+  title,
+  site,
+  revision,
+}: {
+  sourceSheetId: string;
+  teamId: string;
+  userId: string;
+  title: string;
+  site?: SiteInput | null;
+  revision?: number;
+}): Promise<{ sheet: SheetRecord; forkedFrom: { sheetId: string; revision: number | null } }> {
+  const sequelize = db();
+  return sequelize.transaction(async (transaction) => {
+    const source = await Sheet.findByPk(sourceSheetId, { transaction });
+    if (!source) throw notFound('Sheet');
+    const number = revision ?? (source.headRevision > 0 ? source.headRevision : null);
+    let document: Record<string, unknown>;
+    if (number !== null) {
+      const row = await SheetRevision.findOne({ where: { sheetId: sourceSheetId, number }, attributes: ['document'], transaction });
+      if (!row) throw badRequest(`revision: this sheet has no revision ${number}`, 'revision');
+      document = row.document as Record<string, unknown>;
+    } else {
+      document = source.draftDocument as Record<string, unknown>;
+    }
+    const keptSite = site === undefined ? (document.site as SiteInput | undefined) : site ?? undefined;
+    const { site: _dropped, ...rest } = document;
+    void _dropped;
+    const forked = { ...rest, title, ...(keptSite ? { site: keptSite } : {}) };
+    const sheet = await Sheet.create(
+      {
+        teamId,
+        title,
+        ...siteColumns(keptSite),
+        draftDocument: forked,
+        createdBy: userId,
+        updatedBy: userId,
+        forkedFromSheetId: sourceSheetId,
+        forkedFromRevision: number,
+        archivedAt: null,
+      },
+      { transaction },
+    );
+    await recordAudit(
+      {
+        teamId,
+        actorId: userId,
+        action: 'sheet.forked',
+        subjectType: 'sheet',
+        subjectId: sheet.id,
+        details: { title, site: keptSite?.name ?? null, fromSheetId: sourceSheetId, fromTitle: source.title, fromRevision: number },
+      },
+      transaction,
+    );
+    return { sheet: toSheetRecord(sheet), forkedFrom: { sheetId: sourceSheetId, revision: number } };
+  });
+}

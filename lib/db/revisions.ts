@@ -1,0 +1,261 @@
+import 'server-only';
+import { UniqueConstraintError, type Transaction } from 'sequelize';
+import { AppError, badRequest, conflict, notFound } from '@/lib/errors';
+import { EngineError, hashSheetDocument, parseSheetDocument, type SheetDocument, type SheetResults } from '@/lib/engine';
+import { runEvaluate } from '@/lib/evaluation/pool';
+import { Sheet, SheetRevision, User, type ReviewStatus } from '@/models';
+import { recordAudit } from './audit';
+import { db } from './index';
+import { siteColumns, toSheetRecord, type SheetRecord } from './sheets';
+import { toPublicUser, type PublicUser } from './users';
+
+export type ReviewSummary = {
+  status: ReviewStatus;
+  preparedBy: PublicUser | null;
+  preparedAt: string;
+  requestedBy: PublicUser | null;
+  requestedAt: string | null;
+  reviewer: PublicUser | null;
+  checkedBy: PublicUser | null;
+  checkedAt: string | null;
+  approvedBy: PublicUser | null;
+  approvedAt: string | null;
+  returnedBy: PublicUser | null;
+  returnedAt: string | null;
+};
+
+export type RevisionListItem = {
+  number: number;
+  hash: string;
+  engineVersion: string;
+  author: PublicUser | null;
+  message: string;
+  createdAt: string;
+  review: ReviewSummary;
+};
+
+export type RevisionDetail = RevisionListItem & { document: SheetDocument; results: SheetResults };
+
+/** Parses a document with the engine's strict schema: 400 naming the first fault otherwise. */
+export function requireValidDocument(input: unknown, prefix = 'document'): SheetDocument {
+  const parsed = parseSheetDocument(input);
+  if (!parsed.ok) {
+    const field = parsed.path ? `${prefix}.${parsed.path}` : prefix;
+    throw badRequest(`${field}: ${parsed.message}`, field);
+  }
+  return parsed.document;
+}
+
+async function usersById(ids: (string | null)[]): Promise<Map<string, PublicUser>> {
+  const unique = [...new Set(ids.filter((id): id is string => Boolean(id)))];
+  if (!unique.length) return new Map();
+  const users = await User.findAll({ where: { id: unique } });
+  return new Map(users.map((u) => [u.id, toPublicUser(u)]));
+}
+
+const iso = (date: Date | null) => (date ? new Date(date).toISOString() : null);
+
+function reviewOf(revision: SheetRevision, people: Map<string, PublicUser>): ReviewSummary {
+  const person = (id: string | null) => (id ? people.get(id) ?? null : null);
+  return {
+    status: revision.reviewStatus,
+    preparedBy: person(revision.authorId),
+    preparedAt: new Date(revision.createdAt).toISOString(),
+    requestedBy: person(revision.reviewRequestedBy),
+    requestedAt: iso(revision.reviewRequestedAt),
+    reviewer: person(revision.reviewerId),
+    checkedBy: person(revision.checkedBy),
+    checkedAt: iso(revision.checkedAt),
+    approvedBy: person(revision.approvedBy),
+    approvedAt: iso(revision.approvedAt),
+    returnedBy: person(revision.returnedBy),
+    returnedAt: iso(revision.returnedAt),
+  };
+}
+
+const peopleOf = (r: SheetRevision) => [r.authorId, r.reviewRequestedBy, r.reviewerId, r.checkedBy, r.approvedBy, r.returnedBy];
+
+async function toListItems(revisions: SheetRevision[]): Promise<RevisionListItem[]> {
+  const people = await usersById(revisions.flatMap(peopleOf));
+  return revisions.map((r) => ({
+    number: r.number,
+    hash: r.hash,
+    engineVersion: r.engineVersion,
+    author: people.get(r.authorId) ?? null,
+    message: r.message,
+    createdAt: new Date(r.createdAt).toISOString(),
+    review: reviewOf(r, people),
+  }));
+}
+
+/** Every revision of a sheet, newest first, without documents. */
+export async function listRevisionsBySheet({ sheetId }: { sheetId: string }): Promise<{ items: RevisionListItem[]; total: number }> {
+  db();
+  const revisions = await SheetRevision.findAll({
+    where: { sheetId },
+    attributes: { exclude: ['document', 'results'] },
+    order: [['number', 'DESC']],
+  });
+  const items = await toListItems(revisions);
+  return { items, total: items.length };
+}
+
+/** One revision with its document and stored results; 404 when the sheet has no such revision. */
+export async function getRevision({ sheetId, number }: { sheetId: string; number: number }): Promise<RevisionDetail> {
+  db();
+  const revision = await SheetRevision.findOne({ where: { sheetId, number } });
+  if (!revision) throw notFound(`Revision ${number}`);
+  const [item] = await toListItems([revision]);
+  return { ...item, document: revision.document as SheetDocument, results: revision.results as SheetResults };
+}
+
+/** The review state of one revision (for the review bar). */
+export async function getReviewSummary({ sheetId, number }: { sheetId: string; number: number }): Promise<ReviewSummary> {
+  return (await getRevision({ sheetId, number })).review;
+}
+
+type Evaluated = { document: SheetDocument; hash: string; results: SheetResults; engineVersion: string };
+
+/** Validates and evaluates a document through the worker pool (outside any transaction). */
+export async function evaluateForRevision(input: unknown): Promise<Evaluated> {
+  const document = requireValidDocument(input);
+  let results: SheetResults;
+  try {
+    results = await runEvaluate(document);
+  } catch (error) {
+    if (error instanceof EngineError) {
+      throw new AppError(/longer than|too much memory/.test(error.message) ? 'timeout' : 'validation', `document: ${error.message}`);
+    }
+    throw error;
+  }
+  const hash = hashSheetDocument(document);
+  return { document, hash, results, engineVersion: results.engine };
+}
+
+/** Writes revision n+1 inside a transaction that holds the sheet's row lock. */
+async function insertRevision(
+  {
+    sheet,
+    userId,
+    baseRevision,
+    evaluated,
+    message,
+  }: { sheet: Sheet; userId: string; baseRevision: number; evaluated: Evaluated; message: string },
+  transaction: Transaction,
+): Promise<{ number: number; hash: string }> {
+  if (sheet.headRevision !== baseRevision) {
+    throw conflict(`Revision ${sheet.headRevision} was saved since you started from revision ${baseRevision}.`, {
+      current: { number: sheet.headRevision },
+    });
+  }
+  const number = baseRevision + 1;
+  await SheetRevision.create(
+    {
+      sheetId: sheet.id,
+      number,
+      document: evaluated.document,
+      hash: evaluated.hash,
+      engineVersion: evaluated.engineVersion,
+      results: evaluated.results,
+      authorId: userId,
+      message,
+      reviewRequestedBy: null,
+      reviewRequestedAt: null,
+      reviewerId: null,
+      checkedBy: null,
+      checkedAt: null,
+      approvedBy: null,
+      approvedAt: null,
+      returnedBy: null,
+      returnedAt: null,
+    },
+    { transaction },
+  );
+  await sheet.update({ headRevision: number, updatedBy: userId }, { transaction });
+  await recordAudit(
+    {
+      teamId: sheet.teamId,
+      actorId: userId,
+      action: 'revision.saved',
+      subjectType: 'sheet',
+      subjectId: sheet.id,
+      details: { revision: number, hash: evaluated.hash, message, title: sheet.title },
+    },
+    transaction,
+  );
+  return { number, hash: evaluated.hash };
+}
+
+/**
+ * Saves a new revision if `baseRevision` is still the head (0 for the first); otherwise 409 with the
+ * current head and nothing written. Race-safe: the sheet's row is locked for the check and the write,
+ * and the unique (sheet_id, number) constraint backs it up. A new revision starts unsigned.
+ */
+export async function saveRevision({
+  sheetId,
+  userId,
+  baseRevision,
+  document,
+  message,
+}: {
+  sheetId: string;
+  userId: string;
+  baseRevision: number;
+  document: unknown;
+  message: string;
+}): Promise<{ number: number; hash: string }> {
+  const evaluated = await evaluateForRevision(document);
+  const sequelize = db();
+  try {
+    return await sequelize.transaction(async (transaction) => {
+      const sheet = await Sheet.findByPk(sheetId, { transaction, lock: transaction.LOCK.UPDATE });
+      if (!sheet) throw notFound('Sheet');
+      return insertRevision({ sheet, userId, baseRevision, evaluated, message }, transaction);
+    });
+  } catch (error) {
+    if (error instanceof UniqueConstraintError) {
+      const current = await Sheet.findByPk(sheetId);
+      throw conflict('Another revision was saved at the same moment.', { current: { number: current?.headRevision ?? 0 } });
+    }
+    throw error;
+  }
+}
+
+/** A new sheet in the team whose draft and revision 1 hold the document exactly as imported. */
+export async function importSheet({
+  teamId,
+  userId,
+  document,
+}: {
+  teamId: string;
+  userId: string;
+  document: unknown;
+}): Promise<{ sheet: SheetRecord; revision: { number: number; hash: string } }> {
+  const evaluated = await evaluateForRevision(document);
+  const sequelize = db();
+  return sequelize.transaction(async (transaction) => {
+    const sheet = await Sheet.create(
+      {
+        teamId,
+        title: evaluated.document.title,
+        ...siteColumns(evaluated.document.site),
+        draftDocument: evaluated.document,
+        createdBy: userId,
+        updatedBy: userId,
+        forkedFromSheetId: null,
+        forkedFromRevision: null,
+        archivedAt: null,
+      },
+      { transaction },
+    );
+    await recordAudit(
+      { teamId, actorId: userId, action: 'sheet.imported', subjectType: 'sheet', subjectId: sheet.id, details: { title: sheet.title } },
+      transaction,
+    );
+    const revision = await insertRevision(
+      { sheet, userId, baseRevision: 0, evaluated, message: 'Imported from a file' },
+      transaction,
+    );
+    return { sheet: toSheetRecord(sheet), revision };
+  });
+}

@@ -1,0 +1,114 @@
+/**
+ * Pure builders: a block's series → Observable Plot options (no DOM). The figure component
+ * hands the options to Plot.plot; the tests read them as data.
+ */
+import * as Plot from '@observablehq/plot';
+import type { SeriesData } from '@/lib/sheet/types';
+
+export interface PlotSize {
+  width: number;
+  height?: number;
+}
+
+export interface SeriesPlot {
+  /** A short title for the figure and file names. */
+  title: string;
+  /** Text for screen readers and the figure caption. */
+  description: string;
+  options: Plot.PlotOptions;
+}
+
+const LINE_COLOUR = 'var(--river)';
+
+const axisLabel = (label: string, unit: string) => (unit ? `${label} (${unit})` : label);
+
+function points(series: SeriesData): { x: number; y: number }[] {
+  const n = Math.min(series.x.length, series.y.length);
+  return Array.from({ length: n }, (_, i) => ({ x: series.x[i]!, y: series.y[i]! }));
+}
+
+function extent(values: number[]): [number, number] {
+  let lo = Infinity;
+  let hi = -Infinity;
+  for (const v of values) {
+    if (v < lo) lo = v;
+    if (v > hi) hi = v;
+  }
+  return [lo, hi];
+}
+
+/**
+ * A geotherm: temperature across, depth down (depth increases downward, as in a borehole log).
+ * The engine's series has depth as x and temperature as y, so the axes swap here.
+ */
+export function geothermPlot(series: SeriesData, size: PlotSize): SeriesPlot {
+  const data = points(series).map((p) => ({ depth: p.x, temperature: p.y }));
+  const [t0, t1] = extent(series.y);
+  const [d0, d1] = extent(series.x);
+  return {
+    title: 'Geotherm',
+    description: `Temperature from ${t0.toFixed(0)} to ${t1.toFixed(0)} ${series.yUnit} over depths ${d0} to ${d1} ${series.xUnit}; depth increases downward.`,
+    options: {
+      width: size.width,
+      height: size.height ?? Math.round(Math.min(420, Math.max(260, size.width * 0.6))),
+      marginLeft: 56,
+      marginBottom: 42,
+      style: { fontSize: '12px', background: 'transparent', overflow: 'visible' },
+      x: { label: axisLabel(series.yLabel || 'Temperature', series.yUnit), grid: true, labelAnchor: 'center', labelArrow: 'none' },
+      y: { label: axisLabel(series.xLabel || 'Depth', series.xUnit), reverse: true, grid: true, labelAnchor: 'center', labelArrow: 'none' },
+      marks: [
+        Plot.frame({ stroke: 'currentColor', strokeOpacity: 0.25 }),
+        Plot.line(data, { x: 'temperature', y: 'depth', stroke: LINE_COLOUR, strokeWidth: 2, sort: { channel: 'y' } }),
+      ],
+    },
+  };
+}
+
+/** A scarp profile: distance across, elevation relative to the midpoint up. */
+export function profilePlot(series: SeriesData, size: PlotSize): SeriesPlot {
+  const data = points(series).map((p) => ({ distance: p.x, elevation: p.y }));
+  const [z0, z1] = extent(series.y);
+  return {
+    title: 'Scarp profile',
+    description: `Elevation from ${z0.toFixed(2)} to ${z1.toFixed(2)} ${series.yUnit} across ${series.x.length} points; elevation up.`,
+    options: {
+      width: size.width,
+      height: size.height ?? Math.round(Math.min(360, Math.max(220, size.width * 0.45))),
+      marginLeft: 56,
+      marginBottom: 42,
+      style: { fontSize: '12px', background: 'transparent', overflow: 'visible' },
+      x: { label: axisLabel(series.xLabel || 'Distance', series.xUnit), grid: true, labelAnchor: 'center', labelArrow: 'none' },
+      y: { label: axisLabel(series.yLabel || 'Elevation', series.yUnit), grid: true, labelAnchor: 'center', labelArrow: 'none' },
+      marks: [
+        Plot.frame({ stroke: 'currentColor', strokeOpacity: 0.25 }),
+        Plot.ruleY([0], { stroke: 'currentColor', strokeOpacity: 0.35, strokeDasharray: '3,3' }),
+        Plot.line(data, { x: 'distance', y: 'elevation', stroke: LINE_COLOUR, strokeWidth: 2 }),
+      ],
+    },
+  };
+}
+
+/** Any other series: x across, y up. */
+export function genericSeriesPlot(series: SeriesData, size: PlotSize, title: string): SeriesPlot {
+  return {
+    title,
+    description: `${series.yLabel} against ${series.xLabel}, ${series.x.length} points.`,
+    options: {
+      width: size.width,
+      height: size.height ?? 280,
+      marginLeft: 56,
+      marginBottom: 42,
+      style: { fontSize: '12px', background: 'transparent', overflow: 'visible' },
+      x: { label: axisLabel(series.xLabel, series.xUnit), grid: true, labelAnchor: 'center', labelArrow: 'none' },
+      y: { label: axisLabel(series.yLabel, series.yUnit), grid: true, labelAnchor: 'center', labelArrow: 'none' },
+      marks: [Plot.frame({ stroke: 'currentColor', strokeOpacity: 0.25 }), Plot.line(points(series), { x: 'x', y: 'y', stroke: LINE_COLOUR, strokeWidth: 2 })],
+    },
+  };
+}
+
+/** The builder for a named series of a block result. */
+export function plotForSeries(seriesName: string, series: SeriesData, size: PlotSize): SeriesPlot {
+  if (seriesName === 'geotherm') return geothermPlot(series, size);
+  if (seriesName === 'profile') return profilePlot(series, size);
+  return genericSeriesPlot(series, size, seriesName);
+}

@@ -1,0 +1,48 @@
+import 'server-only';
+import { STANDING_CAUTION } from '@/lib/engine/block-type';
+import { blockCatalog } from '@/lib/engine';
+import { COMMON_FUNCTIONS, COMMON_UNITS } from './vocabulary';
+import type { BlockCatalogData, CatalogType } from './types';
+
+let cached: BlockCatalogData | null = null;
+
+/** The engine's block catalog reshaped for the client (plain JSON, no engine code). */
+export function clientCatalog(): BlockCatalogData {
+  if (cached) return cached;
+  const types: CatalogType[] = blockCatalog().map((type) => ({
+    id: type.id,
+    title: type.title,
+    purpose: type.purpose,
+    formula: type.formula.text,
+    sources: type.sources,
+    inputs: type.inputs.map((input) => ({
+      name: input.name,
+      label: input.label,
+      ...(input.symbol ? { symbol: input.symbol } : {}),
+      dimension: input.dimension.key,
+      dimensionSymbol: input.dimension.symbol,
+      ...(input.default !== undefined ? { default: input.default } : {}),
+      ...(input.optional ? { optional: true } : {}),
+      ...(input.range ? { range: input.range.text } : {}),
+      ...(input.unitHint ? { unitHint: input.unitHint } : {}),
+      help: input.help,
+    })),
+    freeInputs: type.freeInputs,
+    outputs: type.outputs.map((o) => ({ name: o.name, label: o.label, unit: o.unit, kind: o.kind, description: o.description })),
+    series: type.series.map((s) => ({ name: s.name, label: s.label, xLabel: s.xLabel, yLabel: s.yLabel, xUnit: s.xUnit, yUnit: s.yUnit })),
+    validity: type.validity,
+    cautions: type.cautions,
+    warnings: type.warnings,
+    example: type.example
+      ? { inputs: type.example.inputs, output: type.example.output, expected: { value: type.example.expected.value, unit: type.example.expected.unit }, source: type.example.source }
+      : null,
+    expressionFunction: type.expressionFunction !== null,
+  }));
+  cached = {
+    types,
+    units: [...COMMON_UNITS],
+    functions: [...COMMON_FUNCTIONS, ...types.filter((t) => t.expressionFunction).map((t) => t.id)],
+    standingCaution: STANDING_CAUTION,
+  };
+  return cached;
+}

@@ -1,0 +1,63 @@
+import 'server-only';
+import { AppError, badRequest } from '@/lib/errors';
+import { parseSheetDocument, type SheetDocument, type SheetResults } from '@/lib/engine';
+import { runEvaluate, runEvaluateIncremental } from '@/lib/evaluation/pool';
+import { changedBlockIds } from './document-edits';
+import { ResultsCache } from './results-cache.server';
+import type { SheetDocument as ClientDocument } from './types';
+
+/** A parsed document or a 400 naming the first fault (the contract's "invalid document"). */
+export function requireValidDocument(input: unknown, prefix = 'document'): SheetDocument {
+  const parsed = parseSheetDocument(input);
+  if (!parsed.ok) {
+    const field = parsed.path ? `${prefix}.${parsed.path}` : prefix;
+    throw badRequest(`${field}: ${parsed.message}`, field);
+  }
+  return parsed.document;
+}
+
+/** Engine faults become a 400 with the engine's message; time limits and the rest pass through. */
+export function asEvaluationError(error: unknown): Error {
+  if (error instanceof AppError) return error;
+  if (error instanceof Error && (error.name === 'EngineError' || error.name === 'InputError')) {
+    // The pool's time and memory limits are not faults of the document: 422 with the reason.
+    if (/^evaluation (took longer|needed too much memory)/.test(error.message)) return new AppError('timeout', error.message);
+    return badRequest(error.message);
+  }
+  return error instanceof Error ? error : new Error('evaluation failed');
+}
+
+const globalCache = globalThis as unknown as { __denudataResults?: ResultsCache<SheetDocument, SheetResults> };
+const cache = (globalCache.__denudataResults ??= new ResultsCache<SheetDocument, SheetResults>(200));
+
+/**
+ * Results of a sheet's stored draft, recomputing only what changed since the last evaluation of
+ * that sheet in this process (by block id), or nothing when the draft version is the same.
+ */
+export async function evaluateDraft({
+  sheetId,
+  draftVersion,
+  document,
+}: {
+  sheetId: string;
+  draftVersion: number;
+  document: SheetDocument;
+}): Promise<{ draftVersion: number; results: SheetResults; evaluatedBlockIds: string[] }> {
+  const previous = cache.get(sheetId);
+  try {
+    if (previous && previous.draftVersion === draftVersion) {
+      return { draftVersion, results: previous.results, evaluatedBlockIds: [] };
+    }
+    if (previous) {
+      const changed = changedBlockIds(previous.document as ClientDocument, document as ClientDocument);
+      const { results, evaluatedBlockIds } = await runEvaluateIncremental(document, previous.results, changed);
+      cache.set(sheetId, { draftVersion, document, results });
+      return { draftVersion, results, evaluatedBlockIds };
+    }
+    const results = await runEvaluate(document);
+    cache.set(sheetId, { draftVersion, document, results });
+    return { draftVersion, results, evaluatedBlockIds: document.blocks.filter((b) => b.type !== 'note').map((b) => b.id) };
+  } catch (error) {
+    throw asEvaluationError(error);
+  }
+}

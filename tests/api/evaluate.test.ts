@@ -1,0 +1,225 @@
+import { describe, expect, it } from 'vitest';
+import { ApiClient, signedInAs } from '../support/http';
+
+/** |got − expected| ≤ relTol·|expected| (the reference cases' own tolerance rule). */
+function expectClose(got: unknown, expected: number, relTol: number) {
+  expect(typeof got).toBe('number');
+  expect(Math.abs((got as number) - expected)).toBeLessThanOrEqual(relTol * Math.abs(expected));
+}
+
+// Reference case P12 (/work/shared/reference/cases.json): a steady advected geotherm with
+// v = 1 mm/yr, L = 30 km, κ = 1e-6 m²/s, T0 = 10 °C, TL = 610 °C — Turcotte & Schubert (2002),
+// Geodynamics 2nd ed.: Pe = 0.950642634421, T(15 km) = 379.985479 °C.
+const thermalSheet = () => ({
+  format: 'denudata-sheet@1',
+  title: 'API check: advected geotherm',
+  blocks: [
+    { id: 'p', name: 'params', type: 'quantities', inputs: { v: '1 mm/yr', L: '30 km', kappa: '1e-6 m^2/s' } },
+    { id: 'pe', name: 'pe', type: 'peclet_number', inputs: { velocity: 'params.v', length: 'params.L', diffusivity: 'params.kappa' } },
+    {
+      id: 'g',
+      name: 'thermal',
+      type: 'advective_geotherm',
+      inputs: {
+        velocity: 'params.v',
+        thickness: 'params.L',
+        diffusivity: 'params.kappa',
+        surface_temperature: '10 degC',
+        base_temperature: '610 degC',
+        depth: '15 km',
+      },
+    },
+  ],
+});
+
+const DEMO_SHEET_THERMAL = '0d3a7e10-5c2b-4f6a-8e1d-000000000004';
+
+describe('POST /api/evaluate', () => {
+  it('should evaluate a posted sheet and match the published geotherm (Turcotte & Schubert 2002, case P12)', async () => {
+    const client = await signedInAs('viewer');
+    const response = await client.post('/api/evaluate', { document: thermalSheet() });
+    expect(response.status).toBe(200);
+    const { blocks, format, sheetHash } = response.body;
+    expect(format).toBe('denudata-results@1');
+    expect(sheetHash).toMatch(/^[0-9a-f]{64}$/);
+    expect(blocks.pe.status).toBe('ok');
+    expectClose(blocks.pe.outputs.Pe.value, 0.950642634421, 0.003);
+    expect(blocks.pe.outputs.regime.value).toBe('transitional');
+    expectClose(blocks.thermal.outputs.temperature_at_depth.value, 379.985479, 0.0005);
+    expect(blocks.thermal.outputs.temperature_at_depth.unit).toBe('degC');
+    expect(blocks.thermal.series.geotherm.x).toHaveLength(101);
+  });
+
+  it('should accept the bare document as well as {document}', async () => {
+    const client = await signedInAs('editor');
+    const response = await client.post('/api/evaluate', thermalSheet());
+    expect(response.status).toBe(200);
+    expectClose(response.body.blocks.pe.outputs.Pe.value, 0.950642634421, 0.003);
+  });
+
+  it('should answer 400 naming the fault for an invalid document (unknown block type)', async () => {
+    const client = await signedInAs('editor');
+    const document = thermalSheet();
+    (document.blocks[1] as { type: string }).type = 'no_such_type';
+    const response = await client.post('/api/evaluate', { document });
+    expect(response.status).toBe(400);
+    expect(response.body.error.code).toBe('validation');
+    expect(response.body.error.message).toMatch(/blocks\[1\]\.type|blocks\.1\.type/);
+    expect(JSON.stringify(response.body)).not.toMatch(/at .*\.js/);
+  });
+
+  it('should answer 400 for a duplicate block name and for a block named after a unit', async () => {
+    const client = await signedInAs('editor');
+    const duplicate = thermalSheet();
+    duplicate.blocks[2]!.name = 'pe';
+    expect((await client.post('/api/evaluate', duplicate)).status).toBe(400);
+    const unitName = thermalSheet();
+    unitName.blocks[1]!.name = 'km';
+    const response = await client.post('/api/evaluate', unitName);
+    expect(response.status).toBe(400);
+    expect(response.body.error.message).toMatch(/km/);
+  });
+
+  it('should keep evaluating the rest of the sheet when one input is wrong (an error on that block only)', async () => {
+    const client = await signedInAs('editor');
+    const document = thermalSheet();
+    document.blocks[1]!.inputs.velocity = '3 kg';
+    const response = await client.post('/api/evaluate', document);
+    expect(response.status).toBe(200);
+    expect(response.body.blocks.pe.status).toBe('error');
+    expect(response.body.blocks.pe.error).toMatch(/velocity/);
+    expect(response.body.blocks.thermal.status).toBe('ok');
+  });
+
+  it('should answer 401 without a session', async () => {
+    const response = await new ApiClient().post('/api/evaluate', thermalSheet());
+    expect(response.status).toBe(401);
+    expect(response.body.error.code).toBe('unauthenticated');
+  });
+});
+
+describe('POST /api/quick and GET /api/quick/recent', () => {
+  it('should compute the Péclet number of case P12 with its unit (Turcotte & Schubert 2002: 0.9506)', async () => {
+    const client = await signedInAs('reviewer');
+    const response = await client.post('/api/quick', { expr: 'peclet_number(1 mm/yr, 30 km, 1e-6 m^2/s)' });
+    expect(response.status).toBe(200);
+    expectClose(response.body.value, 0.950642634421, 0.003);
+    expect(response.body.siUnit).toBe('');
+    expect(Object.keys(response.body).sort()).toEqual(['si', 'siUnit', 'unit', 'value']);
+  });
+
+  it('should keep units through arithmetic: 2 m / 3 s = 0.6667 m / s (arithmetic, common practice)', async () => {
+    const client = await signedInAs('viewer');
+    const response = await client.post('/api/quick', { expr: '2 m / 3 s' });
+    expect(response.status).toBe(200);
+    expectClose(response.body.si, 2 / 3, 1e-12);
+    expect(response.body.siUnit).toBe('m / s');
+  });
+
+  it('should answer 400 with the engine’s message for a bad expression, and not store it', async () => {
+    const client = await signedInAs('viewer');
+    const response = await client.post('/api/quick', { expr: '2 m + 3 s' });
+    expect(response.status).toBe(400);
+    expect(response.body.error.message.length).toBeGreaterThan(5);
+    expect(response.body.error.message).not.toMatch(/stack|\.js:/);
+    const recent = await client.get('/api/quick/recent');
+    expect(recent.body.items.some((i: { expression: string }) => i.expression === '2 m + 3 s')).toBe(false);
+  });
+
+  it('should answer 400 for an empty expression naming the field', async () => {
+    const client = await signedInAs('viewer');
+    const response = await client.post('/api/quick', { expr: '' });
+    expect(response.status).toBe(400);
+    expect(response.body.error.field).toBe('expr');
+  });
+
+  it('should list the user’s successful quick calculations, newest first, but not previews', async () => {
+    const client = await signedInAs('owner');
+    await client.post('/api/quick', { expr: '1 km to m' });
+    await client.post('/api/quick', { expr: '3 kyr to yr' });
+    await client.post('/api/quick', { expr: '5 km to m', preview: true });
+    const recent = await client.get('/api/quick/recent');
+    expect(recent.status).toBe(200);
+    expect(recent.body.items[0].expression).toBe('3 kyr to yr');
+    expect(recent.body.items[0].result.value).toBe(3000);
+    expect(recent.body.items[1].expression).toBe('1 km to m');
+    expect(recent.body.items.some((i: { expression: string }) => i.expression === '5 km to m')).toBe(false);
+    const other = await signedInAs('viewer');
+    const theirs = await other.get('/api/quick/recent');
+    expect(theirs.body.items.some((i: { expression: string }) => i.expression === '3 kyr to yr')).toBe(false);
+  });
+
+  it('should answer 401 without a session', async () => {
+    expect((await new ApiClient().post('/api/quick', { expr: '1 m' })).status).toBe(401);
+    expect((await new ApiClient().get('/api/quick/recent')).status).toBe(401);
+  });
+});
+
+describe('POST /api/sheets/{id}/evaluate', () => {
+  it('should evaluate the stored draft with its draft version, then only what changed', async () => {
+    const editor = await signedInAs('editor');
+    const created = await editor.post('/api/sheets', { title: 'Incremental check' });
+    expect(created.status).toBe(201);
+    const sheetId = created.body.sheet.id;
+    const put = await editor.put(`/api/sheets/${sheetId}/draft`, { baseVersion: 1, document: { ...thermalSheet(), title: 'Incremental check' } });
+    expect(put.status).toBe(200);
+
+    const first = await editor.post(`/api/sheets/${sheetId}/evaluate`);
+    expect(first.status).toBe(200);
+    expect(first.body.draftVersion).toBe(put.body.version);
+    expect([...first.body.evaluatedBlockIds].sort()).toEqual(['g', 'p', 'pe']);
+    expectClose(first.body.results.blocks.pe.outputs.Pe.value, 0.950642634421, 0.003);
+
+    const again = await editor.post(`/api/sheets/${sheetId}/evaluate`);
+    expect(again.body.evaluatedBlockIds).toEqual([]);
+
+    // Change only the geotherm's depth: the parameters and the Péclet block are not recomputed.
+    const changed = { ...thermalSheet(), title: 'Incremental check' };
+    changed.blocks[2]!.inputs.depth = '5 km';
+    const second = await editor.put(`/api/sheets/${sheetId}/draft`, { baseVersion: put.body.version, document: changed });
+    const incremental = await editor.post(`/api/sheets/${sheetId}/evaluate`);
+    expect(incremental.body.draftVersion).toBe(second.body.version);
+    expect(incremental.body.evaluatedBlockIds).toEqual(['g']);
+    // P12: T(5 km) = 153.300175593 °C (Turcotte & Schubert 2002).
+    expectClose(incremental.body.results.blocks.thermal.outputs.temperature_at_depth.value, 153.300175593, 0.0007);
+    expectClose(incremental.body.results.blocks.pe.outputs.Pe.value, 0.950642634421, 0.003);
+  });
+
+  it('should let a viewer evaluate a team sheet but refuse the viewer’s save with 403', async () => {
+    const viewer = await signedInAs('viewer');
+    const evaluated = await viewer.post(`/api/sheets/${DEMO_SHEET_THERMAL}/evaluate`, {});
+    expect(evaluated.status).toBe(200);
+    expect(evaluated.body.draftVersion).toBeGreaterThanOrEqual(1);
+    expect(evaluated.body.results.blocks.geotherm.status).toBe('ok');
+    const sheet = await viewer.get(`/api/sheets/${DEMO_SHEET_THERMAL}`);
+    const save = await viewer.put(`/api/sheets/${DEMO_SHEET_THERMAL}/draft`, { baseVersion: sheet.body.draft.version, document: sheet.body.draft.document });
+    expect(save.status).toBe(403);
+    const after = await viewer.get(`/api/sheets/${DEMO_SHEET_THERMAL}`);
+    expect(after.body.draft.version).toBe(sheet.body.draft.version);
+  });
+
+  it('should answer 404 for another team’s sheet and 401 without a session', async () => {
+    const editor = await signedInAs('editor');
+    const created = await editor.post('/api/sheets', { title: 'Private to the demo team' });
+    const { client: stranger } = await import('../support/http').then((m) => m.newAccount('stranger'));
+    expect((await stranger.post(`/api/sheets/${created.body.sheet.id}/evaluate`)).status).toBe(404);
+    expect((await new ApiClient().post(`/api/sheets/${created.body.sheet.id}/evaluate`)).status).toBe(401);
+  });
+
+  it('should answer 400 for an unexpected body', async () => {
+    const editor = await signedInAs('editor');
+    const response = await editor.post(`/api/sheets/${DEMO_SHEET_THERMAL}/evaluate`, { surprise: true });
+    expect(response.status).toBe(400);
+  });
+});
+
+describe('POST /api/block-name', () => {
+  it('should refuse a unit name with the engine’s reason and accept a fresh name', async () => {
+    const editor = await signedInAs('editor');
+    const unit = await editor.post('/api/block-name', { name: 'km' });
+    expect(unit.status).toBe(200);
+    expect(unit.body.message).toMatch(/km/);
+    const fresh = await editor.post('/api/block-name', { name: 'crest_lowering' });
+    expect(fresh.body.message).toBeNull();
+  });
+});
