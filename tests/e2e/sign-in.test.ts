@@ -17,8 +17,9 @@ describe('signing in through the form', () => {
       const context = await browser.newContext();
       const page = await context.newPage();
       await signInThroughForm(page, `${role}@demo.test`);
-      await expect(page.getByRole('heading', { name: 'Sheets' }).isVisible()).resolves.toBe(true);
+      await page.getByRole('heading', { name: 'Sheets', exact: true }).waitFor();
       const rows = page.locator('tbody tr');
+      await rows.first().waitFor();
       expect(await rows.count()).toBeGreaterThanOrEqual(4);
       expect(await page.getByText(`your role: ${role}`).count()).toBe(1);
       const newSheet = await page.getByRole('button', { name: 'New sheet' }).count();
@@ -33,8 +34,10 @@ describe('signing in through the form', () => {
     await page.getByLabel('E-mail').fill('editor@demo.test');
     await page.getByLabel('Password').fill('not-the-password');
     await page.getByRole('button', { name: 'Sign in' }).click();
-    await page.getByRole('alert').waitFor();
-    expect(await page.getByRole('alert').textContent()).toContain('do not match');
+    // Next.js keeps an empty role="alert" route announcer on every page, so look for the form's own message.
+    const message = page.locator('form [role="alert"]');
+    await message.waitFor();
+    expect(await message.textContent()).toContain('do not match');
     expect(page.url()).toContain('/sign-in');
     await page.close();
   });

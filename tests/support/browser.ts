@@ -24,4 +24,6 @@ export async function signInThroughForm(page: Page, email: string, password = 'd
   await page.getByLabel('Password').fill(password);
   await page.getByRole('button', { name: 'Sign in' }).click();
   await page.waitForURL(/\/sheets/, { timeout: 30_000 });
+  // The URL changes before the index has rendered: wait for its heading.
+  await page.locator('main h1').first().waitFor({ timeout: 30_000 });
 }
