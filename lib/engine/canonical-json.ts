@@ -6,9 +6,17 @@
  * it cannot be loaded where tsx runs our TypeScript as CommonJS (scripts, the data layer)
  * on Node 20. The algorithm is short: sorted keys (UTF-16 code units), ECMAScript number and
  * string serialisation (JSON.stringify), no whitespace.
+ *
+ * It runs on every evaluation (the results carry the document's hash), so it appends to one
+ * string instead of building an array per object, and checks strings for lone surrogates with
+ * the engine's String.prototype.isWellFormed where it exists.
  */
 
+type WellFormed = { isWellFormed?: () => boolean };
+const nativeWellFormed = typeof (String.prototype as WellFormed).isWellFormed === 'function';
+
 function hasLoneSurrogate(value: string): boolean {
+  if (nativeWellFormed) return !(value as unknown as Required<WellFormed>).isWellFormed();
   for (let i = 0; i < value.length; i++) {
     const code = value.charCodeAt(i);
     if (code >= 0xd800 && code <= 0xdbff) {
@@ -22,30 +30,62 @@ function hasLoneSurrogate(value: string): boolean {
   return false;
 }
 
-/** Canonical JSON text of a JSON value. Throws on NaN, Infinity, lone surrogates and cycles. */
-export function canonicalJson(value: unknown, seen: Set<object> = new Set()): string {
-  if (typeof value === 'number' && !Number.isFinite(value)) {
-    throw new Error(Number.isNaN(value) ? 'NaN is not allowed' : 'Infinity is not allowed');
+/** Canonical JSON text of a string (throws on a lone surrogate). */
+export function canonicalString(value: string): string {
+  return stringText(value);
+}
+
+function stringText(value: string): string {
+  if (hasLoneSurrogate(value)) throw new Error('Lone surrogate is not allowed');
+  return JSON.stringify(value);
+}
+
+function write(value: unknown, seen: Set<object>): string {
+  switch (typeof value) {
+    case 'string':
+      return stringText(value);
+    case 'number':
+      if (!Number.isFinite(value)) throw new Error(Number.isNaN(value) ? 'NaN is not allowed' : 'Infinity is not allowed');
+      return JSON.stringify(value);
+    case 'object':
+      break;
+    default:
+      // booleans, and what JSON.stringify makes of undefined, functions, symbols and bigints
+      return JSON.stringify(value);
   }
-  if (typeof value === 'string' && hasLoneSurrogate(value)) throw new Error('Lone surrogate is not allowed');
-  if (value === null || typeof value !== 'object') return JSON.stringify(value);
+  if (value === null) return 'null';
   const object = value as Record<string, unknown> & { toJSON?: () => unknown };
   if (seen.has(object)) throw new Error('Circular reference detected');
   seen.add(object);
   let result: string;
   if (typeof object.toJSON === 'function') {
-    result = canonicalJson(object.toJSON(), seen);
+    result = write(object.toJSON(), seen);
   } else if (Array.isArray(object)) {
-    result = `[${object.map((item) => canonicalJson(item === undefined || typeof item === 'symbol' ? null : item, seen)).join(',')}]`;
+    result = '[';
+    for (let i = 0; i < object.length; i++) {
+      const item: unknown = object[i];
+      if (i > 0) result += ',';
+      const text: string | undefined = write(item === undefined || typeof item === 'symbol' ? null : item, seen);
+      if (text !== undefined) result += text; // as Array.prototype.join does with a function's undefined
+    }
+    result += ']';
   } else {
-    const parts: string[] = [];
+    result = '{';
+    let first = true;
     for (const key of Object.keys(object).sort()) {
       const item = object[key];
       if (item === undefined || typeof item === 'symbol') continue;
-      parts.push(`${canonicalJson(key)}:${canonicalJson(item, seen)}`);
+      if (!first) result += ',';
+      first = false;
+      result += `${stringText(key)}:${write(item, seen)}`;
     }
-    result = `{${parts.join(',')}}`;
+    result += '}';
   }
   seen.delete(object);
   return result;
+}
+
+/** Canonical JSON text of a JSON value. Throws on NaN, Infinity, lone surrogates and cycles. */
+export function canonicalJson(value: unknown, seen: Set<object> = new Set()): string {
+  return write(value, seen);
 }

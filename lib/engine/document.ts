@@ -4,7 +4,7 @@
  */
 import { createHash } from 'node:crypto';
 import { z } from 'zod';
-import { canonicalJson } from './canonical-json';
+import { canonicalJson, canonicalString } from './canonical-json';
 import { reservedNameReason } from './expression';
 import { BLOCK_TYPE_IDS, getBlockType } from './registry';
 
@@ -146,16 +146,93 @@ function formatPath(path: readonly PropertyKey[]): string {
 
 export type ParseSheetResult = { ok: true; document: SheetDocument } | { ok: false; message: string; path: string };
 
-/** Validates a document; on failure reports the first fault and where it is, e.g. blocks[2].name. */
-export function parseSheetDocument(input: unknown): ParseSheetResult {
+/* ------------------------------------------------------------ canonical text */
+// The canonical JSON of a validated document, written for its known shape: the same text as
+// canonicalJson (tests/engine/canonical-json.test.ts compares them), in half the time, since
+// the keys of the fixed objects are written in their sorted order instead of being sorted.
+// Anything outside that shape (a key the schema does not know, a value of another type) is
+// handed to canonicalJson, so the text stays exact even if the schema grows.
+
+function countKeys(object: object): number {
+  return Object.keys(object).length;
+}
+
+function isRecord(value: unknown): value is Record<string, unknown> {
+  return typeof value === 'object' && value !== null && !Array.isArray(value) && typeof (value as { toJSON?: unknown }).toJSON !== 'function';
+}
+
+function canonicalRecord(record: Record<string, unknown>): string {
+  const keys = Object.keys(record);
+  if (keys.length > 1) keys.sort();
+  let text = '{';
+  let first = true;
+  for (const key of keys) {
+    const value = record[key];
+    if (value === undefined || typeof value === 'symbol') continue;
+    if (!first) text += ',';
+    first = false;
+    text += `${canonicalString(key)}:${typeof value === 'string' ? canonicalString(value) : canonicalJson(value)}`;
+  }
+  return `${text}}`;
+}
+
+function canonicalBlock(block: SheetBlock): string {
+  const { id, name, type, inputs, note, display } = block;
+  const known = 4 + (note !== undefined ? 1 : 0) + (display !== undefined ? 1 : 0);
+  if (
+    typeof id !== 'string' || typeof name !== 'string' || typeof type !== 'string' || !isRecord(inputs) ||
+    (note !== undefined && typeof note !== 'string') || (display !== undefined && !isRecord(display)) ||
+    countKeys(block) !== known
+  ) {
+    return canonicalJson(block);
+  }
+  // Sorted keys: display, id, inputs, name, note, type.
+  let text = '{';
+  if (display !== undefined) text += `"display":${canonicalRecord(display)},`;
+  text += `"id":${canonicalString(id)},"inputs":${canonicalRecord(inputs)},"name":${canonicalString(name)}`;
+  if (note !== undefined) text += `,"note":${canonicalString(note)}`;
+  return `${text},"type":${canonicalString(type)}}`;
+}
+
+/** Canonical JSON text of a document that passed the schema (RFC 8785, as canonicalJson). */
+export function canonicalSheetJson(document: SheetDocument): string {
+  const { format, title, site, blocks } = document;
+  const known = 3 + (site !== undefined ? 1 : 0);
+  if (typeof format !== 'string' || typeof title !== 'string' || !Array.isArray(blocks) || countKeys(document) !== known) {
+    return canonicalJson(document);
+  }
+  // Sorted keys: blocks, format, site, title.
+  let text = '{"blocks":[';
+  for (let i = 0; i < blocks.length; i++) {
+    const block = blocks[i];
+    if (i > 0) text += ',';
+    text += block !== null && typeof block === 'object' && !Array.isArray(block) ? canonicalBlock(block) : canonicalJson(block);
+  }
+  text += `],"format":${canonicalString(format)}`;
+  if (site !== undefined) text += `,"site":${canonicalJson(site)}`;
+  return `${text},"title":${canonicalString(title)}}`;
+}
+
+/** A validated document with its canonical JSON text (computed once, for the hash). */
+export type CheckedSheetResult =
+  | { ok: true; document: SheetDocument; canonical: string }
+  | { ok: false; message: string; path: string };
+
+/**
+ * Validates a document and returns its canonical JSON text as well: the lone-surrogate check
+ * needs that text anyway, and the hash of the results is computed from it, so an evaluation
+ * serialises the document once.
+ */
+export function checkSheetDocument(input: unknown): CheckedSheetResult {
   const parsed = sheetDocumentSchema.safeParse(input);
   if (parsed.success) {
+    let canonical: string;
     try {
-      canonicalJson(parsed.data);
+      canonical = canonicalSheetJson(parsed.data);
     } catch {
       return { ok: false, message: 'the document holds text that is not valid Unicode (an unpaired surrogate)', path: '' };
     }
-    return { ok: true, document: parsed.data };
+    return { ok: true, document: parsed.data, canonical };
   }
   const issue = parsed.error.issues[0]!;
   const path = formatPath(issue.path);
@@ -164,8 +241,18 @@ export function parseSheetDocument(input: unknown): ParseSheetResult {
   return { ok: false, message, path };
 }
 
+/** Validates a document; on failure reports the first fault and where it is, e.g. blocks[2].name. */
+export function parseSheetDocument(input: unknown): ParseSheetResult {
+  const checked = checkSheetDocument(input);
+  return checked.ok ? { ok: true, document: checked.document } : checked;
+}
+
+/** Lowercase hex SHA-256 of a document's canonical JSON text. */
+export function hashCanonicalText(canonical: string): string {
+  return createHash('sha256').update(canonical, 'utf8').digest('hex');
+}
+
 /** Lowercase hex SHA-256 of the document's RFC 8785 canonical JSON (as the canonicalize package). */
 export function hashSheetDocument(document: SheetDocument): string {
-  const text = canonicalJson(document);
-  return createHash('sha256').update(text, 'utf8').digest('hex');
+  return hashCanonicalText(canonicalJson(document));
 }

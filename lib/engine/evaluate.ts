@@ -8,7 +8,7 @@ import type { BlockTypeDefinition, Series } from './block-type';
 import { hashSheetDocument, type SheetBlock, type SheetDocument } from './document';
 import { EngineError, toSafeMessage } from './errors';
 import { checkExpression, type CheckedExpression, type OutputReference } from './expression';
-import { buildDependencyGraph, type DependencyGraph } from './graph';
+import { buildDependencyGraph, type DependencyGraph, type GraphNode } from './graph';
 import { getBlockType } from './registry';
 import { formatValue, valueFromFormatted, type FormattedOutput } from './units';
 
@@ -55,15 +55,31 @@ interface Prepared {
   graph: DependencyGraph;
 }
 
+/** Output names of each fixed-output type, computed once. */
+const fixedOutputNames = new WeakMap<BlockTypeDefinition, readonly string[]>();
+
 /** Output names a block offers to others. */
-function outputNames(block: SheetBlock, type: BlockTypeDefinition): string[] {
+function outputNames(block: SheetBlock, type: BlockTypeDefinition): readonly string[] {
   if (type.freeInputs) return Object.keys(block.inputs);
-  return type.outputs.map((output) => output.name);
+  let names = fixedOutputNames.get(type);
+  if (!names) {
+    names = type.outputs.map((output) => output.name);
+    fixedOutputNames.set(type, names);
+  }
+  return names;
+}
+
+function hasOutput(block: SheetBlock, type: BlockTypeDefinition, output: string): boolean {
+  if (type.freeInputs) return Object.prototype.hasOwnProperty.call(block.inputs, output);
+  return outputNames(block, type).includes(output);
 }
 
 function blockMessage(name: string, message: string): string {
   return `block "${name}", ${message}`;
 }
+
+/** Whether an input is left empty (only white space), as text.trim() === '' says. */
+const BLANK = /^\s*$/;
 
 function prepare(document: SheetDocument): Prepared {
   const byName = new Map<string, { block: SheetBlock; type: BlockTypeDefinition }>();
@@ -76,39 +92,43 @@ function prepare(document: SheetDocument): Prepared {
   }
 
   const blocks = new Map<string, PreparedBlock>();
+  const nodes: GraphNode[] = [];
   for (const { block, type } of byName.values()) {
     const prepared: PreparedBlock = { block, type, inputs: new Map(), references: [], dependencies: [] };
-    const setProblem = (input: string, message: string) => {
-      prepared.problem ??= blockMessage(block.name, `${input}: ${message}`);
-    };
-    for (const [input, text] of Object.entries(block.inputs)) {
-      if (text.trim() === '') continue;
+    // The first fault found is the block's problem (inputs in document order).
+    let problem: string | undefined;
+    for (const input of Object.keys(block.inputs)) {
+      const text = block.inputs[input]!;
+      if (BLANK.test(text)) continue;
       let checked: CheckedExpression;
       try {
         checked = checkExpression(text);
       } catch (error) {
-        setProblem(input, toSafeMessage(error));
+        problem ??= blockMessage(block.name, `${input}: ${toSafeMessage(error)}`);
         continue;
       }
       prepared.inputs.set(input, { name: input, text, checked });
-      for (const symbol of checked.freeSymbols) {
-        if (byName.has(symbol) || notes.has(symbol)) {
-          setProblem(input, `"${symbol}" is a block; refer to one of its outputs as ${symbol}.<output>`);
-        } else {
-          setProblem(input, `unknown name "${symbol}" (not a block, unit, constant or function)`);
-        }
+      if (problem === undefined && checked.freeSymbols.length > 0) {
+        const symbol = checked.freeSymbols[0]!;
+        const message = byName.has(symbol) || notes.has(symbol)
+          ? `"${symbol}" is a block; refer to one of its outputs as ${symbol}.<output>`
+          : `unknown name "${symbol}" (not a block, unit, constant or function)`;
+        problem = blockMessage(block.name, `${input}: ${message}`);
       }
       for (const reference of checked.references) {
-        const label = `${reference.block}.${reference.output}`;
         const target = byName.get(reference.block);
-        if (notes.has(reference.block)) {
-          setProblem(input, `refers to ${label}, but "${reference.block}" is a note and has no outputs`);
-        } else if (!target) {
-          setProblem(input, `refers to ${label}, but there is no block named "${reference.block}"`);
-        } else {
-          const names = outputNames(target.block, target.type);
-          if (!names.includes(reference.output)) {
-            setProblem(input, `refers to ${label}, but block "${reference.block}" has no output "${reference.output}" (its outputs: ${names.join(', ') || 'none'})`);
+        if (problem === undefined) {
+          const label = `${reference.block}.${reference.output}`;
+          if (notes.has(reference.block)) {
+            problem = blockMessage(block.name, `${input}: refers to ${label}, but "${reference.block}" is a note and has no outputs`);
+          } else if (!target) {
+            problem = blockMessage(block.name, `${input}: refers to ${label}, but there is no block named "${reference.block}"`);
+          } else if (!hasOutput(target.block, target.type, reference.output)) {
+            const names = outputNames(target.block, target.type);
+            problem = blockMessage(
+              block.name,
+              `${input}: refers to ${label}, but block "${reference.block}" has no output "${reference.output}" (its outputs: ${names.join(', ') || 'none'})`,
+            );
           }
         }
         if (target) {
@@ -117,117 +137,128 @@ function prepare(document: SheetDocument): Prepared {
         }
       }
     }
+    if (problem !== undefined) prepared.problem = problem;
     blocks.set(block.name, prepared);
+    nodes.push({ name: block.name, dependencies: prepared.dependencies });
   }
-  const graph = buildDependencyGraph([...blocks.values()].map((p) => ({ name: p.block.name, dependencies: p.dependencies })));
-  return { blocks, graph };
+  return { blocks, graph: buildDependencyGraph(nodes) };
+}
+
+function failed(block: SheetBlock, status: 'error' | 'blocked', error: string): BlockResult {
+  return { id: block.id, type: block.type, status, error, warnings: [], outputs: {} };
 }
 
 /** Evaluation state shared by the blocks of one run. */
 class Run {
   readonly results = new Map<string, BlockResult>();
   private readonly scopeObjects = new Map<string, Record<string, unknown>>();
+  /** One scope for every expression of the run, holding only what the current block reads. */
+  private readonly scope = new Map<string, unknown>();
 
   /** The values of a block's outputs as expressions see them (rebuilt from the results). */
   scopeObject(name: string): Record<string, unknown> {
     let object = this.scopeObjects.get(name);
     if (!object) {
       object = {};
-      for (const [output, formatted] of Object.entries(this.results.get(name)!.outputs)) {
-        object[output] = valueFromFormatted(formatted);
-      }
+      const outputs = this.results.get(name)!.outputs;
+      for (const output of Object.keys(outputs)) object[output] = valueFromFormatted(outputs[output]!);
       this.scopeObjects.set(name, object);
     }
     return object;
   }
 
   evaluateBlock(prepared: PreparedBlock, graph: DependencyGraph): BlockResult {
-    const { block, type } = prepared;
-    const base = { id: block.id, type: block.type };
+    const { block } = prepared;
     const cycle = graph.cycles.get(block.name);
     if (cycle) {
-      const text = cycle.length === 2 ? `block "${block.name}" refers to itself` : `part of a dependency cycle: ${cycle.join(' → ')}`;
-      return { ...base, status: 'error', error: text, warnings: [], outputs: {} };
+      return failed(block, 'error', cycle.length === 2 ? `block "${block.name}" refers to itself` : `part of a dependency cycle: ${cycle.join(' → ')}`);
     }
-    if (prepared.problem) return { ...base, status: 'error', error: prepared.problem, warnings: [], outputs: {} };
+    if (prepared.problem) return failed(block, 'error', prepared.problem);
     for (const dependency of prepared.dependencies) {
       const upstream = this.results.get(dependency)!;
       if (upstream.status !== 'ok') {
         const why = upstream.status === 'error' ? 'which has an error' : 'which is itself blocked';
-        return { ...base, status: 'blocked', error: `waiting on block "${dependency}", ${why}`, warnings: [], outputs: {} };
+        return failed(block, 'blocked', `waiting on block "${dependency}", ${why}`);
       }
     }
-    const scope = new Map<string, unknown>();
+    const scope = this.scope;
+    scope.clear();
     for (const reference of prepared.references) {
       const upstream = this.results.get(reference.block)!;
       if (!(reference.output in upstream.outputs)) {
         const message = `${reference.block}.${reference.output} has no value (block "${reference.block}" did not produce it)`;
-        return { ...base, status: 'error', error: blockMessage(block.name, message), warnings: [], outputs: {} };
+        return failed(block, 'error', blockMessage(block.name, message));
       }
       if (!scope.has(reference.block)) scope.set(reference.block, this.scopeObject(reference.block));
     }
     try {
-      return { ...base, status: 'ok', ...this.compute(prepared, scope) };
+      return this.compute(prepared, scope);
     } catch (error) {
-      return { ...base, status: 'error', error: blockMessage(block.name, toSafeMessage(error)), warnings: [], outputs: {} };
+      return failed(block, 'error', blockMessage(block.name, toSafeMessage(error)));
+    } finally {
+      scope.clear();
     }
   }
 
-  private compute(prepared: PreparedBlock, scope: Map<string, unknown>): Pick<BlockResult, 'warnings' | 'outputs' | 'series'> {
+  private evaluateInput(prepared: PreparedBlock, name: string, scope: Map<string, unknown>): unknown {
+    const input = prepared.inputs.get(name);
+    if (!input) return undefined;
+    try {
+      return input.checked.evaluate(scope);
+    } catch (error) {
+      throw new EngineError(`${name}: ${toSafeMessage(error)}`, { input: name });
+    }
+  }
+
+  private compute(prepared: PreparedBlock, scope: Map<string, unknown>): BlockResult {
     const { block, type } = prepared;
-    const display = block.display ?? {};
-    const evaluateInput = (name: string): unknown => {
-      const input = prepared.inputs.get(name);
-      if (!input) return undefined;
-      try {
-        return input.checked.evaluate(scope);
-      } catch (error) {
-        throw new EngineError(`${name}: ${toSafeMessage(error)}`, { input: name });
-      }
-    };
+    const display = block.display;
 
     if (type.freeInputs || type.id === 'formula') {
       const outputs: Record<string, FormattedOutput> = {};
-      const names = type.freeInputs ? Object.keys(block.inputs) : ['expr'];
+      const names = type.freeInputs ? Object.keys(block.inputs) : FORMULA_INPUTS;
       for (const name of names) {
-        const value = evaluateInput(name);
+        const value = this.evaluateInput(prepared, name, scope);
         if (value === undefined) throw new EngineError(`${name}: the expression is empty`, { input: name });
         const outputName = type.freeInputs ? name : 'value';
         try {
-          outputs[outputName] = formatValue(value, display[outputName]);
+          outputs[outputName] = formatValue(value, display?.[outputName]);
         } catch (error) {
           throw new EngineError(`${name}: ${toSafeMessage(error)}`, { input: name });
         }
       }
-      return { warnings: [], outputs };
+      return { id: block.id, type: block.type, status: 'ok', warnings: [], outputs };
     }
 
     const values: Record<string, unknown> = {};
-    for (const spec of type.inputs) values[spec.name] = evaluateInput(spec.name);
+    for (const spec of type.inputs) values[spec.name] = this.evaluateInput(prepared, spec.name, scope);
     const outcome = runBlockType(type, values);
     const outputs: Record<string, FormattedOutput> = {};
     for (const spec of type.outputs) {
-      const formatted = formatBlockOutput(spec, outcome, display[spec.name]);
+      const formatted = formatBlockOutput(spec, outcome, display?.[spec.name]);
       if (formatted) outputs[spec.name] = formatted;
     }
-    const result: Pick<BlockResult, 'warnings' | 'outputs' | 'series'> = { warnings: outcome.warnings, outputs };
+    const result: BlockResult = { id: block.id, type: block.type, status: 'ok', warnings: outcome.warnings, outputs };
     if (outcome.series) result.series = outcome.series;
     return result;
   }
 }
 
-function assemble(document: SheetDocument, results: Map<string, BlockResult>): SheetResults {
+const FORMULA_INPUTS: readonly string[] = ['expr'];
+
+function assemble(document: SheetDocument, results: Map<string, BlockResult>, sheetHash: string): SheetResults {
   const blocks: Record<string, BlockResult> = {};
   for (const block of document.blocks) {
     const result = results.get(block.name);
     if (result) blocks[block.name] = result;
   }
-  return { format: RESULTS_FORMAT, sheetHash: hashSheetDocument(document), engine: ENGINE_VERSION, blocks };
+  return { format: RESULTS_FORMAT, sheetHash, engine: ENGINE_VERSION, blocks };
 }
 
 function run(
   document: SheetDocument,
   reuse: (prepared: PreparedBlock, graph: DependencyGraph, reused: Set<string>) => BlockResult | null,
+  sheetHash: string,
 ): { results: SheetResults; evaluatedBlockIds: string[] } {
   const { blocks, graph } = prepare(document);
   const state = new Run();
@@ -244,12 +275,15 @@ function run(
     evaluatedBlockIds.push(prepared.block.id);
     state.results.set(name, state.evaluateBlock(prepared, graph));
   }
-  return { results: assemble(document, state.results), evaluatedBlockIds };
+  return { results: assemble(document, state.results, sheetHash), evaluatedBlockIds };
 }
 
-/** Evaluates every block of a (validated) sheet document. */
-export function evaluateSheet(document: SheetDocument): SheetResults {
-  return run(document, () => null).results;
+/**
+ * Evaluates every block of a (validated) sheet document. `sheetHash` is the document's hash
+ * when the caller has it already (computed from the canonical text of the validation).
+ */
+export function evaluateSheet(document: SheetDocument, sheetHash = hashSheetDocument(document)): SheetResults {
+  return run(document, () => null, sheetHash).results;
 }
 
 /**
@@ -260,9 +294,10 @@ export function evaluateSheetIncremental(
   document: SheetDocument,
   previous: SheetResults | null,
   changedBlockIds: readonly string[],
+  sheetHash = hashSheetDocument(document),
 ): { results: SheetResults; evaluatedBlockIds: string[] } {
   if (!previous || previous.engine !== ENGINE_VERSION || previous.format !== RESULTS_FORMAT) {
-    return run(document, () => null);
+    return run(document, () => null, sheetHash);
   }
   const changed = new Set(changedBlockIds);
   return run(document, (prepared, graph, reused) => {
@@ -272,5 +307,5 @@ export function evaluateSheetIncremental(
     if (changed.has(block.id) || prepared.problem || graph.cycles.has(block.name)) return null;
     if (!prepared.dependencies.every((dependency) => reused.has(dependency))) return null;
     return before;
-  });
+  }, sheetHash);
 }

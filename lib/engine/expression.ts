@@ -25,6 +25,63 @@ math.createUnit('kyr', { definition: '1000 yr', aliases: ['kyrs', 'ka'] });
 math.createUnit('Myr', { definition: '1e6 yr', aliases: ['Myrs', 'Ma'] });
 math.createUnit('Gyr', { definition: '1e9 yr', aliases: ['Gyrs', 'Ga'] });
 
+// "Is this name a unit?" is asked when a block name is checked, when an expression is walked
+// and when mathjs compiles a symbol. mathjs answers from a 100-entry cache and otherwise tests
+// the name against every unit it knows (endsWith, then the prefix), so in a sheet of more than
+// 100 blocks every compile of a reference such as v123.value paid that scan of the whole unit
+// table. The engine answers the same question by looking up the name's few possible
+// prefix + unit splits in the table, and remembers the answers. The unit table is fixed from
+// here on (createUnit is refused below), so both are exact; tests/engine/expression.test.ts
+// compares the answers with mathjs's own for every unit and prefixed unit.
+type UnitTable = Record<string, { prefixes: Record<string, unknown> }>;
+const hasOwn = (object: object, key: string): boolean => Object.prototype.hasOwnProperty.call(object, key);
+const mathjsIsValuelessUnit = math.Unit.isValuelessUnit.bind(math.Unit) as (name: string) => boolean;
+
+/** mathjs's answer to "is this a unit, with or without a prefix?" (for tests). */
+export function isValuelessUnitByMathjs(name: string): boolean {
+  return mathjsIsValuelessUnit(name);
+}
+
+/** The longest unit name and the longest prefix name mathjs knows (the table is fixed). */
+let unitTableBounds: { unit: number; prefix: number } | null = null;
+
+/** The same answer as mathjs's: the whole name is a unit, or a unit with one of its prefixes. */
+function findsUnit(name: string): boolean {
+  const units = math.Unit.UNITS as unknown as UnitTable;
+  if (hasOwn(units, name)) return true;
+  if (!unitTableBounds) {
+    let unit = 0;
+    let prefix = 0;
+    for (const unitName of Object.keys(units)) {
+      unit = Math.max(unit, unitName.length);
+      for (const prefixName of Object.keys(units[unitName]!.prefixes)) prefix = Math.max(prefix, prefixName.length);
+    }
+    unitTableBounds = { unit, prefix };
+  }
+  // name = prefix + unit name, with a non-empty prefix (the whole name was tried above).
+  const last = Math.min(name.length - 1, unitTableBounds.prefix);
+  for (let cut = Math.max(1, name.length - unitTableBounds.unit); cut <= last; cut++) {
+    const unitName = name.slice(cut);
+    if (!hasOwn(units, unitName)) continue;
+    const prefixes = units[unitName]!.prefixes;
+    const prefix = name.slice(0, cut);
+    if (hasOwn(prefixes, prefix) && prefixes[prefix] !== undefined) return true;
+  }
+  return false;
+}
+
+const UNIT_NAME_CACHE_LIMIT = 20_000;
+const unitNameAnswers = new Map<string, boolean>();
+(math.Unit as unknown as { isValuelessUnit: (name: string) => boolean }).isValuelessUnit = (name: string): boolean => {
+  let answer = unitNameAnswers.get(name);
+  if (answer === undefined) {
+    answer = typeof name === 'string' ? findsUnit(name) : mathjsIsValuelessUnit(name);
+    if (unitNameAnswers.size >= UNIT_NAME_CACHE_LIMIT) unitNameAnswers.clear();
+    unitNameAnswers.set(name, answer);
+  }
+  return answer;
+};
+
 /* ------------------------------------------------------ private references */
 const privateParse = math.parse.bind(math) as (text: string) => MathNode;
 const privateImport = math.import.bind(math) as (

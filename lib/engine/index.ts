@@ -3,7 +3,7 @@
  * the client receives block-type metadata as plain data from blockCatalog().
  */
 import type { BlockTypeDefinition, InputSpec, OutputSpec, SeriesSpec, WorkedExample } from './block-type';
-import { parseSheetDocument, type SheetDocument } from './document';
+import { checkSheetDocument, hashCanonicalText, type SheetDocument } from './document';
 import { EngineError, toSafeMessage } from './errors';
 import {
   ENGINE_VERSION,
@@ -32,15 +32,17 @@ export { MAX_EXPRESSION_LENGTH } from './expression';
 /** The answer of a quick calculation. */
 export type QuickResult = FormattedOutput;
 
-function assertValid(document: SheetDocument): SheetDocument {
-  const parsed = parseSheetDocument(document);
-  if (!parsed.ok) throw new EngineError(`invalid document at ${parsed.path || 'the top level'}: ${parsed.message}`);
-  return parsed.document;
+/** Validates once (zod, then the canonical JSON that also gives the hash). */
+function assertValid(document: SheetDocument): { document: SheetDocument; sheetHash: string } {
+  const checked = checkSheetDocument(document);
+  if (!checked.ok) throw new EngineError(`invalid document at ${checked.path || 'the top level'}: ${checked.message}`);
+  return { document: checked.document, sheetHash: hashCanonicalText(checked.canonical) };
 }
 
 /** Evaluates every block of a sheet. Throws EngineError when the document is invalid. */
 export function evaluateSheet(document: SheetDocument): SheetResults {
-  return evaluateValidSheet(assertValid(document));
+  const valid = assertValid(document);
+  return evaluateValidSheet(valid.document, valid.sheetHash);
 }
 
 /**
@@ -52,7 +54,8 @@ export function evaluateSheetIncremental(
   previous: SheetResults | null,
   changedBlockIds: string[],
 ): { results: SheetResults; evaluatedBlockIds: string[] } {
-  return evaluateValidSheetIncremental(assertValid(document), previous, changedBlockIds);
+  const valid = assertValid(document);
+  return evaluateValidSheetIncremental(valid.document, previous, changedBlockIds, valid.sheetHash);
 }
 
 /**

@@ -167,6 +167,18 @@ interface UnitTemplate {
   si: Unit;
   siText: string;
   displayText: string;
+  /**
+   * Whether neither unit has an offset (every unit but the temperature scales), so that
+   * converting from SI to the display unit only copies the value (see quantityFromSI).
+   */
+  noOffset: boolean;
+}
+
+type MutableUnit = Unit & { fixPrefix: boolean; skipAutomaticSimplification: boolean };
+type UnitParts = { units: Array<{ unit: { offset: number } }> };
+
+function hasNoOffset(unit: Unit): boolean {
+  return (unit as unknown as UnitParts).units.every((part) => part.unit.offset === 0);
 }
 
 const templates = new Map<string, UnitTemplate | null>();
@@ -181,7 +193,10 @@ export function unitTemplate(text: string): UnitTemplate | null {
       if (display.value === null) {
         const si = math.unit(1, text).toSI();
         const siText = si.formatUnits();
-        if (siText !== '') template = { display, si: math.unit(siText), siText, displayText: display.formatUnits() };
+        if (siText !== '') {
+          const siUnit = math.unit(siText);
+          template = { display, si: siUnit, siText, displayText: display.formatUnits(), noOffset: hasNoOffset(display) && hasNoOffset(siUnit) };
+        }
       }
     }
   } catch {
@@ -210,15 +225,64 @@ function siUnitWithValue(template: UnitTemplate, si: number): Unit {
   return unit;
 }
 
-/** Builds a Unit from an SI value, shown in the given display unit. */
+/**
+ * Builds a Unit from an SI value, shown in the given display unit. Without offsets, mathjs's
+ * Unit.to(display) clones the display unit, copies the (SI) value into it and fixes its prefix;
+ * that is done here directly. Temperature scales go through Unit.to.
+ */
 export function quantityFromSI(si: number, displayUnit: string): Unit {
   const template = unitTemplate(displayUnit);
   if (!template) throw new EngineError(`"${displayUnit}" is not a unit`);
-  return siUnitWithValue(template, si).to(template.display);
+  if (!template.noOffset) return siUnitWithValue(template, si).to(template.display);
+  const unit = template.display.clone() as MutableUnit;
+  unit.value = si;
+  unit.fixPrefix = true;
+  unit.skipAutomaticSimplification = true;
+  return unit;
+}
+
+/**
+ * The SI form of each dimension, as Unit.toSI() builds it from the (fixed) SI unit system: its
+ * text, and whether every unit in it has a factor (unit value × prefix value) of exactly 1 and
+ * no offset. That holds for m, kg, s, A, K, mol, cd, rad and b, and then mathjs's conversion of
+ * a quantity without offsets to SI copies its internal value and turning that into a number
+ * divides it by 1: the SI value is the internal value, bit for bit (tests/engine/units.test.ts).
+ */
+interface SiForm {
+  text: string;
+  unitFactors: boolean;
+}
+
+type UnitFactors = { units: Array<{ unit: { value: number; offset: number }; prefix: { value: number } }> };
+
+const siForms = new Map<string, SiForm>();
+
+function siFormOf(unit: Unit): SiForm {
+  const key = unit.dimensions.join(',');
+  let form = siForms.get(key);
+  if (!form) {
+    const valueless = unit.clone();
+    (valueless as unknown as { value: number | null }).value = null;
+    const siUnit = valueless.toSI();
+    const unitFactors = (siUnit as unknown as UnitFactors).units.every(
+      (part) => part.unit.offset === 0 && part.unit.value * part.prefix.value === 1,
+    );
+    form = { text: siUnit.formatUnits(), unitFactors };
+    if (siForms.size > 2000) siForms.clear();
+    siForms.set(key, form);
+  }
+  return form;
 }
 
 /** Formats a mathjs Unit: value in its own unit, plus the SI form. */
 export function formatUnit(unit: Unit): FormattedOutput {
+  if (typeof unit.value === 'number' && hasNoOffset(unit)) {
+    const form = siFormOf(unit);
+    if (form.unitFactors) {
+      // Equal to unit.toSI().toNumber() and unit.toSI().formatUnits() (see SiForm).
+      return { value: unit.toNumber(), unit: unit.formatUnits(), si: unit.value, siUnit: form.text };
+    }
+  }
   const si = unit.toSI();
   const siUnit = si.formatUnits();
   return {

@@ -2,6 +2,8 @@ import canonicalize from 'canonicalize';
 import { describe, expect, it } from 'vitest';
 import { canonicalJson } from '@/lib/engine/canonical-json';
 import { DEMO_SHEETS } from '@/lib/demo/sheets';
+import type { SheetDocument } from '@/lib/engine';
+import { canonicalSheetJson, checkSheetDocument } from '@/lib/engine/document';
 
 // RFC 8785 (JSON Canonicalization Scheme); the canonicalize package (v4.0.0) is the reference.
 describe('canonicalJson', () => {
@@ -20,5 +22,47 @@ describe('canonicalJson', () => {
     expect(() => canonicalJson({ x: Number.NaN })).toThrow();
     expect(() => canonicalJson([Infinity])).toThrow();
     expect(() => canonicalJson('\ud800')).toThrow();
+  });
+});
+
+// The canonical text of a validated document is written by canonicalSheetJson for the schema's
+// shape; reference library: the canonicalize package (v4.0.0), RFC 8785.
+describe('canonicalSheetJson', () => {
+  const generated: SheetDocument = {
+    format: 'denudata-sheet@1',
+    title: 'Jeu d’essai — “quotes”, \u2028 and 😀',
+    site: { name: 'Harrow Vale test pit', latitude: -12.5, longitude: 130.25, notes: 'line\nbreak' },
+    blocks: [
+      { id: 'q', name: 'q', type: 'quantities', inputs: { zeta: '1 m', Alpha: '2 s', alpha: '3 kg', K: '', C: '4 degC' }, display: { zeta: 'km', alpha: 'g' } },
+      { id: 'n', name: 'story', type: 'note', inputs: {}, note: '# Heading\n\n*é* \u0007' },
+      { id: 'f\u00e9', name: 'f1', type: 'formula', inputs: { expr: 'q.zeta * 2' }, note: 'caption', display: { value: 'mm' } },
+      { id: '10', name: 'f2', type: 'formula', inputs: { expr: '"text with \\"escapes\\""' } },
+    ],
+  };
+  const documents: SheetDocument[] = [generated, ...DEMO_SHEETS.map((s) => s.document)];
+
+  it('should write the same text as the canonicalize package for validated documents', () => {
+    for (const document of documents) {
+      const checked = checkSheetDocument(document);
+      expect(checked.ok).toBe(true);
+      if (!checked.ok) continue;
+      expect(checked.canonical).toBe(canonicalize(document));
+      expect(canonicalSheetJson(checked.document)).toBe(canonicalize(checked.document));
+    }
+  });
+
+  it('should hand objects outside the shape to the general serialiser, with the same text', () => {
+    const withUndefined = { ...generated, blocks: [{ ...generated.blocks[0]!, note: undefined }], site: undefined } as unknown as SheetDocument;
+    expect(canonicalSheetJson(withUndefined)).toBe(canonicalize(withUndefined));
+    const withExtraKey = { ...generated, blocks: [{ ...generated.blocks[2]!, extra: [1, 'x'] }] } as unknown as SheetDocument;
+    expect(canonicalSheetJson(withExtraKey)).toBe(canonicalize(withExtraKey));
+  });
+
+  it('should refuse a lone surrogate, and the document check should report it', () => {
+    const broken = { ...generated, title: 'bad \ud800 text' };
+    expect(() => canonicalSheetJson(broken)).toThrow();
+    const checked = checkSheetDocument(broken);
+    expect(checked.ok).toBe(false);
+    if (!checked.ok) expect(checked.message).toMatch(/unpaired surrogate/);
   });
 });

@@ -1,5 +1,8 @@
+import { createHash } from 'node:crypto';
+import canonicalize from 'canonicalize';
 import { describe, expect, it } from 'vitest';
-import { checkBlockName, hashSheetDocument, parseSheetDocument, type SheetDocument } from '@/lib/engine';
+import { DEMO_SHEETS } from '@/lib/demo/sheets';
+import { checkBlockName, evaluateSheet, evaluateSheetIncremental, hashSheetDocument, parseSheetDocument, type SheetDocument } from '@/lib/engine';
 import { block, sheet } from '../support/engine-sheets';
 
 const valid = (): SheetDocument => ({
@@ -73,6 +76,15 @@ describe('document', () => {
       );
       expect(hashSheetDocument(doc)).toMatch(/^[0-9a-f]{64}$/);
       expect(hashSheetDocument(reordered)).toBe(hashSheetDocument(doc));
+    });
+
+    it('should equal, in the results, the SHA-256 of the canonicalize package\'s text (RFC 8785; contract §2)', () => {
+      for (const document of [valid(), ...DEMO_SHEETS.map((s) => s.document)]) {
+        const expected = createHash('sha256').update(canonicalize(document)!, 'utf8').digest('hex');
+        expect(hashSheetDocument(document)).toBe(expected);
+        expect(evaluateSheet(document).sheetHash).toBe(expected);
+        expect(evaluateSheetIncremental(document, null, []).results.sheetHash).toBe(expected);
+      }
     });
 
     it('should change when any value changes', () => {

@@ -1,6 +1,6 @@
 import { describe, expect, it } from 'vitest';
 import { EngineError, evaluateQuick } from '@/lib/engine';
-import { math } from '@/lib/engine/expression';
+import { isValuelessUnitByMathjs, math } from '@/lib/engine/expression';
 import { expectClose } from '../support/approx';
 
 /** Runs a quick calculation and returns the message it is refused with, and how long it took. */
@@ -96,6 +96,39 @@ describe('expression', () => {
     it('should still allow small matrices and statistics', () => {
       expect(evaluateQuick('sum(ones(10) * 2)').value).toBe(20);
       expect(evaluateQuick('mean([1, 2, 3] m)').unit).toBe('m');
+    });
+  });
+  describe('unit names', () => {
+    // Reference library: mathjs 15.2.0, Unit.isValuelessUnit (its memoised scan of the unit table),
+    // kept as isValuelessUnitByMathjs; the engine answers the same question by suffix look-up.
+    const table = math.Unit.UNITS as unknown as Record<string, { prefixes: Record<string, unknown> }>;
+    const names = new Set<string>(['', 'mm', 'kyr', 'ka', 'Ma', 'Myrs', 'Gyr', 'kkm', 'dam', 'hh', 'K', 'C', 'b', 'e', 'h', 'rate']);
+    for (const unit of Object.keys(table)) {
+      names.add(unit);
+      for (const prefix of Object.keys(table[unit]!.prefixes)) {
+        names.add(`${prefix}${unit}`);
+        names.add(`x${prefix}${unit}`);
+        names.add(`${prefix}${unit}s`);
+      }
+    }
+    for (let i = 0; i < 500; i++) names.add(`v${i}`);
+    for (const odd of ['constructor', '__proto__', 'toString', 'hasOwnProperty', 'valueOf']) names.add(odd);
+    names.add(`${'a'.repeat(1990)}m`);
+    names.add(`${'k'.repeat(1999)}`);
+
+    it('should answer "is this a unit?" exactly as mathjs does, for every unit, prefixed unit and others', () => {
+      const differences = [...names].filter((name) => math.Unit.isValuelessUnit(name) !== isValuelessUnitByMathjs(name));
+      expect(differences).toEqual([]);
+      // Ask twice: the remembered answers are the same answers.
+      expect([...names].filter((name) => math.Unit.isValuelessUnit(name) !== isValuelessUnitByMathjs(name))).toEqual([]);
+    });
+
+    it('should know the prefixed forms and refuse ordinary block names', () => {
+      expect(math.Unit.isValuelessUnit('km')).toBe(true);
+      expect(math.Unit.isValuelessUnit('kyr')).toBe(true);
+      expect(math.Unit.isValuelessUnit('Ma')).toBe(true);
+      expect(math.Unit.isValuelessUnit('v123')).toBe(false);
+      expect(math.Unit.isValuelessUnit('hill_crest')).toBe(false);
     });
   });
 });
