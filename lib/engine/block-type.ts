@@ -110,6 +110,14 @@ export interface BlockTypeDefinition {
 export const STANDING_CAUTION =
   'Results are estimates from a simplified model. Check them against site data, and defer to local codes and licensed professional practice before using them in hazard or design decisions.';
 
+/**
+ * How a quantities or formula result's unit is chosen when no display unit is set, in words for
+ * the help (the rule is fixed in expression.ts; tests/engine/reproducibility.test.ts checks the
+ * examples given here).
+ */
+export const RESULT_UNIT_RULE =
+  'Without a display unit, a value keeps the unit it is written in (1 hp; 3 ft * 2 gives 6 ft; a conversion with to keeps its target unit) and a sum takes the unit of its first term. A product, quotient or power of quantities is shown in the SI unit named for its kind when there is one (N, J, W, Pa, Hz, ...: (2 J) / (1 s) gives 2 W), else in SI base units when that needs fewer unit terms (2 ft * 3 ft gives about 0.557 m^2), else in the units it combines (3 m / (2 yr) gives 1.5 m / yr). The rule is fixed: a result never depends on what was calculated before it. Set a display unit, or end the expression with to and a unit, to choose another.';
+
 /** A required input's SI value (the engine guarantees required inputs are present). */
 export function required(inputs: InputValues, name: string): number {
   const value = inputs[name];

@@ -25,6 +25,28 @@ math.createUnit('kyr', { definition: '1000 yr', aliases: ['kyrs', 'ka'] });
 math.createUnit('Myr', { definition: '1e6 yr', aliases: ['Myrs', 'Ma'] });
 math.createUnit('Gyr', { definition: '1e9 yr', aliases: ['Gyrs', 'Ga'] });
 
+// How a result is shown when no display unit is given, fixed for reproducibility.
+// mathjs shows a product, quotient or power of quantities (e.g. (2 J) / (1 s)) through
+// Unit.simplify(), which picks units from the "current unit system". Its default is the "auto"
+// system, and Unit.parse() rewrites that system every time it reads a unit name (reading "hp"
+// makes hp the unit for every power shown afterwards). The unit of a result then depended on
+// what the process had parsed before, in any sheet or quick calculation, and on the engine's
+// caches, so a stored revision could be shown differently on re-evaluation and incremental
+// evaluation could differ from full evaluation. The engine uses the fixed SI system instead:
+// simplify() then depends on the result alone. The rule, as the formula and quantities help
+// states it: a product or quotient of quantities is shown in the SI unit named for its kind
+// when there is one (N, J, W, Pa, Hz, C, V, ...), else in SI base units when that takes fewer
+// unit terms than the units it was computed in (2 ft * 3 ft → 0.557 m^2), else in the units it
+// was computed in (3 m / (2 yr) → 1.5 m / yr); a value written with its unit (1 hp) and a
+// conversion (to) keep their units, and a sum takes its first term's. parse() goes on rewriting
+// "auto", which nothing reads now.
+// setUnitSystem is then refused, so nothing in the process can change the rule again
+// (tests/engine/reproducibility.test.ts).
+math.Unit.setUnitSystem('si');
+(math.Unit as unknown as { setUnitSystem: (name: string) => void }).setUnitSystem = () => {
+  throw new EngineError('the unit system of the engine is fixed (SI)');
+};
+
 // "Is this name a unit?" is asked when a block name is checked, when an expression is walked
 // and when mathjs compiles a symbol. mathjs answers from a 100-entry cache and otherwise tests
 // the name against every unit it knows (endsWith, then the prefix), so in a sheet of more than

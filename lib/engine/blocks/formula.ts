@@ -1,4 +1,4 @@
-import { STANDING_CAUTION, type BlockTypeDefinition } from '../block-type';
+import { RESULT_UNIT_RULE, STANDING_CAUTION, type BlockTypeDefinition } from '../block-type';
 
 /** Any single expression, such as a unit conversion or a quantity derived from earlier blocks. */
 export const formula: BlockTypeDefinition = {
@@ -12,11 +12,11 @@ export const formula: BlockTypeDefinition = {
       name: 'expr',
       label: 'Expression',
       dimension: 'variable',
-      help: 'One expression with units, such as 0.004 m^2/yr * hill.curvature to mm/yr. Use name.output for results of other blocks. Assignments, function definitions and ";" are not allowed.',
+      help: 'One expression with units, such as 0.004 m^2/yr * hill.curvature to mm/yr. Use name.output for results of other blocks. Assignments, function definitions and ";" are not allowed. ' + RESULT_UNIT_RULE,
     },
   ],
   outputs: [
-    { name: 'value', label: 'Value', unit: null, kind: 'quantity', description: 'The value of the expression, in its own unit (or the display unit chosen).' },
+    { name: 'value', label: 'Value', unit: null, kind: 'quantity', description: 'The value of the expression, in the display unit chosen, or else in the unit the expression gives (see the expression help).' },
   ],
   validity: ['The expression must give a single number, quantity or text.'],
   cautions: ['The formula is only as sound as its author: state its source in the block caption.', STANDING_CAUTION],

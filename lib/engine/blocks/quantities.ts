@@ -1,4 +1,4 @@
-import { STANDING_CAUTION, type BlockTypeDefinition } from '../block-type';
+import { RESULT_UNIT_RULE, STANDING_CAUTION, type BlockTypeDefinition } from '../block-type';
 
 /** A table of named parameters; each input becomes an output of the same name. */
 export const quantities: BlockTypeDefinition = {
@@ -10,7 +10,7 @@ export const quantities: BlockTypeDefinition = {
   inputs: [],
   freeInputs: true,
   outputs: [],
-  validity: ['Each value must be a single number, quantity with units, or text.'],
+  validity: ['Each value must be a single number, quantity with units, or text.', RESULT_UNIT_RULE],
   cautions: [
     'State where each parameter comes from (measurement, literature, assumption) in the block caption.',
     STANDING_CAUTION,
