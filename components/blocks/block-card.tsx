@@ -2,6 +2,7 @@
 
 import dynamic from 'next/dynamic';
 import { memo, useEffect, useRef, useState, type DragEvent } from 'react';
+import { OpenCommentCount } from '@/components/comments/comments-panel';
 import { BlockStatusBadge, type BlockState } from '@/components/sheet/block-status';
 import { formatValue, locateMessage } from '@/lib/sheet/format';
 import { DISPLAY_UNIT_CHOICES } from '@/lib/sheet/vocabulary';
@@ -16,7 +17,11 @@ const ExpressionField = dynamic(() => import('./expression-field'), {
 });
 const SeriesFigure = dynamic(() => import('@/components/plots/series-figure'), {
   ssr: false,
-  loading: () => <div className="mt-3 h-64 animate-pulse rounded-[3px] bg-wash" aria-label="Drawing the plot" />,
+  loading: () => (
+    <div className="mt-3 h-64 animate-pulse rounded-[3px] bg-wash" role="status">
+      <span className="sr-only">Drawing the plot…</span>
+    </div>
+  ),
 });
 
 export interface BlockCardActions {
@@ -33,6 +38,10 @@ export interface BlockCardActions {
   renameParameter: (id: string, from: string, to: string) => string | null;
   removeParameter: (id: string, key: string) => void;
   setRenaming: (id: string | null) => void;
+  /** Opens the side rail's comments on this block. */
+  showComments: (id: string) => void;
+  /** Starts (id) or ends (null) editing a calculation block's caption. */
+  setCaptionEditing: (id: string | null) => void;
 }
 
 export interface BlockCardProps {
@@ -43,7 +52,11 @@ export interface BlockCardProps {
   stale: boolean;
   selected: boolean;
   renaming: boolean;
+  /** The caption (markdown `note` of a calculation block) is being edited. */
+  editingCaption: boolean;
   canEdit: boolean;
+  /** The sheet whose open-comment count is shown on the card. */
+  commentsSheetId?: string;
   index: number;
   count: number;
   units: readonly string[];
@@ -142,9 +155,24 @@ function BlockCardInner(props: BlockCardProps) {
         )}
         <span className="text-[12px] text-slate">{type?.title ?? block.type}</span>
         <span className="ml-auto flex items-center gap-1">
+          {props.commentsSheetId ? (
+            <OpenCommentCount sheetId={props.commentsSheetId} blockId={block.id} blockName={block.name} onOpen={() => actions.showComments(block.id)} />
+          ) : null}
           {state ? <BlockStatusBadge state={state} /> : null}
           {canEdit ? (
             <>
+              {!isNote ? (
+                <button
+                  type="button"
+                  className={iconButton}
+                  aria-label={block.note ? `Edit the caption of ${block.name}` : `Add a caption to ${block.name}`}
+                  title={block.note ? 'Edit the caption' : 'Add a caption'}
+                  aria-pressed={props.editingCaption}
+                  onClick={() => actions.setCaptionEditing(props.editingCaption ? null : block.id)}
+                >
+                  <span aria-hidden="true">¶</span>
+                </button>
+              ) : null}
               <button type="button" className={iconButton} aria-label={`Move ${block.name} up`} disabled={props.index === 0} onClick={() => actions.move(block.id, -1)}>
                 <span aria-hidden="true">↑</span>
               </button>
@@ -175,8 +203,10 @@ function BlockCardInner(props: BlockCardProps) {
         <NoteBody block={block} canEdit={canEdit} onChange={(text) => actions.setNote(block.id, text)} />
       ) : (
         <>
-          {block.note ? (
-            <div className="prose-note mt-1 text-[13px] text-slate">
+          {props.editingCaption && canEdit ? (
+            <CaptionEditor block={block} onChange={(text) => actions.setNote(block.id, text)} onDone={() => actions.setCaptionEditing(null)} />
+          ) : block.note ? (
+            <div className="prose-note mt-1 text-[13px] text-slate" data-testid="block-caption">
               <NoteMarkdown text={block.note} />
             </div>
           ) : null}
@@ -433,6 +463,45 @@ function ParameterName({ block, name, canEdit, labelId, actions }: { block: Shee
         </span>
       )}
       {error ? <span className="sr-only">{error}</span> : null}
+    </div>
+  );
+}
+
+function CaptionEditor({ block, onChange, onDone }: { block: SheetBlock; onChange: (text: string) => void; onDone: () => void }) {
+  const ref = useRef<HTMLTextAreaElement>(null);
+  const [text, setText] = useState(block.note ?? '');
+  useEffect(() => {
+    ref.current?.focus();
+  }, []);
+  const id = `caption-${block.id}`;
+  return (
+    <div className="mt-1 flex flex-col gap-1">
+      <label htmlFor={id} className="text-[12px] text-slate">
+        Caption of {block.name} (markdown; shown above its inputs and kept in revisions)
+      </label>
+      <textarea
+        ref={ref}
+        id={id}
+        value={text}
+        rows={Math.min(8, Math.max(2, text.split('\n').length + 1))}
+        onChange={(e) => {
+          setText(e.target.value);
+          onChange(e.target.value);
+        }}
+        onKeyDown={(e) => {
+          if (e.key === 'Escape') {
+            e.preventDefault();
+            e.stopPropagation();
+            onDone();
+          }
+        }}
+        className="w-full rounded-[3px] border border-rule bg-chalk p-2 text-[13px]"
+      />
+      <div>
+        <button type="button" onClick={onDone} className="h-7 rounded-[3px] border border-rule px-2 text-[12px]">
+          Done
+        </button>
+      </div>
     </div>
   );
 }

@@ -35,15 +35,31 @@ export function useSheetComments(sheetId: string) {
   return useQuery<Listing>({ queryKey: commentsKey(sheetId), queryFn: () => call(`/api/sheets/${sheetId}/comments`, 'GET') });
 }
 
-/** The number of open threads on a block, for the badge on its card. */
-export function OpenCommentCount({ sheetId, blockId }: { sheetId: string; blockId: string }) {
+/** The number of open threads on a block, for the badge on its card; a button when `onOpen` is given. */
+export function OpenCommentCount({ sheetId, blockId, blockName, onOpen }: { sheetId: string; blockId: string; blockName?: string; onOpen?: () => void }) {
   const { data } = useSheetComments(sheetId);
   const count = data?.openByBlock[blockId] ?? 0;
   if (!count) return null;
+  const words = `${count} open ${count === 1 ? 'comment' : 'comments'}`;
+  if (onOpen) {
+    return (
+      <button
+        type="button"
+        onClick={onOpen}
+        className="inline-flex h-7 items-center gap-1 rounded-[3px] px-1.5 text-[12px] text-ochre hover:bg-wash"
+        data-open-comments={count}
+        aria-label={`${words}${blockName ? ` on ${blockName}` : ''}: show them`}
+        title="Show the comments"
+      >
+        <span aria-hidden="true">◆</span>
+        {count}
+      </button>
+    );
+  }
   return (
-    <span className="inline-flex items-center gap-1 text-[12px] text-ochre" data-open-comments={count} aria-label={`${count} open ${count === 1 ? 'comment' : 'comments'}`}>
-      <span aria-hidden="true">◆</span>
-      {count}
+    <span className="inline-flex items-center gap-1 text-[12px] text-ochre" data-open-comments={count}>
+      <span aria-hidden="true">◆ {count}</span>
+      <span className="sr-only">{words}</span>
     </span>
   );
 }

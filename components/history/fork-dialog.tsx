@@ -33,9 +33,20 @@ export function ForkDialog({
     const siteName = String(form.get('siteName') ?? '').trim();
     const lat = String(form.get('latitude') ?? '').trim();
     const lon = String(form.get('longitude') ?? '').trim();
+    const notes = String(form.get('siteNotes') ?? '').trim();
+    const coordinate = (text: string) => (Number.isFinite(Number(text.replace(',', '.'))) ? Number(text.replace(',', '.')) : text);
     const body = {
       title: String(form.get('title') ?? ''),
-      ...(siteName ? { site: { name: siteName, ...(lat ? { latitude: Number(lat) } : {}), ...(lon ? { longitude: Number(lon) } : {}) } } : {}),
+      ...(siteName
+        ? {
+            site: {
+              name: siteName,
+              ...(lat ? { latitude: coordinate(lat) } : {}),
+              ...(lon ? { longitude: coordinate(lon) } : {}),
+              ...(notes ? { notes } : {}),
+            },
+          }
+        : {}),
       ...(revision ? { revision } : {}),
       ...(form.get('teamId') ? { teamId: String(form.get('teamId')) } : {}),
     };
@@ -50,7 +61,15 @@ export function ForkDialog({
       return;
     }
     const field = payload?.error?.field ?? 'form';
-    const key = field.startsWith('site.name') ? 'siteName' : field.startsWith('site.latitude') ? 'latitude' : field.startsWith('site.longitude') ? 'longitude' : field;
+    const key = field.startsWith('site.name')
+      ? 'siteName'
+      : field.startsWith('site.latitude')
+        ? 'latitude'
+        : field.startsWith('site.longitude')
+          ? 'longitude'
+          : field.startsWith('site.notes')
+            ? 'siteNotes'
+            : field;
     setErrors({ [key]: (payload?.error?.message ?? 'The fork could not be made.').replace(/^[\w.]+: /, '') });
   }
 
@@ -65,6 +84,25 @@ export function ForkDialog({
         <div className="grid grid-cols-2 gap-2">
           <Field label="Latitude" name="latitude" inputMode="decimal" error={errors.latitude} />
           <Field label="Longitude" name="longitude" inputMode="decimal" error={errors.longitude} />
+        </div>
+        <div className="flex flex-col gap-1">
+          <label htmlFor="fork-site-notes" className="text-[13px] font-medium">
+            Site notes
+          </label>
+          <textarea
+            id="fork-site-notes"
+            name="siteNotes"
+            rows={2}
+            maxLength={5000}
+            aria-invalid={errors.siteNotes ? true : undefined}
+            className="rounded-[3px] border border-rule bg-chalk px-2.5 py-1.5 text-[14px]"
+          />
+          {errors.siteNotes ? (
+            <p role="alert" className="text-[12px] text-oxide">
+              <span aria-hidden="true">✕ </span>
+              {errors.siteNotes}
+            </p>
+          ) : null}
         </div>
         {teams && teams.length > 1 ? (
           <label className="flex flex-col gap-1 text-[13px]">

@@ -41,8 +41,9 @@ export function RevisionBlocks({
                 </span>
               ) : null}
               {openCounts[block.id] ? (
-                <span className="ml-auto text-[12px] text-ochre" aria-label={`${openCounts[block.id]} open comments`}>
-                  ◆ {openCounts[block.id]} open
+                <span className="ml-auto text-[12px] text-ochre">
+                  <span aria-hidden="true">◆ </span>
+                  {openCounts[block.id]} open {openCounts[block.id] === 1 ? 'comment' : 'comments'}
                 </span>
               ) : null}
             </div>

@@ -1,6 +1,6 @@
 'use client';
 
-import { createContext, useCallback, useContext, useEffect, useId, useMemo, useRef, useState, type ReactNode } from 'react';
+import { createContext, useContext, useEffect, useId, useRef, useState, useSyncExternalStore, type ReactNode } from 'react';
 
 /** One action of the palette. Pages register theirs with useRegisterCommands. */
 export interface PaletteCommand {
@@ -20,22 +20,43 @@ export interface PaletteCommand {
 /** Something that can take a quick calculation into the current page (the sheet, for editors). */
 export type QuickInsert = (expression: string) => void;
 
-interface Registry {
+interface Snapshot {
   commands: PaletteCommand[];
+  quickInsert: QuickInsert | null;
+}
+
+/**
+ * The registry's functions. This object never changes after the first render: the registered commands
+ * live in a small store read with useSyncExternalStore, not in context. A context value that changed
+ * while the page was still streaming in would make React give up hydrating every Suspense boundary below
+ * it (a dehydrated boundary cannot tell which contexts it reads), render the page again on the client,
+ * and leave the server's copy hidden in the DOM beside the live one until the stream ends.
+ */
+interface Registry {
   register: (source: string, commands: PaletteCommand[]) => void;
   unregister: (source: string) => void;
-  quickInsert: QuickInsert | null;
   setQuickInsert: (source: string, insert: QuickInsert | null) => void;
   open: (query?: string) => void;
   showShortcuts: () => void;
+  subscribe: (listener: () => void) => () => void;
+  snapshot: () => Snapshot;
 }
+
+const EMPTY: Snapshot = { commands: [], quickInsert: null };
 
 const RegistryContext = createContext<Registry | null>(null);
 
-export function useCommandRegistry(): Registry {
+export function useCommandRegistry(): Pick<Registry, 'register' | 'unregister' | 'setQuickInsert' | 'open' | 'showShortcuts'> {
   const registry = useContext(RegistryContext);
   if (!registry) throw new Error('useCommandRegistry needs the PaletteProvider');
   return registry;
+}
+
+/** Every registered command and the current quick-insert target (for the palette and the shortcuts sheet). */
+export function useRegistrySnapshot(): Snapshot {
+  const registry = useContext(RegistryContext);
+  if (!registry) throw new Error('useRegistrySnapshot needs the PaletteProvider');
+  return useSyncExternalStore(registry.subscribe, registry.snapshot, () => EMPTY);
 }
 
 /** Registers a page's commands while it is mounted; pass a memoised list. */
@@ -58,6 +79,44 @@ export function useQuickInsert(insert: QuickInsert | null): void {
   }, [source, insert, setQuickInsert]);
 }
 
+function createRegistry(callbacks: { current: { onOpen: (query?: string) => void; onShowShortcuts: () => void } }): Registry {
+  let sources: Record<string, PaletteCommand[]> = {};
+  let quick: { source: string; insert: QuickInsert } | null = null;
+  let snapshot: Snapshot = EMPTY;
+  const listeners = new Set<() => void>();
+  const publish = () => {
+    snapshot = { commands: Object.values(sources).flat(), quickInsert: quick?.insert ?? null };
+    for (const listener of listeners) listener();
+  };
+  return {
+    register(source, commands) {
+      if (sources[source] === commands) return;
+      sources = { ...sources, [source]: commands };
+      publish();
+    },
+    unregister(source) {
+      if (!(source in sources)) return;
+      const next = { ...sources };
+      delete next[source];
+      sources = next;
+      publish();
+    },
+    setQuickInsert(source, insert) {
+      const next = insert ? { source, insert } : quick?.source === source ? null : quick;
+      if (next === quick) return;
+      quick = next;
+      publish();
+    },
+    open: (query) => callbacks.current.onOpen(query),
+    showShortcuts: () => callbacks.current.onShowShortcuts(),
+    subscribe(listener) {
+      listeners.add(listener);
+      return () => listeners.delete(listener);
+    },
+    snapshot: () => snapshot,
+  };
+}
+
 export function RegistryProvider({
   children,
   onOpen,
@@ -67,46 +126,10 @@ export function RegistryProvider({
   onOpen: (query?: string) => void;
   onShowShortcuts: () => void;
 }) {
-  const [sources, setSources] = useState<Record<string, PaletteCommand[]>>({});
-  const [quick, setQuick] = useState<{ source: string; insert: QuickInsert } | null>(null);
-  const openRef = useRef(onOpen);
-  const shortcutsRef = useRef(onShowShortcuts);
-  openRef.current = onOpen;
-  shortcutsRef.current = onShowShortcuts;
-
-  // Stable functions: effects that register depend on them.
-  const register = useCallback(
-    (source: string, commands: PaletteCommand[]) => setSources((s) => (s[source] === commands ? s : { ...s, [source]: commands })),
-    [],
-  );
-  const unregister = useCallback(
-    (source: string) =>
-      setSources((s) => {
-        if (!(source in s)) return s;
-        const next = { ...s };
-        delete next[source];
-        return next;
-      }),
-    [],
-  );
-  const setQuickInsert = useCallback(
-    (source: string, insert: QuickInsert | null) => setQuick((q) => (insert ? { source, insert } : q?.source === source ? null : q)),
-    [],
-  );
-  const open = useCallback((query?: string) => openRef.current(query), []);
-  const showShortcuts = useCallback(() => shortcutsRef.current(), []);
-
-  const value = useMemo<Registry>(
-    () => ({
-      commands: Object.values(sources).flat(),
-      register,
-      unregister,
-      quickInsert: quick?.insert ?? null,
-      setQuickInsert,
-      open,
-      showShortcuts,
-    }),
-    [sources, quick, register, unregister, setQuickInsert, open, showShortcuts],
-  );
-  return <RegistryContext.Provider value={value}>{children}</RegistryContext.Provider>;
+  const callbacks = useRef({ onOpen, onShowShortcuts });
+  useEffect(() => {
+    callbacks.current = { onOpen, onShowShortcuts };
+  }, [onOpen, onShowShortcuts]);
+  const [registry] = useState(() => createRegistry(callbacks));
+  return <RegistryContext.Provider value={registry}>{children}</RegistryContext.Provider>;
 }

@@ -7,7 +7,7 @@ import { useCallback, useEffect, useMemo, useRef, useState, type ReactNode } fro
 import { toggleTheme } from '@/lib/ui/theme';
 import { formatNumber } from '@/lib/sheet/format';
 import type { QuickAnswer, QuickRecord } from '@/lib/sheet/types';
-import { RegistryProvider, useCommandRegistry, type PaletteCommand } from './command-registry';
+import { RegistryProvider, useCommandRegistry, useRegistrySnapshot, type PaletteCommand } from './command-registry';
 import { FIXED_SHORTCUTS, isTypingTarget } from './shortcuts';
 
 const LOOKS_LIKE_EXPRESSION = /[0-9(]/;
@@ -99,7 +99,7 @@ function GlobalCommands() {
   return null;
 }
 
-const GROUP_ORDER = ['Sheet', 'Block', 'Add block', 'Go to', 'General'];
+const GROUP_ORDER = ['Sheet', 'Block', 'Review', 'Revisions', 'Add block', 'Go to', 'General'];
 
 function Palette({
   open,
@@ -112,7 +112,7 @@ function Palette({
   query: string;
   setQuery: (query: string) => void;
 }) {
-  const { commands, quickInsert } = useCommandRegistry();
+  const { commands, quickInsert } = useRegistrySnapshot();
   const queryClient = useQueryClient();
   const trimmed = query.trim();
   const debounced = useDebounced(trimmed, 250);
@@ -289,7 +289,7 @@ function defaultScore(value: string, search: string, keywords?: string[]): numbe
 }
 
 function ShortcutsSheet({ onClose }: { onClose: () => void }) {
-  const { commands } = useCommandRegistry();
+  const { commands } = useRegistrySnapshot();
   const closeRef = useRef<HTMLButtonElement>(null);
   useEffect(() => {
     const previous = document.activeElement as HTMLElement | null;

@@ -1,7 +1,7 @@
 'use client';
 
 import { useRouter } from 'next/navigation';
-import { useState } from 'react';
+import { useCallback, useState } from 'react';
 import { Button } from '@/components/ui/button';
 import { StatusTag, type SheetStatus } from '@/components/ui/status';
 
@@ -38,6 +38,51 @@ export function allowedReviewActions({ role, userId, review, isHead }: { role: R
 
 const LABELS: Record<ReviewAction, string> = { request: 'Ask for a check', check: 'Mark checked', return: 'Return for changes', approve: 'Approve' };
 
+/**
+ * Runs review actions on one revision: the server decides (independent checking is enforced there);
+ * a refusal (403, 409...) is kept as its message to show as it is.
+ */
+export function useReviewActions({ sheetId, revision, onChanged }: { sheetId: string; revision: number; onChanged?: () => void }) {
+  const router = useRouter();
+  const [pending, setPending] = useState<ReviewAction | null>(null);
+  const [error, setError] = useState<string | null>(null);
+  const act = useCallback(
+    async (action: ReviewAction, options: { reviewerId?: string; message?: string } = {}): Promise<boolean> => {
+      setPending(action);
+      setError(null);
+      try {
+        const response = await fetch(`/api/sheets/${sheetId}/review`, {
+          method: 'POST',
+          headers: { 'content-type': 'application/json' },
+          body: JSON.stringify({
+            action,
+            revision,
+            ...(action === 'request' ? { reviewerId: options.reviewerId } : {}),
+            ...(options.message?.trim() ? { message: options.message.trim() } : {}),
+          }),
+        });
+        if (!response.ok) {
+          const payload = (await response.json().catch(() => null)) as { error?: { message: string } } | null;
+          setError(payload?.error?.message ?? `That did not work (the server answered ${response.status}). Try again.`);
+          return false;
+        }
+      } catch {
+        setError('The server could not be reached. Try again.');
+        return false;
+      } finally {
+        setPending(null);
+      }
+      onChanged?.();
+      router.refresh();
+      return true;
+    },
+    [onChanged, revision, router, sheetId],
+  );
+  return { act, pending, error, setError };
+}
+
+export type ReviewController = ReturnType<typeof useReviewActions>;
+
 /** Prepared / checked / approved for one revision, with the actions the role allows. */
 export function ReviewBar({
   sheetId,
@@ -48,6 +93,7 @@ export function ReviewBar({
   userId,
   checkers,
   onChanged,
+  controller,
 }: {
   sheetId: string;
   revision: number;
@@ -58,32 +104,18 @@ export function ReviewBar({
   /** Members who may check (owners and reviewers). */
   checkers: Person[];
   onChanged?: () => void;
+  /** Shared with other entry points (the palette) so their errors show here; the bar makes its own otherwise. */
+  controller?: ReviewController;
 }) {
-  const router = useRouter();
-  const [pending, setPending] = useState<ReviewAction | null>(null);
-  const [error, setError] = useState<string | null>(null);
+  const own = useReviewActions({ sheetId, revision, onChanged });
+  const { act: run, pending, error } = controller ?? own;
   const [note, setNote] = useState('');
   const eligible = checkers.filter((p) => p.id !== review.preparedBy?.id);
   const [reviewerId, setReviewerId] = useState(eligible[0]?.id ?? '');
   const actions = allowedReviewActions({ role, userId, review, isHead });
 
   async function act(action: ReviewAction) {
-    setPending(action);
-    setError(null);
-    const response = await fetch(`/api/sheets/${sheetId}/review`, {
-      method: 'POST',
-      headers: { 'content-type': 'application/json' },
-      body: JSON.stringify({ action, revision, ...(action === 'request' ? { reviewerId } : {}), ...(note.trim() ? { message: note.trim() } : {}) }),
-    });
-    setPending(null);
-    if (!response.ok) {
-      const payload = (await response.json().catch(() => null)) as { error?: { message: string } } | null;
-      setError(payload?.error?.message ?? 'That did not work. Try again.');
-      return;
-    }
-    setNote('');
-    onChanged?.();
-    router.refresh();
+    if (await run(action, { reviewerId, message: note })) setNote('');
   }
 
   return (

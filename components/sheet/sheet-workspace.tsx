@@ -1,11 +1,15 @@
 'use client';
 
+import dynamic from 'next/dynamic';
 import { useRouter } from 'next/navigation';
-import { useCallback, useEffect, useMemo, useRef, useState } from 'react';
+import { useCallback, useEffect, useMemo, useRef, useState, type ChangeEvent } from 'react';
 import { BlockCard, type BlockCardActions } from '@/components/blocks/block-card';
+import { CommentsPanel, useSheetComments } from '@/components/comments/comments-panel';
+import { ReviewBar, allowedReviewActions, useReviewActions, type ReviewState } from '@/components/review/review-bar';
 import type { CompletionData } from '@/components/blocks/expression-language';
 import { useQuickInsert, useRegisterCommands, useCommandRegistry, type PaletteCommand } from '@/components/palette/command-registry';
 import { isTypingTarget } from '@/components/palette/shortcuts';
+import { roleAllows } from '@/lib/auth/permissions';
 import type { SheetStatus } from '@/components/ui/status';
 import {
   addParameter,
@@ -22,20 +26,40 @@ import {
   setInput,
   setNote,
 } from '@/lib/sheet/document-edits';
+import { withTitleSite } from '@/lib/sheet/title-site';
 import type { BlockCatalogData, BlockResult, CatalogType, SheetDocument } from '@/lib/sheet/types';
 import type { BlockState } from './block-status';
 import { HelpPanel } from './help-panel';
-import { SheetHeader } from './sheet-header';
+import { SheetHeader, type ForkItem, type ForkOrigin } from './sheet-header';
 import { SideRail, type RailPanel } from './side-rail';
+import { TitleSiteForm } from './title-site-form';
 import { useSheetDraft, type SaveState } from './use-sheet-draft';
+
+// The dialogs load when first opened, so their code stays out of the page's first download.
+const SaveRevisionDialog = dynamic(() => import('@/components/history/save-revision-dialog').then((m) => m.SaveRevisionDialog), { ssr: false });
+const ForkDialog = dynamic(() => import('@/components/history/fork-dialog').then((m) => m.ForkDialog), { ssr: false });
+
+type Role = 'owner' | 'editor' | 'reviewer' | 'viewer';
+type Person = { id: string; name: string; email: string };
 
 export interface SheetWorkspaceProps {
   sheetId: string;
+  /** The team the sheet belongs to (imports from this page go there). */
+  teamId: string;
   draft: { version: number; document: SheetDocument };
   head: { number: number; hash: string; status: SheetStatus } | null;
+  /** Sign-off of the head revision (null while the sheet has no revision). */
+  review: ReviewState | null;
+  forkedFrom: ForkOrigin | null;
+  forks: ForkItem[];
   catalog: BlockCatalogData;
   canEdit: boolean;
-  role: string;
+  role: Role;
+  user: { id: string; name: string };
+  /** Members who may check a revision (owners and reviewers). */
+  checkers: Person[];
+  /** Teams the user may fork into (editor or owner there); empty: no fork. */
+  forkTeams: { id: string; name: string }[];
   otherSheets: { id: string; title: string }[];
   /** Extra rail panels (comments, history...) added by later features. */
   extraPanels?: RailPanel[];
@@ -66,15 +90,46 @@ function SaveIndicator({ state, evaluating, evaluateError }: { state: SaveState;
   );
 }
 
-export function SheetWorkspace({ sheetId, draft: initial, head, catalog, canEdit, role, otherSheets, extraPanels = [] }: SheetWorkspaceProps) {
+const same = (a: unknown, b: unknown) => JSON.stringify(a) === JSON.stringify(b);
+
+export function SheetWorkspace({
+  sheetId,
+  teamId,
+  draft: initial,
+  head,
+  review,
+  forkedFrom,
+  forks,
+  catalog,
+  canEdit,
+  role,
+  user,
+  checkers,
+  forkTeams,
+  otherSheets,
+  extraPanels = [],
+}: SheetWorkspaceProps) {
   const router = useRouter();
   const { open: openPalette } = useCommandRegistry();
+  const canComment = roleAllows(role, 'comment');
+  const canFork = forkTeams.length > 0;
   const draft = useSheetDraft({ sheetId, initialVersion: initial.version, initialDocument: initial.document, canEdit });
   const { doc, apply } = draft;
   const docRef = useRef(doc);
   docRef.current = doc;
   const [selectedId, setSelectedId] = useState<string | null>(doc.blocks[0]?.id ?? null);
   const [renamingId, setRenamingId] = useState<string | null>(null);
+  const [captionId, setCaptionId] = useState<string | null>(null);
+  const [railTab, setRailTab] = useState('help');
+  const [editingTitle, setEditingTitle] = useState(false);
+  const [dialog, setDialog] = useState<'save' | 'fork' | null>(null);
+  const [transferError, setTransferError] = useState<string | null>(null);
+  const [savedHead, setSavedHead] = useState(0);
+  const importRef = useRef<HTMLInputElement>(null);
+  const headNumber = Math.max(head?.number ?? 0, savedHead);
+  const comments = useSheetComments(sheetId);
+  const reviewActions = useReviewActions({ sheetId, revision: head?.number ?? 0 });
+  const reviewAct = reviewActions.act;
   const selectedRef = useRef(selectedId);
   selectedRef.current = selectedId;
 
@@ -205,8 +260,69 @@ export function SheetWorkspace({ sheetId, draft: initial, head, catalog, canEdit
       },
       removeParameter: (id, key) => apply(removeParameter(docRef.current, id, key)),
       setRenaming: (id) => setRenamingId(id),
+      showComments: (id) => {
+        setSelectedId(id);
+        setRailTab('comments');
+      },
+      setCaptionEditing: (id) => {
+        setCaptionId(id);
+        if (id) setSelectedId(id);
+      },
     }),
     [apply, duplicate, move, remove, rename],
+  );
+
+  /* ------------------------------------------------- revisions, forks, transfer */
+  const onRevisionSaved = useCallback(
+    (saved: { number: number; hash: string }, savedDocument: unknown) => {
+      setSavedHead(saved.number);
+      // After a 409 the saved document is the user's edits re-applied on the newest revision: the draft follows it.
+      if (!same(savedDocument, docRef.current)) apply(savedDocument as SheetDocument);
+      draft.setNotice(`Saved revision r${saved.number} (${saved.hash.slice(0, 10)}). It starts unsigned: ask for a check in the sign-off bar.`);
+      router.refresh();
+    },
+    [apply, draft, router],
+  );
+
+  const exportHead = useCallback(() => {
+    const link = document.createElement('a');
+    link.href = `/api/sheets/${sheetId}/export`;
+    link.download = '';
+    document.body.appendChild(link);
+    link.click();
+    link.remove();
+  }, [sheetId]);
+
+  const importFile = useCallback(
+    async (event: ChangeEvent<HTMLInputElement>) => {
+      const file = event.target.files?.[0];
+      event.target.value = '';
+      if (!file) return;
+      setTransferError(null);
+      let parsed: unknown;
+      try {
+        parsed = JSON.parse(await file.text());
+      } catch {
+        setTransferError(`“${file.name}” is not a JSON file, so it cannot be imported.`);
+        return;
+      }
+      try {
+        const response = await fetch('/api/sheets/import', {
+          method: 'POST',
+          headers: { 'content-type': 'application/json' },
+          body: JSON.stringify({ document: parsed, teamId }),
+        });
+        const body = (await response.json().catch(() => null)) as { sheet?: { id: string }; error?: { message: string } } | null;
+        if (response.status === 201 && body?.sheet) {
+          router.push(`/sheets/${body.sheet.id}`);
+          return;
+        }
+        setTransferError(`“${file.name}” was not imported: ${body?.error?.message ?? `the server answered ${response.status}`}.`);
+      } catch {
+        setTransferError('The server could not be reached; nothing was imported. Try again.');
+      }
+    },
+    [router, teamId],
   );
 
   /* ----------------------------------------------------------------- completion */
@@ -262,6 +378,94 @@ export function SheetWorkspace({ sheetId, draft: initial, head, catalog, canEdit
         );
       }
     }
+    // Revisions, forks and files.
+    list.push({ id: 'history', title: 'Open the revision history', group: 'Revisions', keywords: ['revisions', 'log', 'versions'], run: () => router.push(`/sheets/${sheetId}/revisions`) });
+    if (canEdit) {
+      list.push({
+        id: 'save-revision',
+        title: `Save a revision (r${headNumber + 1})…`,
+        group: 'Revisions',
+        keywords: ['commit', 'record', 'issue', 'snapshot', 'version'],
+        shortcut: 'Ctrl+S',
+        run: () => setDialog('save'),
+      });
+    }
+    if (headNumber > 1) {
+      list.push({
+        id: 'compare',
+        title: `Compare r${headNumber - 1} with r${headNumber}`,
+        group: 'Revisions',
+        keywords: ['difference', 'changes', 'diff'],
+        run: () => router.push(`/sheets/${sheetId}/compare?from=${headNumber - 1}&to=${headNumber}`),
+      });
+    }
+    if (headNumber > 0 && forkedFrom?.visible && forkedFrom.revision) {
+      list.push({
+        id: 'compare-origin',
+        title: `Compare with its origin (${forkedFrom.title} r${forkedFrom.revision})`,
+        group: 'Revisions',
+        keywords: ['difference', 'changes', 'fork', 'source'],
+        run: () => router.push(`/sheets/${sheetId}/compare?from=${forkedFrom.sheetId}:${forkedFrom.revision}&to=${headNumber}`),
+      });
+    }
+    if (canFork) {
+      list.push({ id: 'fork', title: 'Fork this sheet for a new site…', group: 'Revisions', keywords: ['copy', 'branch', 'site', 'duplicate sheet'], run: () => setDialog('fork') });
+    }
+    if (headNumber > 0) {
+      list.push({ id: 'export', title: `Export r${headNumber} as a JSON file`, group: 'Revisions', keywords: ['download', 'save as', 'file', 'json'], run: exportHead });
+    }
+    if (canEdit) {
+      list.push({
+        id: 'import',
+        title: 'Import a sheet from a JSON file…',
+        group: 'Revisions',
+        keywords: ['upload', 'open file', 'load', 'json'],
+        run: () => importRef.current?.click(),
+      });
+      list.push({ id: 'edit-title-site', title: 'Edit the title and site', group: 'Sheet', keywords: ['rename sheet', 'location', 'latitude', 'longitude', 'site notes'], run: () => setEditingTitle(true) });
+    }
+    // Review of the head revision: only what this role may do now (the server checks again).
+    if (head && review) {
+      const allowed = allowedReviewActions({ role, userId: user.id, review, isHead: true });
+      if (allowed.includes('request')) {
+        for (const person of checkers.filter((p) => p.id !== review.preparedBy?.id)) {
+          list.push({
+            id: `review-request-${person.id}`,
+            title: `Ask ${person.name} to check r${head.number}`,
+            group: 'Review',
+            keywords: ['request review', 'checker', 'sign-off', person.email],
+            run: () => void reviewAct('request', { reviewerId: person.id }),
+          });
+        }
+      }
+      if (allowed.includes('check')) {
+        list.push({ id: 'review-check', title: `Mark r${head.number} checked`, group: 'Review', keywords: ['check', 'sign-off', 'review'], run: () => void reviewAct('check') });
+      }
+      if (allowed.includes('return')) {
+        list.push({ id: 'review-return', title: `Return r${head.number} for changes`, group: 'Review', keywords: ['reject', 'sign-off', 'review'], run: () => void reviewAct('return') });
+      }
+      if (allowed.includes('approve')) {
+        list.push({ id: 'review-approve', title: `Approve r${head.number}`, group: 'Review', keywords: ['approve', 'sign-off', 'review'], run: () => void reviewAct('approve') });
+      }
+    }
+    if (selectedBlock) {
+      list.push({
+        id: 'comments',
+        title: `Show comments on ${selectedBlock.name}`,
+        group: 'Block',
+        keywords: ['discussion', 'review', 'thread', 'reply'],
+        run: () => setRailTab('comments'),
+      });
+      if (canEdit && selectedBlock.type !== 'note') {
+        list.push({
+          id: 'caption',
+          title: `${selectedBlock.note ? 'Edit the caption of' : 'Add a caption to'} ${selectedBlock.name}`,
+          group: 'Block',
+          keywords: ['caption', 'note', 'description', 'markdown'],
+          run: () => setCaptionId(selectedBlock.id),
+        });
+      }
+    }
     for (const block of doc.blocks) {
       list.push({
         id: `jump-${block.id}`,
@@ -279,7 +483,34 @@ export function SheetWorkspace({ sheetId, draft: initial, head, catalog, canEdit
       list.push({ id: `sheet-${sheet.id}`, title: `Open sheet ${sheet.title}`, group: 'Go to', keywords: ['sheet'], run: () => router.push(`/sheets/${sheet.id}`) });
     }
     return list;
-  }, [addBlock, canEdit, catalog.types, doc.blocks, draft.evaluateNow, draft.redo, draft.undo, duplicate, focusBlock, move, otherSheets, remove, router, selectedBlock, types]);
+  }, [
+    addBlock,
+    canEdit,
+    canFork,
+    catalog.types,
+    checkers,
+    doc.blocks,
+    draft.evaluateNow,
+    draft.redo,
+    draft.undo,
+    duplicate,
+    exportHead,
+    focusBlock,
+    forkedFrom,
+    head,
+    headNumber,
+    move,
+    otherSheets,
+    remove,
+    review,
+    reviewAct,
+    role,
+    router,
+    selectedBlock,
+    sheetId,
+    types,
+    user.id,
+  ]);
   useRegisterCommands(commands);
 
   const formulaType = types.get('formula');
@@ -302,6 +533,11 @@ export function SheetWorkspace({ sheetId, draft: initial, head, catalog, canEdit
       if (mod && event.key === 'Enter') {
         event.preventDefault();
         draft.evaluateNow();
+        return;
+      }
+      if (mod && !event.altKey && !event.shiftKey && event.key.toLowerCase() === 's' && canEdit) {
+        event.preventDefault();
+        setDialog('save');
         return;
       }
       if (event.altKey && !mod && (event.key === 'ArrowUp' || event.key === 'ArrowDown') && canEdit && selectedRef.current) {
@@ -386,18 +622,54 @@ export function SheetWorkspace({ sheetId, draft: initial, head, catalog, canEdit
 
   /* --------------------------------------------------------------------- view */
   const selectedType = selectedBlock ? (types.get(selectedBlock.type) ?? null) : null;
+  const openCount = selectedBlock ? (comments.data?.openByBlock[selectedBlock.id] ?? 0) : 0;
   const panels: RailPanel[] = [
     { id: 'help', title: 'Help', render: () => <HelpPanel block={selectedBlock} type={selectedType} standingCaution={catalog.standingCaution} /> },
+    {
+      id: 'comments',
+      title: openCount ? `Comments (${openCount})` : 'Comments',
+      render: () =>
+        selectedBlock ? (
+          <CommentsPanel
+            key={selectedBlock.id}
+            sheetId={sheetId}
+            blockId={selectedBlock.id}
+            blockName={selectedBlock.name}
+            revision={head?.number ?? 0}
+            userId={user.id}
+            canComment={canComment}
+          />
+        ) : (
+          <p className="text-[13px] text-slate">Select a block to read and write its comments.</p>
+        ),
+    },
     ...extraPanels,
   ];
 
   return (
     <div className="flex flex-col gap-4">
       <SheetHeader
+        sheetId={sheetId}
         title={doc.title}
         site={doc.site}
         draftVersion={draft.version}
         head={head}
+        forkedFrom={forkedFrom}
+        forks={forks}
+        onEditTitle={canEdit && !editingTitle ? () => setEditingTitle(true) : undefined}
+        editor={
+          editingTitle && canEdit ? (
+            <TitleSiteForm
+              title={doc.title}
+              site={doc.site}
+              onCancel={() => setEditingTitle(false)}
+              onSave={(title, site) => {
+                apply(withTitleSite(docRef.current, title, site));
+                setEditingTitle(false);
+              }}
+            />
+          ) : null
+        }
         state={<SaveIndicator state={draft.saveState} evaluating={draft.evaluating} evaluateError={draft.evaluateError} />}
         actions={
           <>
@@ -405,8 +677,23 @@ export function SheetWorkspace({ sheetId, draft: initial, head, catalog, canEdit
               Evaluate now
             </button>
             {canEdit ? (
-              <button type="button" onClick={() => openPalette('Add ')} className="h-8 rounded-[3px] border border-river bg-river px-3 text-[13px] font-medium text-river-ink hover:opacity-90" title="A">
+              <button type="button" onClick={() => openPalette('Add ')} className="h-8 rounded-[3px] border border-rule bg-chalk px-3 text-[13px] hover:bg-wash" title="A">
                 Add block…
+              </button>
+            ) : null}
+            {canEdit ? (
+              <button
+                type="button"
+                onClick={() => setDialog('save')}
+                className="h-8 rounded-[3px] border border-river bg-river px-3 text-[13px] font-medium text-river-ink hover:opacity-90"
+                title="Ctrl+S"
+              >
+                Save revision…
+              </button>
+            ) : null}
+            {canFork ? (
+              <button type="button" onClick={() => setDialog('fork')} className="h-8 rounded-[3px] border border-rule bg-chalk px-3 text-[13px] hover:bg-wash">
+                Fork…
               </button>
             ) : null}
           </>
@@ -414,11 +701,40 @@ export function SheetWorkspace({ sheetId, draft: initial, head, catalog, canEdit
       >
         {!canEdit ? (
           <p className="text-[12px] text-slate">
-            You are a {role} in this team: fields are read-only. You can evaluate and read everything.
+            You are a {role} in this team: fields are read-only. You can evaluate{canComment ? ', comment' : ''} and read everything.
           </p>
         ) : null}
+        {head && review ? (
+          <ReviewBar
+            key={head.number}
+            sheetId={sheetId}
+            revision={head.number}
+            isHead
+            review={review}
+            role={role}
+            userId={user.id}
+            checkers={checkers}
+            controller={reviewActions}
+          />
+        ) : (
+          <p className="text-[12px] text-slate">
+            No revision yet: sign-off (prepared, checked, approved) starts when a revision is saved.
+          </p>
+        )}
       </SheetHeader>
 
+      {canEdit ? <input ref={importRef} type="file" accept=".json,application/json" hidden onChange={importFile} data-testid="import-file" /> : null}
+      {transferError ? (
+        <div role="alert" className="flex items-start justify-between gap-2 rounded-[4px] border border-oxide/60 bg-chalk px-3 py-2 text-[13px]" data-testid="import-error">
+          <span>
+            <span aria-hidden="true" className="text-oxide">✕ </span>
+            {transferError}
+          </span>
+          <button type="button" onClick={() => setTransferError(null)} className="text-[12px] text-slate hover:text-basalt">
+            Dismiss
+          </button>
+        </div>
+      ) : null}
       {draft.conflict ? (
         <div role="alert" className="rounded-[4px] border border-oxide/60 bg-chalk p-3 text-[13px]" data-testid="conflict-banner">
           <p className="font-semibold text-oxide">
@@ -465,7 +781,9 @@ export function SheetWorkspace({ sheetId, draft: initial, head, catalog, canEdit
               stale={draft.stale.has(block.id)}
               selected={block.id === selectedId}
               renaming={block.id === renamingId}
+              editingCaption={block.id === captionId}
               canEdit={canEdit}
+              commentsSheetId={sheetId}
               index={index}
               count={doc.blocks.length}
               units={catalog.units}
@@ -479,8 +797,22 @@ export function SheetWorkspace({ sheetId, draft: initial, head, catalog, canEdit
             {catalog.standingCaution}
           </p>
         </div>
-        <SideRail panels={panels} />
+        <SideRail panels={panels} active={railTab} onActiveChange={setRailTab} />
       </div>
+
+      {dialog === 'save' && canEdit ? (
+        <SaveRevisionDialog open onClose={() => setDialog(null)} sheetId={sheetId} baseRevision={headNumber} document={doc} onSaved={onRevisionSaved} />
+      ) : null}
+      {dialog === 'fork' && canFork ? (
+        <ForkDialog
+          open
+          onClose={() => setDialog(null)}
+          sheetId={sheetId}
+          sourceTitle={doc.title}
+          revision={head?.number}
+          teams={forkTeams}
+        />
+      ) : null}
     </div>
   );
 }

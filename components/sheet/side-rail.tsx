@@ -10,8 +10,24 @@ export interface RailPanel {
 }
 
 /** The side rail for the selected block: tabs over a list of panels; collapsible on narrow screens. */
-export function SideRail({ panels, label = 'Selected block' }: { panels: RailPanel[]; label?: string }) {
-  const [active, setActive] = useState(panels[0]?.id ?? '');
+export function SideRail({
+  panels,
+  label = 'Selected block',
+  active: controlled,
+  onActiveChange,
+}: {
+  panels: RailPanel[];
+  label?: string;
+  /** The open tab, when the page controls it (e.g. a palette command opens the comments). */
+  active?: string;
+  onActiveChange?: (id: string) => void;
+}) {
+  const [own, setOwn] = useState(panels[0]?.id ?? '');
+  const active = controlled ?? own;
+  const setActive = (id: string) => {
+    setOwn(id);
+    onActiveChange?.(id);
+  };
   const [openOnNarrow, setOpenOnNarrow] = useState(false);
   const base = useId();
   const current = panels.find((p) => p.id === active) ?? panels[0];
@@ -23,7 +39,7 @@ export function SideRail({ panels, label = 'Selected block' }: { panels: RailPan
     document.getElementById(`${base}-tab-${next.id}`)?.focus();
   };
   return (
-    <aside aria-label={label} className="lg:sticky lg:top-16 lg:max-h-[calc(100vh-5rem)] lg:overflow-y-auto">
+    <aside aria-label={label} data-side-rail="" className="lg:sticky lg:top-16 lg:max-h-[calc(100vh-5rem)] lg:overflow-y-auto">
       <button
         type="button"
         className="mb-2 h-8 w-full rounded-[3px] border border-rule bg-chalk px-3 text-left text-[13px] lg:hidden"

@@ -20,8 +20,9 @@ async function newEditorSheet(context: BrowserContext, title: string): Promise<s
 }
 
 function block(page: Page, name: string): Locator {
-  // :visible — while the page streams in, a hidden server-rendered copy may briefly sit beside it.
-  return page.locator(`section[data-block-name="${name}"]:visible`);
+  // Strict: the server's HTML is hydrated in place, so there is never a second (hidden) copy of a block
+  // (tests/e2e/single-render.test.ts checks it while the page streams in).
+  return page.locator(`section[data-block-name="${name}"]`);
 }
 
 /** Replaces the text of an expression field (CodeMirror) found by its label. */
@@ -234,7 +235,7 @@ describe('the sheet workspace in Chromium', () => {
     // The connection comes back: the retry saves it.
     await page.unroute('**/api/sheets/*/draft');
     await page.waitForFunction(() => document.querySelector('[data-testid="save-state"]')?.getAttribute('data-kind') === 'saved', null, { timeout: 30_000 });
-    expect(await page.locator('section[data-block-name="calc_1"]:visible').count()).toBe(1);
+    expect(await page.locator('section[data-block-name="calc_1"]').count()).toBe(1);
     const stored = await (await editor.request.get(`${appUrl()}/api/sheets/${offlineSheet}`)).json();
     expect(stored.draft.document.blocks[0].inputs.expr).toBe('42 m');
   });

@@ -1,9 +1,12 @@
 import type { Metadata } from 'next';
 import { notFound } from 'next/navigation';
+import { cache } from 'react';
 import { SheetWorkspace } from '@/components/sheet/sheet-workspace';
 import { requireSheetRole } from '@/lib/auth/guard';
 import { requirePageUser } from '@/lib/auth/page';
 import { roleAllows } from '@/lib/auth/permissions';
+import { listMembersByTeam } from '@/lib/db/members';
+import { getReviewSummary } from '@/lib/db/revisions';
 import { getSheetDetail, listSheetsByTeam } from '@/lib/db/sheets';
 import { AppError } from '@/lib/errors';
 import { clientCatalog } from '@/lib/sheet/catalog.server';
@@ -11,17 +14,18 @@ import type { SheetDocument } from '@/lib/sheet/types';
 
 type Params = { params: Promise<{ sheetId: string }> };
 
-async function loadSheet(sheetId: string) {
+// One load per request, shared by generateMetadata and the page.
+const loadSheet = cache(async (sheetId: string) => {
   const { user, teams } = await requirePageUser();
   try {
     const { sheet, role } = await requireSheetRole({ userId: user.id, sheetId, action: 'read' });
     const detail = await getSheetDetail({ sheetId, visibleTeamIds: teams.map((t) => t.id) });
-    return { user, sheet, role, detail };
+    return { user, teams, sheet, role, detail };
   } catch (error) {
     if (error instanceof AppError && (error.status === 404 || error.status === 403)) notFound();
     throw error;
   }
-}
+});
 
 export async function generateMetadata({ params }: Params): Promise<Metadata> {
   const { sheetId } = await params;
@@ -31,17 +35,33 @@ export async function generateMetadata({ params }: Params): Promise<Metadata> {
 
 export default async function SheetPage({ params }: Params) {
   const { sheetId } = await params;
-  const { sheet, role, detail } = await loadSheet(sheetId);
-  const others = await listSheetsByTeam({ teamId: sheet.teamId });
+  const { user, teams, sheet, role, detail } = await loadSheet(sheetId);
+  const [others, members, review] = await Promise.all([
+    listSheetsByTeam({ teamId: sheet.teamId }),
+    listMembersByTeam({ teamId: sheet.teamId }),
+    detail.head ? getReviewSummary({ sheetId, number: detail.head.number }) : Promise.resolve(null),
+  ]);
+  // Teams the user may fork into (editor or owner there), this sheet's team first.
+  const forkTeams = teams
+    .filter((t) => roleAllows(t.role, 'edit'))
+    .sort((a, b) => Number(b.id === sheet.teamId) - Number(a.id === sheet.teamId))
+    .map((t) => ({ id: t.id, name: t.name }));
   return (
     <SheetWorkspace
       key={sheetId}
       sheetId={sheetId}
+      teamId={sheet.teamId}
       draft={{ version: detail.draft.version, document: detail.draft.document as SheetDocument }}
       head={detail.head}
+      review={review}
+      forkedFrom={detail.forkedFrom ?? null}
+      forks={detail.forks}
       catalog={clientCatalog()}
       canEdit={roleAllows(role, 'edit')}
       role={role}
+      user={{ id: user.id, name: user.name }}
+      checkers={members.items.filter((m) => roleAllows(m.role, 'check')).map((m) => m.user)}
+      forkTeams={forkTeams}
       otherSheets={others.items.filter((s) => s.id !== sheetId).map((s) => ({ id: s.id, title: s.title }))}
     />
   );
