@@ -10,6 +10,11 @@ mkdir -p .denudata
 case "${1:-start}" in
   start)
     if [ -f "$PID_FILE" ] && kill -0 "$(cat "$PID_FILE")" 2>/dev/null; then exit 0; fi
+    # A fake left behind for this port by an earlier checkout (its pid file gone with it) is stopped first.
+    for pid in $(pgrep -f "scripts/mail-fake.mts" || true); do
+      port_of_pid=$(tr '\0' '\n' < "/proc/$pid/environ" 2>/dev/null | sed -n 's/^DENUDATA_SMTP_PORT=//p')
+      if [ "${port_of_pid:-2525}" = "$PORT" ]; then kill "$pid" 2>/dev/null || true; sleep 0.3; fi
+    done
     nohup node_modules/.bin/tsx scripts/mail-fake.mts > ".denudata/mail-fake-$PORT.log" 2>&1 &
     echo $! > "$PID_FILE"
     for _ in $(seq 1 50); do

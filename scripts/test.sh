@@ -19,6 +19,9 @@ export NEXTAUTH_SECRET="$(node -e "console.log(require('node:crypto').randomByte
 export DENUDATA_APP_URL="$NEXTAUTH_URL"
 unset DATABASE_URL
 
+# The SMTP fake of this run is stopped when the run ends, however it ends.
+trap 'bash scripts/mail.sh stop >/dev/null 2>&1 || true' EXIT
+
 bash scripts/setup.sh --test || { echo "test: set-up failed"; echo "0 passed, 1 failed"; exit 1; }
 mkdir -p .denudata
 rm -rf "$DENUDATA_MAIL_DIR" && mkdir -p "$DENUDATA_MAIL_DIR"

@@ -36,9 +36,11 @@ async function typeExpression(page: Page, scope: Locator, label: string | RegExp
   await page.keyboard.press('Escape');
 }
 
+/** The number an output shows, once it shows one (a block between edits and results shows a dash). */
 async function outputValue(scope: Locator, output: string): Promise<number> {
   const cell = scope.locator(`tr[data-output="${output}"] [data-testid="output-value"]`);
   await cell.waitFor();
+  await expect.poll(async () => Number.isFinite(Number.parseFloat((await cell.textContent()) ?? '')), { timeout: 30_000 }).toBe(true);
   return Number.parseFloat((await cell.textContent()) ?? 'NaN');
 }
 
