@@ -8,6 +8,8 @@
 # DENUDATA_TEST_DIST_DIR to values of their own. Extra arguments go to both vitest runs as filters.
 set -uo pipefail
 cd "$(dirname "$0")/.."
+# Next.js telemetry would try to reach the network, which this product never needs.
+export NEXT_TELEMETRY_DISABLED=1
 
 export DENUDATA_TEST_PORT="${DENUDATA_TEST_PORT:-3100}"
 export DENUDATA_SMTP_PORT="${DENUDATA_TEST_SMTP_PORT:-2526}"
