@@ -12,7 +12,7 @@ export type ActivityItem = {
   createdAt: string;
 };
 
-/** The team's audit log, newest first. */
+/** The team's audit log, newest first, without the draft saves (one every few seconds while someone types). */
 export async function listActivityByTeam({ teamId, limit = 50 }: { teamId: string; limit?: number }): Promise<ActivityItem[]> {
   const rows = await db().query<{
     id: string;
@@ -28,7 +28,7 @@ export async function listActivityByTeam({ teamId, limit = 50 }: { teamId: strin
     `SELECT a.id, a.action, a.subject_type, a.subject_id, a.details, a.created_at,
             u.id AS actor_id, u.name AS actor_name, u.email AS actor_email
        FROM audit_log a LEFT JOIN users u ON u.id = a.actor_id
-      WHERE a.team_id = :teamId
+      WHERE a.team_id = :teamId AND a.action <> 'draft.saved'
       ORDER BY a.created_at DESC, a.id DESC
       LIMIT :limit`,
     { type: QueryTypes.SELECT, replacements: { teamId, limit } },

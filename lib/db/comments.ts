@@ -3,6 +3,7 @@ import { Op } from 'sequelize';
 import { badRequest, forbidden, notFound } from '@/lib/errors';
 import { AuditEntry, Comment, Membership, Sheet, SheetRevision, User } from '@/models';
 import { recordAudit } from './audit';
+import { isUuid } from './ids';
 import { db } from './index';
 import { toPublicUser, type PublicUser } from './users';
 
@@ -271,7 +272,7 @@ export async function createComment({
 /** The sheet a comment belongs to (for the route's role check); 404 when unknown. */
 export async function findCommentSheetId({ commentId }: { commentId: string }): Promise<string> {
   db();
-  if (!/^[0-9a-f-]{36}$/i.test(commentId)) throw notFound('Comment');
+  if (!isUuid(commentId)) throw notFound('Comment');
   const comment = await Comment.findByPk(commentId, { attributes: ['id', 'sheetId'] });
   if (!comment) throw notFound('Comment');
   return comment.sheetId;
@@ -294,14 +295,20 @@ export async function updateComment({
     const comment = await Comment.findByPk(commentId, { transaction, lock: transaction.LOCK.UPDATE });
     if (!comment) throw notFound('Comment');
     const sheet = await Sheet.findByPk(comment.sheetId, { transaction, attributes: ['id', 'teamId', 'title'] });
+    let changed = false;
     if (body !== undefined) {
       if (comment.authorId !== userId) throw forbidden('Only the author of a comment can edit it.');
-      await comment.update({ body }, { transaction });
+      if (body !== comment.body) {
+        await comment.update({ body }, { transaction });
+        changed = true;
+      }
     }
     if (resolved !== undefined && resolved !== (comment.resolvedAt !== null)) {
       await comment.update(resolved ? { resolvedAt: new Date(), resolvedBy: userId } : { resolvedAt: null, resolvedBy: null }, { transaction });
+      changed = true;
     }
-    await recordAudit(
+    // Only a real change is audited (and a same-text "edit" does not mark the comment edited).
+    if (changed) await recordAudit(
       {
         teamId: sheet?.teamId ?? null,
         actorId: userId,

@@ -43,9 +43,12 @@ export async function listPendingInvitationsByTeam({ teamId }: { teamId: string 
   }));
 }
 
-/** Locks the team's membership rows and counts its owners (so two demotions cannot race past the last owner). */
+/**
+ * Locks the team's membership rows and counts its owners (so two demotions cannot race past the last owner).
+ * The rows are locked in id order, so concurrent changes in one team queue up instead of deadlocking.
+ */
 async function lockedOwnerCount(teamId: string, transaction: import('sequelize').Transaction): Promise<number> {
-  const rows = await Membership.findAll({ where: { teamId }, transaction, lock: transaction.LOCK.UPDATE });
+  const rows = await Membership.findAll({ where: { teamId }, order: [['id', 'ASC']], transaction, lock: transaction.LOCK.UPDATE });
   return rows.filter((r) => r.role === 'owner').length;
 }
 

@@ -3,6 +3,7 @@ import { Op, QueryTypes } from 'sequelize';
 import { conflict, notFound } from '@/lib/errors';
 import { Sheet, SheetRevision, User, type ReviewStatus } from '@/models';
 import { recordAudit } from './audit';
+import { isUuid } from './ids';
 import { db } from './index';
 import { toPublicUser, type PublicUser } from './users';
 
@@ -142,7 +143,7 @@ export async function listSheetsByTeam({
 
 export async function findSheetRecord({ sheetId }: { sheetId: string }): Promise<SheetRecord | null> {
   db();
-  if (!/^[0-9a-f-]{36}$/i.test(sheetId)) return null;
+  if (!isUuid(sheetId)) return null;
   const sheet = await Sheet.findByPk(sheetId);
   return sheet ? toSheetRecord(sheet) : null;
 }
@@ -240,6 +241,9 @@ export async function getSheetDetail({
   };
 }
 
+/** The audit action of a draft save. */
+export const DRAFT_SAVED = 'draft.saved';
+
 /**
  * Saves the working draft if nobody saved since `baseVersion`; otherwise 409 with the current version
  * and nothing written. The sheet's title and site follow the document's.
@@ -274,6 +278,19 @@ export async function saveDraft({
         current: { version: current.draftVersion },
       });
     }
+    // Every save is in the audit log; the team's activity feed leaves these out (they come every few seconds).
+    const saved = await Sheet.findByPk(sheetId, { attributes: ['id', 'teamId'], transaction });
+    await recordAudit(
+      {
+        teamId: saved!.teamId,
+        actorId: userId,
+        action: DRAFT_SAVED,
+        subjectType: 'sheet',
+        subjectId: sheetId,
+        details: { version: baseVersion + 1, title: document.title },
+      },
+      transaction,
+    );
     return { version: baseVersion + 1 };
   });
 }

@@ -46,5 +46,10 @@ export async function createTeam({ userId, name }: { userId: string; name: strin
 export async function setCurrentTeam({ userId, teamId }: { userId: string; teamId: string }): Promise<void> {
   const role = await getMembershipRole({ userId, teamId });
   if (!role) throw notFound('Team');
-  await User.update({ currentTeamId: teamId }, { where: { id: userId } });
+  const sequelize = db();
+  await sequelize.transaction(async (transaction) => {
+    await User.update({ currentTeamId: teamId }, { where: { id: userId }, transaction });
+    // A choice of the person, not of the team: kept out of the team's activity (no team id).
+    await recordAudit({ teamId: null, actorId: userId, action: 'user.current_team_set', subjectType: 'team', subjectId: teamId }, transaction);
+  });
 }

@@ -15,6 +15,16 @@ export const toPublicUser = (user: User): PublicUser => ({ id: user.id, name: us
 
 export const normaliseEmail = (email: string) => email.trim().toLowerCase();
 
+const TEAM_NAME_MAX = 120;
+
+/** "{name}’s team", shortened so it fits a team name (120 characters, counted as PostgreSQL does). */
+export function ownTeamName(name: string): string {
+  const suffix = '’s team';
+  const chars = Array.from(name.trim());
+  const room = TEAM_NAME_MAX - Array.from(suffix).length;
+  return `${chars.length > room ? chars.slice(0, room).join('').trimEnd() : chars.join('')}${suffix}`;
+}
+
 export async function hashPassword(password: string): Promise<string> {
   return bcrypt.hash(password, BCRYPT_COST);
 }
@@ -36,7 +46,7 @@ export async function createUserWithTeam({
     return await sequelize.transaction(async (transaction) => {
       const taken = await User.findOne({ where: { email: address }, transaction });
       if (taken) throw conflict('An account with that e-mail address already exists.');
-      const team = await Team.create({ name: `${name.trim()}’s team` }, { transaction });
+      const team = await Team.create({ name: ownTeamName(name) }, { transaction });
       const user = await User.create(
         { email: address, name: name.trim(), passwordHash, currentTeamId: team.id },
         { transaction },

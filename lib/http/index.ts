@@ -26,12 +26,35 @@ export function parseWith<T>(schema: ZodType<T>, input: unknown): T {
   return parsed.data;
 }
 
+const tooLarge = () => new AppError('too_large', `The request body is larger than ${MAX_BODY_BYTES / 1_000_000} MB.`);
+
+/**
+ * The body as text, at most MAX_BODY_BYTES: 413 as soon as the declared length or the bytes read so far
+ * pass the limit, so an oversized body is never buffered whole.
+ */
+export async function readBodyText(request: Request): Promise<string> {
+  const declared = Number(request.headers.get('content-length') ?? '');
+  if (Number.isFinite(declared) && declared > MAX_BODY_BYTES) throw tooLarge();
+  if (!request.body) return '';
+  const reader = request.body.getReader();
+  const chunks: Uint8Array[] = [];
+  let size = 0;
+  for (;;) {
+    const { done, value } = await reader.read();
+    if (done) break;
+    size += value.byteLength;
+    if (size > MAX_BODY_BYTES) {
+      await reader.cancel().catch(() => undefined);
+      throw tooLarge();
+    }
+    chunks.push(value);
+  }
+  return new TextDecoder().decode(Buffer.concat(chunks));
+}
+
 /** Reads a JSON body (at most MAX_BODY_BYTES) and parses it with the schema: 400 or 413 otherwise. */
 export async function readJson<T>(request: Request, schema: ZodType<T>): Promise<T> {
-  const text = await request.text();
-  if (Buffer.byteLength(text) > MAX_BODY_BYTES) {
-    throw new AppError('too_large', `The request body is larger than ${MAX_BODY_BYTES / 1_000_000} MB.`);
-  }
+  const text = await readBodyText(request);
   let body: unknown;
   try {
     body = text.length ? JSON.parse(text) : undefined;

@@ -1,6 +1,8 @@
 /**
  * A same-site path to return to after signing in. A full URL (next-auth's callbackUrl) keeps only its
- * path; anything odd falls back to the sheets index.
+ * path; anything odd falls back to the sheets index. Browsers read "/\host" and paths with tabs or
+ * line breaks ("/\t/host") as "//host", another site, so backslashes and control characters are refused,
+ * and the result must resolve to this site.
  */
 export function safeNextPath(value: string | string[] | undefined): string {
   let path = Array.isArray(value) ? value[0] : value;
@@ -13,5 +15,12 @@ export function safeNextPath(value: string | string[] | undefined): string {
     }
   }
   if (!path || !path.startsWith('/') || path.startsWith('//') || path.startsWith('/api') || path === '/sign-in') return '/sheets';
+  if (/[\\\u0000-\u001f\u007f\s]/.test(path)) return '/sheets';
+  const base = 'http://denudata.invalid';
+  try {
+    if (new URL(path, base).origin !== base) return '/sheets';
+  } catch {
+    return '/sheets';
+  }
   return path;
 }

@@ -2,7 +2,7 @@ import { z } from 'zod';
 
 const side = z
   .string({ message: 'write it as {sheetId}:{revision}' })
-  .regex(/^[0-9a-f-]{36}:[1-9][0-9]{0,8}$/i, 'write it as {sheetId}:{revision}, e.g. 0d3a…:2')
+  .regex(/^[0-9a-f]{8}-[0-9a-f]{4}-[0-9a-f]{4}-[0-9a-f]{4}-[0-9a-f]{12}:[1-9][0-9]{0,8}$/i, 'write it as {sheetId}:{revision}, e.g. 0d3a…:2')
   .transform((value) => {
     const [sheetId, n] = value.split(':');
     return { sheetId: sheetId.toLowerCase(), number: Number(n) };

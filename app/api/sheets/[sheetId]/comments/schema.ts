@@ -1,4 +1,5 @@
 import { z } from 'zod';
+import { MAX_INT4 } from '@/lib/http/limits';
 
 export const blockIdSchema = z.string().min(1, 'name the block').max(64, 'a block id has at most 64 characters');
 
@@ -8,7 +9,7 @@ export const commentBodySchema = z.string().trim().min(1, 'write something').max
 
 export const createCommentSchema = z.strictObject({
   blockId: blockIdSchema,
-  revision: z.number({ message: 'must be a revision number' }).int('must be a whole number').min(0, 'must be 0 or more'),
+  revision: z.number({ message: 'must be a revision number' }).int('must be a whole number').min(0, 'must be 0 or more').max(MAX_INT4, 'is not a revision number'),
   body: commentBodySchema,
   parentId: z.string().uuid('must be a comment id').optional(),
 });

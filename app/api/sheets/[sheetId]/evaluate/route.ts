@@ -1,6 +1,6 @@
 import { requireSheetRole, requireUser } from '@/lib/auth/guard';
 import { getSheetDraft } from '@/lib/db/sheets';
-import { json, parseWith, route } from '@/lib/http';
+import { json, parseWith, readBodyText, route } from '@/lib/http';
 import { badRequest } from '@/lib/errors';
 import { evaluateDraft, requireValidDocument } from '@/lib/sheet/evaluation.server';
 import { evaluateDraftSchema } from './schema';
@@ -12,7 +12,7 @@ export const POST = route(async (request, { params }: Context) => {
   const user = await requireUser();
   const { sheetId } = await params;
   await requireSheetRole({ userId: user.id, sheetId, action: 'read' });
-  const text = await request.text();
+  const text = await readBodyText(request);
   if (text.trim()) {
     let body: unknown;
     try {

@@ -1,8 +1,9 @@
 import { z } from 'zod';
+import { MAX_INT4 } from '@/lib/http/limits';
 
 export const reviewSchema = z.strictObject({
   action: z.enum(['request', 'check', 'return', 'approve'], { message: 'choose request, check, return or approve' }),
-  revision: z.number({ message: 'must be a revision number' }).int('must be a whole number').min(1, 'revisions are numbered from 1'),
+  revision: z.number({ message: 'must be a revision number' }).int('must be a whole number').min(1, 'revisions are numbered from 1').max(MAX_INT4, 'is not a revision number'),
   reviewerId: z.string().uuid('must be a member id').optional(),
   message: z.string().trim().max(2000, 'use at most 2000 characters').optional(),
 });

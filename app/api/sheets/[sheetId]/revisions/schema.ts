@@ -1,13 +1,15 @@
 import { z } from 'zod';
+import { MAX_INT4 } from '@/lib/http/limits';
 
 // The document itself is checked by the engine's strict schema after this envelope.
 export const saveRevisionSchema = z.strictObject({
-  baseRevision: z.number({ message: 'must be a number' }).int('must be a whole number').min(0, 'must be 0 or more'),
+  baseRevision: z.number({ message: 'must be a number' }).int('must be a whole number').min(0, 'must be 0 or more').max(MAX_INT4, 'is not a revision number'),
   document: z.unknown(),
   message: z.string().trim().max(2000, 'use at most 2000 characters').default(''),
 });
 
-export const revisionNumberSchema = z.coerce
-  .number({ message: 'must be a revision number' })
-  .int('must be a whole number')
-  .min(1, 'revisions are numbered from 1');
+// A path or query value: digits only (no "0x10", "1e2", " 1" or "-1"), within PostgreSQL's integer range.
+export const revisionNumberSchema = z
+  .string({ message: 'must be a revision number' })
+  .regex(/^[1-9][0-9]{0,8}$/, 'must be a revision number (1, 2, 3, …)')
+  .transform(Number);
