@@ -29,6 +29,7 @@ export class User extends Model<InferAttributes<User>, InferCreationAttributes<U
   declare name: string;
   declare passwordHash: string;
   declare currentTeamId: ForeignKey<Team['id']> | null;
+  declare passwordChangedAt: CreationOptional<Date | null>;
   declare createdAt: CreationOptional<Date>;
   declare updatedAt: CreationOptional<Date>;
 }
@@ -197,6 +198,7 @@ export function initModels(sequelize: Sequelize): void {
       name: { type: DataTypes.TEXT, allowNull: false },
       passwordHash: { type: DataTypes.TEXT, allowNull: false },
       currentTeamId: { type: DataTypes.UUID, allowNull: true },
+      passwordChangedAt: { type: DataTypes.DATE, allowNull: true },
       createdAt: created,
       updatedAt: created,
     },

@@ -1,19 +1,22 @@
 import 'server-only';
 import { getServerSession } from 'next-auth';
 import { forbidden, notFound, unauthenticated } from '@/lib/errors';
-import { getUserById, type PublicUser } from '@/lib/db/users';
+import { getSessionUser, type PublicUser } from '@/lib/db/users';
 import { getMembershipRole } from '@/lib/db/teams';
 import { findSheetRecord, type SheetRecord } from '@/lib/db/sheets';
 import type { TeamRole } from '@/models';
 import { authOptions } from './options';
 import { roleAllows, type TeamAction } from './permissions';
 
-/** The signed-in user, or a 401. The user is re-read so a deleted account loses access at once. */
+/**
+ * The signed-in user, or a 401. The user is re-read so a deleted account, or a session older than the
+ * account's last password change, loses access at once.
+ */
 export async function requireUser(): Promise<PublicUser> {
   const session = await getServerSession(authOptions);
   const id = session?.user?.id;
   if (!id) throw unauthenticated();
-  const user = await getUserById({ id });
+  const user = await getSessionUser({ id, signedInAt: session.signedInAt });
   if (!user) throw unauthenticated();
   return user;
 }

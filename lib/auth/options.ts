@@ -26,11 +26,16 @@ export const authOptions: NextAuthOptions = {
   ],
   callbacks: {
     async jwt({ token, user }) {
-      if (user) token.userId = user.id;
+      if (user) {
+        token.userId = user.id;
+        // Kept across token renewals (unlike iat), so a later password change can end this session.
+        token.signedInAt = Date.now();
+      }
       return token;
     },
     async session({ session, token }) {
       if (session.user && typeof token.userId === 'string') session.user.id = token.userId;
+      if (typeof token.signedInAt === 'number') session.signedInAt = token.signedInAt;
       return session;
     },
   },

@@ -44,7 +44,7 @@ export async function completePasswordReset({ token, password }: { token: string
       throw badRequest('This link to set a new password has been used or has expired. Ask for a new one.');
     }
     const userId = claimed[0].user_id;
-    await User.update({ passwordHash }, { where: { id: userId }, transaction });
+    await User.update({ passwordHash, passwordChangedAt: new Date() }, { where: { id: userId }, transaction });
     await sequelize.query('UPDATE password_resets SET used_at = now() WHERE user_id = :userId AND used_at IS NULL', {
       replacements: { userId },
       transaction,

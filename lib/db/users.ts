@@ -82,6 +82,18 @@ export async function getUserById({ id }: { id: string }): Promise<PublicUser | 
   return user ? toPublicUser(user) : null;
 }
 
+/**
+ * The user behind a session, or null when the account is gone or its password changed after the session
+ * began (a password reset signs out every other session).
+ */
+export async function getSessionUser({ id, signedInAt }: { id: string; signedInAt?: number }): Promise<PublicUser | null> {
+  db();
+  const user = await User.findByPk(id);
+  if (!user) return null;
+  if (user.passwordChangedAt && (signedInAt === undefined || signedInAt < user.passwordChangedAt.getTime())) return null;
+  return toPublicUser(user);
+}
+
 export async function getUserByEmail({ email }: { email: string }): Promise<PublicUser | null> {
   db();
   const user = await User.findOne({ where: { email: normaliseEmail(email) } });
@@ -90,5 +102,5 @@ export async function getUserByEmail({ email }: { email: string }): Promise<Publ
 
 export async function setUserPassword({ userId, password }: { userId: string; password: string }): Promise<void> {
   db();
-  await User.update({ passwordHash: await hashPassword(password) }, { where: { id: userId } });
+  await User.update({ passwordHash: await hashPassword(password), passwordChangedAt: new Date() }, { where: { id: userId } });
 }

@@ -218,3 +218,18 @@ describe('audit entries match what changed', () => {
     expect(await auditCount('comment.edited', comment.id)).toBe(1);
   });
 });
+
+describe('getSessionUser', () => {
+  it('should accept a session begun after the last password change and refuse one begun before it', async () => {
+    const { createUserWithTeam, getSessionUser, setUserPassword } = await import('@/lib/db/users');
+    const { user } = await createUserWithTeam({ email: `session-${Date.now()}@example.test`, password: 'long-enough-password', name: 'Session' });
+    const signedInAt = Date.now();
+    expect(await getSessionUser({ id: user.id, signedInAt })).toMatchObject({ id: user.id });
+    expect(await getSessionUser({ id: user.id })).toMatchObject({ id: user.id });
+    await new Promise((resolve) => setTimeout(resolve, 5));
+    await setUserPassword({ userId: user.id, password: 'another-long-password' });
+    expect(await getSessionUser({ id: user.id, signedInAt })).toBeNull();
+    expect(await getSessionUser({ id: user.id })).toBeNull();
+    expect(await getSessionUser({ id: user.id, signedInAt: Date.now() + 1 })).toMatchObject({ id: user.id });
+  });
+});
