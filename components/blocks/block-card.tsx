@@ -106,6 +106,7 @@ function BlockCardInner(props: BlockCardProps) {
       data-block-id={block.id}
       data-block-name={block.name}
       data-state={state ?? 'note'}
+      data-selected={selected ? 'true' : undefined}
       tabIndex={-1}
       onFocusCapture={() => !selected && actions.select(block.id)}
       onMouseDown={() => !selected && actions.select(block.id)}

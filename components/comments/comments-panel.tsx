@@ -30,9 +30,20 @@ async function call(url: string, method: string, body?: unknown) {
   return payload;
 }
 
-/** Every comment of a sheet (one query shared by the panel and the per-block counts). */
-export function useSheetComments(sheetId: string) {
-  return useQuery<Listing>({ queryKey: commentsKey(sheetId), queryFn: () => call(`/api/sheets/${sheetId}/comments`, 'GET') });
+/** How often the sheet page asks for other people's comments while the tab is visible. */
+export const COMMENTS_REFRESH_MS = 20_000;
+
+/**
+ * Every comment of a sheet (one query shared by the panel and the per-block counts). The one observer
+ * with `poll` (the sheet page) refreshes it every 20 s while the tab is visible and when the window
+ * regains focus, so counts follow other people's comments; the cards only read the shared data.
+ */
+export function useSheetComments(sheetId: string, { poll = false }: { poll?: boolean } = {}) {
+  return useQuery<Listing>({
+    queryKey: commentsKey(sheetId),
+    queryFn: () => call(`/api/sheets/${sheetId}/comments`, 'GET'),
+    ...(poll ? { refetchInterval: COMMENTS_REFRESH_MS, refetchIntervalInBackground: false, refetchOnWindowFocus: true, staleTime: 5_000 } : {}),
+  });
 }
 
 /** The number of open threads on a block, for the badge on its card; a button when `onOpen` is given. */
@@ -68,7 +79,21 @@ function when(iso: string) {
   return iso.slice(0, 16).replace('T', ' ');
 }
 
-function CommentBody({ comment, userId, canComment, onEdit }: { comment: Comment; userId: string; canComment: boolean; onEdit: (id: string, body: string) => Promise<void> }) {
+function CommentBody({
+  comment,
+  userId,
+  canComment,
+  onEdit,
+  revision,
+}: {
+  comment: Comment;
+  userId: string;
+  canComment: boolean;
+  onEdit: (id: string, body: string) => Promise<void>;
+  /** The sheet's newest revision: a comment made on an older one says so. */
+  revision: number;
+}) {
+  const earlier = comment.revision > 0 && comment.revision < revision;
   const [editing, setEditing] = useState(false);
   const [text, setText] = useState(comment.body);
   return (
@@ -76,7 +101,13 @@ function CommentBody({ comment, userId, canComment, onEdit }: { comment: Comment
       <div className="flex flex-wrap items-baseline gap-2 text-[12px] text-slate">
         <span className="font-medium text-basalt">{comment.author?.name ?? 'Former member'}</span>
         <time dateTime={comment.createdAt} className="num">{when(comment.createdAt)}</time>
-        <span className="num">r{comment.revision}</span>
+        {earlier ? (
+          <span className="font-medium text-basalt" data-earlier-revision={comment.revision} title={`Made on r${comment.revision}, before r${revision}`}>
+            <span aria-hidden="true">↶ </span>on earlier revision <span className="num">r{comment.revision}</span>
+          </span>
+        ) : (
+          <span className="num">r{comment.revision}</span>
+        )}
         {comment.edited ? <span>(edited)</span> : null}
         {comment.outdated ? (
           <span className="text-clay" title="The block has changed since this comment was made">
@@ -163,12 +194,12 @@ export function CommentsPanel({
 
   const renderThread = (thread: Thread) => (
     <li key={thread.id} className={`flex flex-col gap-2 rounded-[4px] border border-rule p-2 ${thread.resolved ? 'opacity-70' : ''}`} data-thread={thread.id}>
-      <CommentBody comment={thread} userId={userId} canComment={canComment} onEdit={edit} />
+      <CommentBody comment={thread} userId={userId} canComment={canComment} onEdit={edit} revision={revision} />
       {thread.replies.length ? (
         <ul className="flex flex-col gap-2 border-l-2 border-rule pl-3">
           {thread.replies.map((r) => (
             <li key={r.id}>
-              <CommentBody comment={r} userId={userId} canComment={canComment} onEdit={edit} />
+              <CommentBody comment={r} userId={userId} canComment={canComment} onEdit={edit} revision={revision} />
             </li>
           ))}
         </ul>

@@ -6,6 +6,8 @@ export const FIXED_SHORTCUTS: { keys: string; action: string; group: string }[] 
   { keys: 'J or ↓', action: 'Select the next block (outside a field)', group: 'Sheet' },
   { keys: 'K or ↑', action: 'Select the previous block (outside a field)', group: 'Sheet' },
   { keys: 'Enter', action: 'Edit the first field of the selected block', group: 'Sheet' },
+  { keys: 'A', action: 'Add a block (opens the palette on “Add”)', group: 'Sheet' },
+  { keys: 'Alt+↑ / Alt+↓', action: 'Move the selected block up or down (also on its ⠿ handle: ↑ / ↓)', group: 'Sheet' },
   { keys: 'Ctrl+Space', action: 'Complete a name, unit, function or block.output in a field', group: 'Fields' },
   { keys: 'Tab', action: 'Next field; Shift+Tab the previous one', group: 'Fields' },
 ];

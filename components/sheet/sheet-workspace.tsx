@@ -127,7 +127,7 @@ export function SheetWorkspace({
   const [savedHead, setSavedHead] = useState(0);
   const importRef = useRef<HTMLInputElement>(null);
   const headNumber = Math.max(head?.number ?? 0, savedHead);
-  const comments = useSheetComments(sheetId);
+  const comments = useSheetComments(sheetId, { poll: true });
   const reviewActions = useReviewActions({ sheetId, revision: head?.number ?? 0 });
   const reviewAct = reviewActions.act;
   const selectedRef = useRef(selectedId);
@@ -454,6 +454,7 @@ export function SheetWorkspace({
         title: `Show comments on ${selectedBlock.name}`,
         group: 'Block',
         keywords: ['discussion', 'review', 'thread', 'reply'],
+        shortcut: 'C',
         run: () => setRailTab('comments'),
       });
       if (canEdit && selectedBlock.type !== 'note') {
@@ -606,6 +607,12 @@ export function SheetWorkspace({
           if (canEdit) {
             event.preventDefault();
             addBlock({ id: 'note' });
+          }
+          break;
+        case 'c':
+          if (selectedRef.current) {
+            event.preventDefault();
+            setRailTab('comments');
           }
           break;
         case 'a':
