@@ -1,7 +1,8 @@
 import 'server-only';
 import { UniqueConstraintError, type Transaction } from 'sequelize';
-import { AppError, badRequest, conflict, notFound } from '@/lib/errors';
-import { EngineError, hashSheetDocument, parseSheetDocument, type SheetDocument, type SheetResults } from '@/lib/engine';
+import { AppError, conflict, notFound } from '@/lib/errors';
+import { EngineError, hashSheetDocument, type SheetDocument, type SheetResults } from '@/lib/engine';
+import { requireValidDocument } from '@/lib/sheet/evaluation.server';
 import { runEvaluate } from '@/lib/evaluation/pool';
 import { Sheet, SheetRevision, User, type ReviewStatus } from '@/models';
 import { recordAudit } from './audit';
@@ -35,16 +36,6 @@ export type RevisionListItem = {
 };
 
 export type RevisionDetail = RevisionListItem & { document: SheetDocument; results: SheetResults };
-
-/** Parses a document with the engine's strict schema: 400 naming the first fault otherwise. */
-export function requireValidDocument(input: unknown, prefix = 'document'): SheetDocument {
-  const parsed = parseSheetDocument(input);
-  if (!parsed.ok) {
-    const field = parsed.path ? `${prefix}.${parsed.path}` : prefix;
-    throw badRequest(`${field}: ${parsed.message}`, field);
-  }
-  return parsed.document;
-}
 
 async function usersById(ids: (string | null)[]): Promise<Map<string, PublicUser>> {
   const unique = [...new Set(ids.filter((id): id is string => Boolean(id)))];
