@@ -1,13 +1,4 @@
 'use client';
 
-export default function ErrorPage({ reset }: { error: Error & { digest?: string }; reset: () => void }) {
-  return (
-    <main className="mx-auto max-w-lg px-4 pt-[15vh]">
-      <h1 className="text-[20px] font-semibold">Something went wrong</h1>
-      <p className="mt-2 text-slate">The page could not be shown. Your saved work is safe; try again.</p>
-      <button type="button" onClick={reset} className="mt-4 h-8 rounded-[3px] border border-rule bg-chalk px-3 text-[13px]">
-        Try again
-      </button>
-    </main>
-  );
-}
+// The same message as the root error page, shown inside the workspace layout so the header stays.
+export { default } from '../error';
