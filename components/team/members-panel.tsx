@@ -16,7 +16,15 @@ const ROLES: { value: Role; label: string; help: string }[] = [
   { value: 'viewer', label: 'Viewer', help: 'reads and exports' },
 ];
 
-async function send(url: string, method: string, body?: unknown): Promise<{ ok: boolean; data: any }> {
+/** What the team routes answer: the contract's error shape, or an invitation with its delivery state. */
+type TeamResponse = {
+  error?: { message: string };
+  mailDelivered?: boolean;
+  invitation?: { email: string };
+  link?: string;
+} | null;
+
+async function send(url: string, method: string, body?: unknown): Promise<{ ok: boolean; data: TeamResponse }> {
   const response = await fetch(url, {
     method,
     headers: body ? { 'content-type': 'application/json' } : undefined,
@@ -74,10 +82,11 @@ export function MembersPanel({
       return;
     }
     formElement.reset();
+    const address = data?.invitation?.email ?? String(form.get('email') ?? '');
     setMessage(
-      data.mailDelivered
-        ? { tone: 'ok', text: `Invitation e-mailed to ${data.invitation.email}.` }
-        : { tone: 'error', text: `The invitation was made, but the e-mail could not be sent. Pass this link to ${data.invitation.email}:`, link: data.link },
+      data?.mailDelivered
+        ? { tone: 'ok', text: `Invitation e-mailed to ${address}.` }
+        : { tone: 'error', text: `The invitation was made, but the e-mail could not be sent. Pass this link to ${address}:`, link: data?.link },
     );
     router.refresh();
   }
