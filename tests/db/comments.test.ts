@@ -1,20 +1,7 @@
-import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+import { beforeAll, describe, expect, it } from 'vitest';
 import { createComment, extractMentionHandles, listCommentsBySheet, resolveMentions, updateComment } from '@/lib/db/comments';
 import { saveRevision } from '@/lib/db/revisions';
-import { closeSequelize } from '@/lib/db/sequelize';
-import { closeEvaluationPool } from '@/lib/evaluation/pool';
-import { AppError } from '@/lib/errors';
-import { makeSheet, makeTeam, sampleDocument, type Role } from '../support/review-fixtures';
-
-async function rejection(promise: Promise<unknown>): Promise<AppError> {
-  try {
-    await promise;
-  } catch (error) {
-    if (error instanceof AppError) return error;
-    throw error;
-  }
-  throw new Error('expected the promise to be rejected');
-}
+import { makeSheet, rejection, sampleDocument, useTeamFixture } from '../support/review-fixtures';
 
 describe('mention handles', () => {
   const members = [
@@ -33,68 +20,62 @@ describe('mention handles', () => {
 });
 
 describe('comments (lib/db/comments)', () => {
-  let teamId: string;
-  let people: Record<Role, { id: string; name: string; email: string }>;
+  const team = useTeamFixture({ closePool: true });
   let sheetId: string;
 
   beforeAll(async () => {
-    ({ teamId, people } = await makeTeam());
-    sheetId = (await makeSheet(teamId, people.editor.id)).id;
-    await saveRevision({ sheetId, userId: people.editor.id, baseRevision: 0, document: sampleDocument(), message: 'r1' });
-  });
-  afterAll(async () => {
-    await closeEvaluationPool();
-    await closeSequelize();
+    sheetId = (await makeSheet(team.teamId, team.people.editor.id)).id;
+    await saveRevision({ sheetId, userId: team.people.editor.id, baseRevision: 0, document: sampleDocument(), message: 'r1' });
   });
 
   it('should thread replies under a comment, count open threads per block, and resolve/reopen them', async () => {
-    const reviewerHandle = people.reviewer.email.split('@')[0];
-    const first = await createComment({ sheetId, authorId: people.reviewer.id, blockId: 'b-hill', revision: 1, body: `Is the curvature from the 2 m DEM? @${people.editor.email.split('@')[0]}` });
-    expect(first.mentioned.map((p) => p.id)).toEqual([people.editor.id]);
+    const reviewerHandle = team.people.reviewer.email.split('@')[0];
+    const first = await createComment({ sheetId, authorId: team.people.reviewer.id, blockId: 'b-hill', revision: 1, body: `Is the curvature from the 2 m DEM? @${team.people.editor.email.split('@')[0]}` });
+    expect(first.mentioned.map((p) => p.id)).toEqual([team.people.editor.id]);
     expect(first.blockName).toBe('hill');
-    const reply = await createComment({ sheetId, authorId: people.editor.id, blockId: 'ignored', revision: 0, body: `Yes, @${reviewerHandle}.`, parentId: first.comment.id });
+    const reply = await createComment({ sheetId, authorId: team.people.editor.id, blockId: 'ignored', revision: 0, body: `Yes, @${reviewerHandle}.`, parentId: first.comment.id });
     expect(reply.comment).toMatchObject({ parentId: first.comment.id, blockId: 'b-hill', revision: 1 });
     // A reply to a reply joins the same thread (one level).
-    const nested = await createComment({ sheetId, authorId: people.owner.id, blockId: 'b-hill', revision: 1, body: 'Fine by me.', parentId: reply.comment.id });
+    const nested = await createComment({ sheetId, authorId: team.people.owner.id, blockId: 'b-hill', revision: 1, body: 'Fine by me.', parentId: reply.comment.id });
     expect(nested.comment.parentId).toBe(first.comment.id);
-    await createComment({ sheetId, authorId: people.owner.id, blockId: 'b-params', revision: 1, body: 'Source of K?' });
+    await createComment({ sheetId, authorId: team.people.owner.id, blockId: 'b-params', revision: 1, body: 'Source of K?' });
 
     let listed = await listCommentsBySheet({ sheetId, blockId: 'b-hill' });
     expect(listed.items).toHaveLength(1);
     expect(listed.items[0].replies.map((r) => r.body)).toEqual([`Yes, @${reviewerHandle}.`, 'Fine by me.']);
     expect(listed.openByBlock).toEqual({ 'b-hill': 1, 'b-params': 1 });
 
-    await updateComment({ commentId: first.comment.id, userId: people.editor.id, resolved: true });
+    await updateComment({ commentId: first.comment.id, userId: team.people.editor.id, resolved: true });
     listed = await listCommentsBySheet({ sheetId, blockId: 'b-hill' });
-    expect(listed.items[0]).toMatchObject({ resolved: true, resolvedBy: { id: people.editor.id } });
+    expect(listed.items[0]).toMatchObject({ resolved: true, resolvedBy: { id: team.people.editor.id } });
     expect(listed.openByBlock).toEqual({ 'b-params': 1 });
-    await updateComment({ commentId: first.comment.id, userId: people.reviewer.id, resolved: false });
+    await updateComment({ commentId: first.comment.id, userId: team.people.reviewer.id, resolved: false });
     expect((await listCommentsBySheet({ sheetId })).openByBlock['b-hill']).toBe(1);
   });
 
   it('should let only the author edit the body (403 otherwise) and mark it edited', async () => {
-    const made = await createComment({ sheetId, authorId: people.reviewer.id, blockId: 'b-params', revision: 1, body: 'Typo here' });
-    const error = await rejection(updateComment({ commentId: made.comment.id, userId: people.owner.id, body: 'Changed by someone else' }));
+    const made = await createComment({ sheetId, authorId: team.people.reviewer.id, blockId: 'b-params', revision: 1, body: 'Typo here' });
+    const error = await rejection(updateComment({ commentId: made.comment.id, userId: team.people.owner.id, body: 'Changed by someone else' }));
     expect(error.status).toBe(403);
-    await updateComment({ commentId: made.comment.id, userId: people.reviewer.id, body: 'Typo fixed' });
+    await updateComment({ commentId: made.comment.id, userId: team.people.reviewer.id, body: 'Typo fixed' });
     const item = (await listCommentsBySheet({ sheetId, blockId: 'b-params' })).items.find((c) => c.id === made.comment.id)!;
     expect(item).toMatchObject({ body: 'Typo fixed', edited: true });
   });
 
   it('should refuse a block that is not in the revision, or a revision that does not exist (400)', async () => {
-    const noBlock = await rejection(createComment({ sheetId, authorId: people.owner.id, blockId: 'b-missing', revision: 1, body: 'x' }));
+    const noBlock = await rejection(createComment({ sheetId, authorId: team.people.owner.id, blockId: 'b-missing', revision: 1, body: 'x' }));
     expect(noBlock.status).toBe(400);
     expect(noBlock.field).toBe('blockId');
-    const noRevision = await rejection(createComment({ sheetId, authorId: people.owner.id, blockId: 'b-hill', revision: 9, body: 'x' }));
+    const noRevision = await rejection(createComment({ sheetId, authorId: team.people.owner.id, blockId: 'b-hill', revision: 9, body: 'x' }));
     expect(noRevision.field).toBe('revision');
   });
 
   it('should flag a comment outdated once its block has changed in a later revision, not when another block changed', async () => {
-    const sheet = await makeSheet(teamId, people.editor.id);
-    await saveRevision({ sheetId: sheet.id, userId: people.editor.id, baseRevision: 0, document: sampleDocument(), message: '' });
-    const onParams = await createComment({ sheetId: sheet.id, authorId: people.reviewer.id, blockId: 'b-params', revision: 1, body: 'K looks high' });
-    const onNote = await createComment({ sheetId: sheet.id, authorId: people.reviewer.id, blockId: 'b-note', revision: 1, body: 'Say which cutting' });
-    await saveRevision({ sheetId: sheet.id, userId: people.editor.id, baseRevision: 1, document: sampleDocument({ K: '0.002 m^2/yr' }), message: 'K lowered' });
+    const sheet = await makeSheet(team.teamId, team.people.editor.id);
+    await saveRevision({ sheetId: sheet.id, userId: team.people.editor.id, baseRevision: 0, document: sampleDocument(), message: '' });
+    const onParams = await createComment({ sheetId: sheet.id, authorId: team.people.reviewer.id, blockId: 'b-params', revision: 1, body: 'K looks high' });
+    const onNote = await createComment({ sheetId: sheet.id, authorId: team.people.reviewer.id, blockId: 'b-note', revision: 1, body: 'Say which cutting' });
+    await saveRevision({ sheetId: sheet.id, userId: team.people.editor.id, baseRevision: 1, document: sampleDocument({ K: '0.002 m^2/yr' }), message: 'K lowered' });
     const items = (await listCommentsBySheet({ sheetId: sheet.id })).items;
     expect(items.find((c) => c.id === onParams.comment.id)?.outdated).toBe(true);
     expect(items.find((c) => c.id === onNote.comment.id)?.outdated).toBe(false);

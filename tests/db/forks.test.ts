@@ -1,36 +1,25 @@
-import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+import { describe, expect, it } from 'vitest';
 import { forkSheet } from '@/lib/db/forks';
 import { saveRevision } from '@/lib/db/revisions';
-import { closeSequelize } from '@/lib/db/sequelize';
 import { getSheetDetail } from '@/lib/db/sheets';
-import { closeEvaluationPool } from '@/lib/evaluation/pool';
-import { makeSheet, makeTeam, sampleDocument, type Role } from '../support/review-fixtures';
+import { makeSheet, makeTeam, sampleDocument, useTeamFixture } from '../support/review-fixtures';
 
 describe('forks (lib/db/forks)', () => {
-  let teamId: string;
-  let people: Record<Role, { id: string }>;
-
-  beforeAll(async () => {
-    ({ teamId, people } = await makeTeam());
-  });
-  afterAll(async () => {
-    await closeEvaluationPool();
-    await closeSequelize();
-  });
+  const team = useTeamFixture({ closePool: true });
 
   it('should fork the head revision for a new site, record its origin, and be listed among the source’s forks', async () => {
-    const source = await makeSheet(teamId, people.editor.id);
-    await saveRevision({ sheetId: source.id, userId: people.editor.id, baseRevision: 0, document: sampleDocument(), message: '' });
-    await saveRevision({ sheetId: source.id, userId: people.editor.id, baseRevision: 1, document: sampleDocument({ K: '0.005 m^2/yr' }), message: '' });
+    const source = await makeSheet(team.teamId, team.people.editor.id);
+    await saveRevision({ sheetId: source.id, userId: team.people.editor.id, baseRevision: 0, document: sampleDocument(), message: '' });
+    await saveRevision({ sheetId: source.id, userId: team.people.editor.id, baseRevision: 1, document: sampleDocument({ K: '0.005 m^2/yr' }), message: '' });
     const { sheet, forkedFrom } = await forkSheet({
       sourceSheetId: source.id,
-      teamId,
-      userId: people.editor.id,
+      teamId: team.teamId,
+      userId: team.people.editor.id,
       title: 'Lower slope lowering',
       site: { name: 'South cutting', latitude: 51.9 },
     });
     expect(forkedFrom).toEqual({ sheetId: source.id, revision: 2 });
-    const detail = await getSheetDetail({ sheetId: sheet.id, visibleTeamIds: [teamId] });
+    const detail = await getSheetDetail({ sheetId: sheet.id, visibleTeamIds: [team.teamId] });
     expect(detail.head).toBeNull();
     expect(detail.forkedFrom).toEqual({ sheetId: source.id, title: 'Upper slope lowering', revision: 2, visible: true });
     const draft = detail.draft.document as ReturnType<typeof sampleDocument>;
@@ -38,32 +27,32 @@ describe('forks (lib/db/forks)', () => {
     expect(draft.site).toEqual({ name: 'South cutting', latitude: 51.9 });
     expect(draft.blocks[0].inputs.K).toBe('0.005 m^2/yr');
     expect(detail.sheet.site).toEqual({ name: 'South cutting', latitude: 51.9 });
-    const sourceDetail = await getSheetDetail({ sheetId: source.id, visibleTeamIds: [teamId] });
+    const sourceDetail = await getSheetDetail({ sheetId: source.id, visibleTeamIds: [team.teamId] });
     expect(sourceDetail.forks).toEqual([{ id: sheet.id, title: 'Lower slope lowering', site: 'South cutting', revision: 2 }]);
   });
 
   it('should fork a chosen earlier revision, or the draft when there is no revision', async () => {
-    const source = await makeSheet(teamId, people.editor.id);
-    await saveRevision({ sheetId: source.id, userId: people.editor.id, baseRevision: 0, document: sampleDocument(), message: '' });
-    await saveRevision({ sheetId: source.id, userId: people.editor.id, baseRevision: 1, document: sampleDocument({ K: '0.009 m^2/yr' }), message: '' });
-    const earlier = await forkSheet({ sourceSheetId: source.id, teamId, userId: people.owner.id, title: 'From r1', revision: 1 });
-    const detail = await getSheetDetail({ sheetId: earlier.sheet.id, visibleTeamIds: [teamId] });
+    const source = await makeSheet(team.teamId, team.people.editor.id);
+    await saveRevision({ sheetId: source.id, userId: team.people.editor.id, baseRevision: 0, document: sampleDocument(), message: '' });
+    await saveRevision({ sheetId: source.id, userId: team.people.editor.id, baseRevision: 1, document: sampleDocument({ K: '0.009 m^2/yr' }), message: '' });
+    const earlier = await forkSheet({ sourceSheetId: source.id, teamId: team.teamId, userId: team.people.owner.id, title: 'From r1', revision: 1 });
+    const detail = await getSheetDetail({ sheetId: earlier.sheet.id, visibleTeamIds: [team.teamId] });
     expect((detail.draft.document as ReturnType<typeof sampleDocument>).blocks[0].inputs.K).toBe('0.004 m^2/yr');
     // No site given: the source's site is kept.
     expect(detail.sheet.site?.name).toBe('Test ridge');
 
-    const bare = await makeSheet(teamId, people.editor.id, sampleDocument({ K: '0.001 m^2/yr' }));
-    const fromDraft = await forkSheet({ sourceSheetId: bare.id, teamId, userId: people.editor.id, title: 'From the draft' });
+    const bare = await makeSheet(team.teamId, team.people.editor.id, sampleDocument({ K: '0.001 m^2/yr' }));
+    const fromDraft = await forkSheet({ sourceSheetId: bare.id, teamId: team.teamId, userId: team.people.editor.id, title: 'From the draft' });
     expect(fromDraft.forkedFrom).toEqual({ sheetId: bare.id, revision: null });
 
-    await expect(forkSheet({ sourceSheetId: source.id, teamId, userId: people.editor.id, title: 'x', revision: 7 })).rejects.toMatchObject({ status: 400, field: 'revision' });
+    await expect(forkSheet({ sourceSheetId: source.id, teamId: team.teamId, userId: team.people.editor.id, title: 'x', revision: 7 })).rejects.toMatchObject({ status: 400, field: 'revision' });
   });
 
   it('should hide a source in a team the reader cannot see', async () => {
     const other = await makeTeam();
     const source = await makeSheet(other.teamId, other.people.editor.id);
-    const fork = await forkSheet({ sourceSheetId: source.id, teamId, userId: people.editor.id, title: 'Copied across' });
-    const detail = await getSheetDetail({ sheetId: fork.sheet.id, visibleTeamIds: [teamId] });
+    const fork = await forkSheet({ sourceSheetId: source.id, teamId: team.teamId, userId: team.people.editor.id, title: 'Copied across' });
+    const detail = await getSheetDetail({ sheetId: fork.sheet.id, visibleTeamIds: [team.teamId] });
     expect(detail.forkedFrom).toEqual({ sheetId: source.id, title: null, revision: null, visible: false });
     expect((await getSheetDetail({ sheetId: source.id, visibleTeamIds: [other.teamId] })).forks).toEqual([]);
   });

@@ -1,53 +1,35 @@
-import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+import { beforeAll, describe, expect, it } from 'vitest';
 import { db } from '@/lib/db';
 import { acceptInvitation, createInvitation, getInvitationPreview } from '@/lib/db/invitations';
 import { listMembersByTeam, removeMember, updateMemberRole } from '@/lib/db/members';
 import { completePasswordReset, createPasswordReset } from '@/lib/db/password-resets';
-import { closeSequelize } from '@/lib/db/sequelize';
 import { hashToken } from '@/lib/db/tokens';
 import { createUserWithTeam, verifyCredentials } from '@/lib/db/users';
-import { AppError } from '@/lib/errors';
 import { Invitation, PasswordReset } from '@/models';
-import { makeTeam, type Role } from '../support/review-fixtures';
-
-async function rejection(promise: Promise<unknown>): Promise<AppError> {
-  try {
-    await promise;
-  } catch (error) {
-    if (error instanceof AppError) return error;
-    throw error;
-  }
-  throw new Error('expected the promise to be rejected');
-}
+import { makeTeam, rejection, useTeamFixture } from '../support/review-fixtures';
 
 describe('team members (lib/db/members)', () => {
-  let teamId: string;
-  let people: Record<Role, { id: string; name: string; email: string }>;
-
-  beforeAll(async () => {
-    ({ teamId, people } = await makeTeam());
-  });
-  afterAll(closeSequelize);
+  const team = useTeamFixture();
 
   it('should keep at least one owner: demoting or removing the last owner is 409 and changes nothing', async () => {
-    const demote = await rejection(updateMemberRole({ teamId, actorId: people.owner.id, userId: people.owner.id, role: 'editor' }));
+    const demote = await rejection(updateMemberRole({ teamId: team.teamId, actorId: team.people.owner.id, userId: team.people.owner.id, role: 'editor' }));
     expect(demote.status).toBe(409);
     expect(demote.message).toMatch(/at least one owner/);
-    const remove = await rejection(removeMember({ teamId, actorId: people.owner.id, userId: people.owner.id }));
+    const remove = await rejection(removeMember({ teamId: team.teamId, actorId: team.people.owner.id, userId: team.people.owner.id }));
     expect(remove.status).toBe(409);
-    const members = await listMembersByTeam({ teamId });
-    expect(members.items.find((m) => m.user.id === people.owner.id)?.role).toBe('owner');
+    const members = await listMembersByTeam({ teamId: team.teamId });
+    expect(members.items.find((m) => m.user.id === team.people.owner.id)?.role).toBe('owner');
   });
 
   it('should change roles and remove members when another owner remains', async () => {
-    await updateMemberRole({ teamId, actorId: people.owner.id, userId: people.editor.id, role: 'owner' });
-    await updateMemberRole({ teamId, actorId: people.editor.id, userId: people.owner.id, role: 'viewer' });
-    await removeMember({ teamId, actorId: people.editor.id, userId: people.viewer.id });
-    const members = await listMembersByTeam({ teamId });
+    await updateMemberRole({ teamId: team.teamId, actorId: team.people.owner.id, userId: team.people.editor.id, role: 'owner' });
+    await updateMemberRole({ teamId: team.teamId, actorId: team.people.editor.id, userId: team.people.owner.id, role: 'viewer' });
+    await removeMember({ teamId: team.teamId, actorId: team.people.editor.id, userId: team.people.viewer.id });
+    const members = await listMembersByTeam({ teamId: team.teamId });
     expect(members.items.map((m) => [m.user.id, m.role])).toEqual([
-      [people.editor.id, 'owner'],
-      [people.reviewer.id, 'reviewer'],
-      [people.owner.id, 'viewer'],
+      [team.people.editor.id, 'owner'],
+      [team.people.reviewer.id, 'reviewer'],
+      [team.people.owner.id, 'viewer'],
     ]);
   });
 });

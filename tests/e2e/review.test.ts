@@ -1,63 +1,14 @@
-import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import type { Browser, BrowserContext, Locator, Page } from 'playwright-core';
-import { launchBrowser, signInThroughForm } from '../support/browser';
+import { describe, expect, it } from 'vitest';
 import { appUrl, signedInAs } from '../support/http';
-import { sampleDocument } from '../support/sample-document';
+import { card, DEMO_TEAM, runCommand, sheetWithDraft, sheetWithRevision, useDemoPages } from '../support/sheet-page';
 
 // Comments, forks and review on the sheet page (app/(workspace)/sheets/[sheetId]), across the demo
 // accounts: owner Maren Okafor, editor Tomas Rinaldi, reviewer Ilse Varga (invented people).
-const DEMO_TEAM = '6b1f3c2e-8d4a-4c1e-9f3b-2a7d5e0c9a11';
-
-/** A sheet whose draft holds the sample document and that has no revision yet. */
-async function sheetWithDraft(title: string): Promise<string> {
-  const editor = await signedInAs('editor');
-  const created = await editor.post('/api/sheets', { title, teamId: DEMO_TEAM });
-  const id = created.body.sheet.id as string;
-  const current = await editor.get(`/api/sheets/${id}`);
-  const put = await editor.put(`/api/sheets/${id}/draft`, { baseVersion: current.body.draft.version, document: sampleDocument({ title }) });
-  if (put.status !== 200) throw new Error(`could not write the draft: ${JSON.stringify(put.body)}`);
-  return id;
-}
-
-/** As a user works: the draft holds the sample document, saved as revision 1. */
-async function sheetWithRevision(title: string): Promise<string> {
-  const id = await sheetWithDraft(title);
-  const editor = await signedInAs('editor');
-  const saved = await editor.post(`/api/sheets/${id}/revisions`, { baseRevision: 0, document: sampleDocument({ title }), message: 'First issue' });
-  if (saved.status !== 201) throw new Error(`could not save: ${JSON.stringify(saved.body)}`);
-  return id;
-}
-
-const card = (page: Page, name: string): Locator => page.locator(`section[data-block-name="${name}"]`);
-
-async function runCommand(page: Page, search: string, title: string | RegExp) {
-  await page.keyboard.press('ControlOrMeta+K');
-  const input = page.locator('[cmdk-input]');
-  await input.waitFor();
-  await input.fill(search);
-  await page.locator('[cmdk-item]', { hasText: title }).first().click();
-  await input.waitFor({ state: 'detached' });
-}
 
 const today = () => new Date().toISOString().slice(0, 10);
 
 describe('comments, forks and review on the sheet page', () => {
-  let browser: Browser;
-  const contexts: BrowserContext[] = [];
-  async function pageAs(role: 'owner' | 'editor' | 'reviewer'): Promise<Page> {
-    const context = await browser.newContext({ viewport: { width: 1366, height: 900 } });
-    contexts.push(context);
-    const page = await context.newPage();
-    await signInThroughForm(page, `${role}@demo.test`);
-    return page;
-  }
-  beforeAll(async () => {
-    browser = await launchBrowser();
-  });
-  afterAll(async () => {
-    for (const c of contexts) await c.close();
-    await browser?.close();
-  });
+  const pageAs = useDemoPages();
 
   it('should let a reviewer comment on a block; the editor sees the open count on the block, replies and resolves it', async () => {
     const id = await sheetWithRevision('Browser comment sheet');

@@ -1,78 +1,21 @@
-import { readFileSync } from 'node:fs';
-import path from 'node:path';
-import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import type { Browser, BrowserContext, Locator, Page } from 'playwright-core';
-import { launchBrowser, signInThroughForm } from '../support/browser';
+import { describe, expect, it } from 'vitest';
+import type { Page } from 'playwright-core';
 import { appUrl, signedInAs } from '../support/http';
 import { sampleDocument } from '../support/sample-document';
+import { axeSeriousViolations, card, savedState, settled, sheetWithDraft, useDemoPages } from '../support/sheet-page';
 
 // Reordering blocks (keyboard and drag), the refreshing open-comment counts, keyboard use of the sheet
 // page and an axe scan of its dark theme, as the demo editor (invented people and sites).
-const DEMO_TEAM = '6b1f3c2e-8d4a-4c1e-9f3b-2a7d5e0c9a11';
-const AXE_SOURCE = readFileSync(path.resolve(__dirname, '../../node_modules/axe-core/axe.min.js'), 'utf8');
-
-async function sheetWithDraft(title: string, revision = false): Promise<string> {
-  const editor = await signedInAs('editor');
-  const created = await editor.post('/api/sheets', { title, teamId: DEMO_TEAM });
-  const id = created.body.sheet.id as string;
-  const current = await editor.get(`/api/sheets/${id}`);
-  const put = await editor.put(`/api/sheets/${id}/draft`, { baseVersion: current.body.draft.version, document: sampleDocument({ title }) });
-  if (put.status !== 200) throw new Error(`could not write the draft: ${JSON.stringify(put.body)}`);
-  if (revision) {
-    const saved = await editor.post(`/api/sheets/${id}/revisions`, { baseRevision: 0, document: sampleDocument({ title }), message: 'First issue' });
-    if (saved.status !== 201) throw new Error(`could not save: ${JSON.stringify(saved.body)}`);
-  }
-  return id;
-}
-
-const card = (page: Page, name: string): Locator => page.locator(`section[data-block-name="${name}"]`);
 
 /** Block names in page order. */
 const order = (page: Page) => page.locator('section[data-block-name]').evaluateAll((els) => els.map((e) => e.getAttribute('data-block-name')));
-
-/** Waits until no block is stale or running: the page is hydrated and evaluated. */
-async function settled(page: Page) {
-  await page.waitForFunction(() => document.querySelectorAll('section[data-state="stale"], section[data-state="running"]').length === 0, null, {
-    timeout: 30_000,
-  });
-}
-
-async function savedState(page: Page) {
-  await page.waitForFunction(() => document.querySelector('[data-testid="save-state"]')?.getAttribute('data-kind') === 'saved', null, { timeout: 20_000 });
-}
 
 /** The name of the block whose card has keyboard focus (null when focus is elsewhere). */
 const focusedBlock = (page: Page) => page.evaluate(() => (document.activeElement as HTMLElement | null)?.getAttribute('data-block-name') ?? null);
 const selectedBlock = (page: Page) => page.locator('section[data-selected="true"]').getAttribute('data-block-name');
 
-async function axeSeriousViolations(page: Page) {
-  await page.addScriptTag({ content: AXE_SOURCE });
-  const violations = await page.evaluate(async () => {
-    const axe = (window as unknown as { axe: { run: (ctx: unknown, opts: unknown) => Promise<{ violations: { id: string; impact: string; help: string; nodes: { target: string[] }[] }[] }> } }).axe;
-    const result = await axe.run(document, { resultTypes: ['violations'] });
-    return result.violations.map((v) => ({ id: v.id, impact: v.impact, help: v.help, targets: v.nodes.slice(0, 3).map((n) => n.target.join(' ')) }));
-  });
-  return violations.filter((v) => v.impact === 'serious' || v.impact === 'critical');
-}
-
 describe('keyboard, reordering and live comment counts on the sheet page', () => {
-  let browser: Browser;
-  const contexts: BrowserContext[] = [];
-  async function pageAs(role: 'editor' | 'reviewer', theme?: 'dark'): Promise<Page> {
-    const context = await browser.newContext({ viewport: { width: 1366, height: 900 } });
-    contexts.push(context);
-    if (theme) await context.addInitScript((value) => localStorage.setItem('denudata-theme', value), theme);
-    const page = await context.newPage();
-    await signInThroughForm(page, `${role}@demo.test`);
-    return page;
-  }
-  beforeAll(async () => {
-    browser = await launchBrowser();
-  });
-  afterAll(async () => {
-    for (const c of contexts) await c.close();
-    await browser?.close();
-  });
+  const pageAs = useDemoPages();
 
   it('should select blocks with J/K and the arrows, move one with Alt+↓ and by dragging, undo and redo the move, and keep the order after a reload', async () => {
     const id = await sheetWithDraft('Reorder check');

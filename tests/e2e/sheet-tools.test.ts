@@ -1,52 +1,19 @@
 import { readFileSync } from 'node:fs';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import type { Browser, BrowserContext, Locator, Page } from 'playwright-core';
-import { launchBrowser, signInThroughForm } from '../support/browser';
+import type { Browser, Page } from 'playwright-core';
+import { launchBrowser } from '../support/browser';
 import { appUrl, signedInAs } from '../support/http';
 import { sampleDocument } from '../support/sample-document';
+import { card, runCommand, savedState, sheetWithDraft, signedInPage } from '../support/sheet-page';
 
 // The sheet header's title and site, block captions, saving a revision after someone else saved one
 // (409), export and import: all on the sheet page, as the demo editor.
-const DEMO_TEAM = '6b1f3c2e-8d4a-4c1e-9f3b-2a7d5e0c9a11';
-
-async function sheetWithDraft(title: string, revision = false): Promise<string> {
-  const editor = await signedInAs('editor');
-  const created = await editor.post('/api/sheets', { title, teamId: DEMO_TEAM });
-  const id = created.body.sheet.id as string;
-  const current = await editor.get(`/api/sheets/${id}`);
-  const put = await editor.put(`/api/sheets/${id}/draft`, { baseVersion: current.body.draft.version, document: sampleDocument({ title }) });
-  if (put.status !== 200) throw new Error(`could not write the draft: ${JSON.stringify(put.body)}`);
-  if (revision) {
-    const saved = await editor.post(`/api/sheets/${id}/revisions`, { baseRevision: 0, document: sampleDocument({ title }), message: 'First issue' });
-    if (saved.status !== 201) throw new Error(`could not save: ${JSON.stringify(saved.body)}`);
-  }
-  return id;
-}
-
-const card = (page: Page, name: string): Locator => page.locator(`section[data-block-name="${name}"]`);
-
-async function savedState(page: Page) {
-  await page.waitForFunction(() => document.querySelector('[data-testid="save-state"]')?.getAttribute('data-kind') === 'saved', null, { timeout: 20_000 });
-}
-
-async function runCommand(page: Page, search: string, title: string | RegExp) {
-  await page.keyboard.press('ControlOrMeta+K');
-  const input = page.locator('[cmdk-input]');
-  await input.waitFor();
-  await input.fill(search);
-  await page.locator('[cmdk-item]', { hasText: title }).first().click();
-  await input.waitFor({ state: 'detached' });
-}
-
 describe('the sheet page’s header, captions and files', () => {
   let browser: Browser;
-  let context: BrowserContext;
   let page: Page;
   beforeAll(async () => {
     browser = await launchBrowser();
-    context = await browser.newContext({ viewport: { width: 1366, height: 900 }, acceptDownloads: true });
-    page = await context.newPage();
-    await signInThroughForm(page, 'editor@demo.test');
+    ({ page } = await signedInPage(browser, 'editor@demo.test', { acceptDownloads: true }));
   });
   afterAll(async () => {
     await browser?.close();

@@ -1,7 +1,8 @@
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import type { Browser, BrowserContext, Page } from 'playwright-core';
-import { launchBrowser, signInThroughForm } from '../support/browser';
+import { launchBrowser } from '../support/browser';
 import { appUrl } from '../support/http';
+import { signedInPage } from '../support/sheet-page';
 
 // The server's HTML must be hydrated in place, not thrown away and rendered again on the client.
 // React streams the page body into hidden segments (<div hidden id="S:…">) and moves them into place;
@@ -30,9 +31,7 @@ describe('server HTML hydrated in place (no hidden second copy)', () => {
 
   beforeAll(async () => {
     browser = await launchBrowser();
-    context = await browser.newContext({ viewport: { width: 1366, height: 900 } });
-    page = await context.newPage();
-    await signInThroughForm(page, 'editor@demo.test');
+    ({ context, page } = await signedInPage(browser, 'editor@demo.test'));
     page.on('console', (message) => {
       if (message.type() === 'error' || message.type() === 'warning') problems.push(`console.${message.type()}: ${message.text()}`);
     });

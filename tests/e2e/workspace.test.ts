@@ -1,40 +1,15 @@
-import { readFileSync } from 'node:fs';
-import path from 'node:path';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import type { Browser, BrowserContext, Locator, Page } from 'playwright-core';
 import { launchBrowser, signInThroughForm } from '../support/browser';
 import { appUrl } from '../support/http';
+import { axeSeriousViolations, card as block, newEditorSheet, settled, signedInPage, typeExpression } from '../support/sheet-page';
 
 const DEMO_SCARP = '0d3a7e10-5c2b-4f6a-8e1d-000000000001';
 const DEMO_THERMAL = '0d3a7e10-5c2b-4f6a-8e1d-000000000004';
-const AXE_SOURCE = readFileSync(path.resolve(__dirname, '../../node_modules/axe-core/axe.min.js'), 'utf8');
 
 // Péclet number for v = 1 mm/yr, L = 30 km, κ = 1e-6 m²/s: 0.950642634421, reference case P12
 // (Turcotte & Schubert 2002, Geodynamics 2nd ed.); the reference cases allow a 0.3 % tolerance.
 const PE_REFERENCE = 0.950642634421;
-
-async function newEditorSheet(context: BrowserContext, title: string): Promise<string> {
-  const response = await context.request.post(`${appUrl()}/api/sheets`, { data: { title } });
-  expect(response.status()).toBe(201);
-  return (await response.json()).sheet.id as string;
-}
-
-function block(page: Page, name: string): Locator {
-  // Strict: the server's HTML is hydrated in place, so there is never a second (hidden) copy of a block
-  // (tests/e2e/single-render.test.ts checks it while the page streams in).
-  return page.locator(`section[data-block-name="${name}"]`);
-}
-
-/** Replaces the text of an expression field (CodeMirror) found by its label. */
-async function typeExpression(page: Page, scope: Locator, label: string | RegExp, text: string) {
-  const field = scope.getByRole('textbox', { name: label });
-  await field.waitFor({ timeout: 15_000 });
-  await field.click();
-  await page.keyboard.press('ControlOrMeta+A');
-  await page.keyboard.press('Backspace');
-  await page.keyboard.type(text, { delay: 5 });
-  await page.keyboard.press('Escape');
-}
 
 /** The number an output shows, once it shows one (a block between edits and results shows a dash). */
 async function outputValue(scope: Locator, output: string): Promise<number> {
@@ -42,13 +17,6 @@ async function outputValue(scope: Locator, output: string): Promise<number> {
   await cell.waitFor();
   await expect.poll(async () => Number.isFinite(Number.parseFloat((await cell.textContent()) ?? '')), { timeout: 30_000 }).toBe(true);
   return Number.parseFloat((await cell.textContent()) ?? 'NaN');
-}
-
-/** Waits until no block of the page is stale or running. */
-async function settled(page: Page) {
-  await page.waitForFunction(() => document.querySelectorAll('section[data-state="stale"], section[data-state="running"]').length === 0, null, {
-    timeout: 30_000,
-  });
 }
 
 /** Compressed bytes of JavaScript the page downloaded (encoded body sizes of script resources). */
@@ -60,16 +28,6 @@ async function scriptBytes(page: Page): Promise<{ bytes: number; files: number }
   });
 }
 
-async function axeSeriousViolations(page: Page, context?: string) {
-  await page.addScriptTag({ content: AXE_SOURCE });
-  const violations = await page.evaluate(async (selector) => {
-    const axe = (window as unknown as { axe: { run: (ctx: unknown, opts: unknown) => Promise<{ violations: { id: string; impact: string; help: string; nodes: { target: string[] }[] }[] }> } }).axe;
-    const result = await axe.run(selector ? { include: [selector] } : document, { resultTypes: ['violations'] });
-    return result.violations.map((v) => ({ id: v.id, impact: v.impact, help: v.help, targets: v.nodes.slice(0, 3).map((n) => n.target.join(' ')) }));
-  }, context ?? null);
-  return violations.filter((v) => v.impact === 'serious' || v.impact === 'critical');
-}
-
 describe('the sheet workspace in Chromium', () => {
   let browser: Browser;
   let editor: BrowserContext;
@@ -78,9 +36,7 @@ describe('the sheet workspace in Chromium', () => {
 
   beforeAll(async () => {
     browser = await launchBrowser();
-    editor = await browser.newContext({ viewport: { width: 1366, height: 900 } });
-    page = await editor.newPage();
-    await signInThroughForm(page, 'editor@demo.test');
+    ({ context: editor, page } = await signedInPage(browser, 'editor@demo.test'));
     sheetId = await newEditorSheet(editor, 'Browser check: thermal Péclet');
   });
   afterAll(async () => {

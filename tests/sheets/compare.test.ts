@@ -3,45 +3,57 @@ import { compareSheets, relativeChange, type CompareSide } from '@/lib/sheets/co
 
 const out = (value: number, unit: string, si: number, siUnit: string) => ({ value, unit, si, siUnit });
 
-const before: CompareSide = {
-  document: {
-    title: 'Crest A',
-    site: { name: 'North ridge' },
-    blocks: [
-      { id: 'p', name: 'params', type: 'quantities', inputs: { K: '0.004 m^2/yr', C: '-0.02 m^-1' } },
-      { id: 'h', name: 'hill', type: 'hillslope_diffusion', inputs: { diffusivity: 'params.K', curvature: 'params.C' } },
-      { id: 'n', name: 'context', type: 'note', inputs: {}, note: 'Old note' },
-      { id: 'gone', name: 'old_formula', type: 'formula', inputs: { expr: '2 m' } },
-    ],
-  },
-  results: {
-    blocks: {
-      params: { status: 'ok', outputs: { K: out(0.004, 'm^2 / yr', 1.2675e-10, 'm^2 / s'), C: out(-0.02, 'm^-1', -0.02, 'm^-1') } },
-      hill: { status: 'ok', outputs: { dz_dt: out(-0.08, 'mm / yr', -2.535e-12, 'm / s'), lowering_rate: out(0.08, 'mm / yr', 2.535e-12, 'm / s') } },
-      old_formula: { status: 'ok', outputs: { value: out(2, 'm', 2, 'm') } },
+/**
+ * One state of the crest sheet: a quantities block (K, C), a hillslope-diffusion block, a note and a
+ * last formula block. K in m²/yr with its SI value in m²/s; the lowering rate in mm/yr with its SI value in m/s.
+ */
+function crestSide(state: {
+  site: string;
+  K: { text: string; value: number; si: number };
+  hillName: string;
+  lowering: { value: number; si: number };
+  last: { id: string; name: string; expr: string; value: number };
+}): CompareSide {
+  const { K, lowering, last } = state;
+  return {
+    document: {
+      title: 'Crest A',
+      site: { name: state.site },
+      blocks: [
+        { id: 'p', name: 'params', type: 'quantities', inputs: { K: K.text, C: '-0.02 m^-1' } },
+        { id: 'h', name: state.hillName, type: 'hillslope_diffusion', inputs: { diffusivity: 'params.K', curvature: 'params.C' } },
+        { id: 'n', name: 'context', type: 'note', inputs: {}, note: 'Old note' },
+        { id: last.id, name: last.name, type: 'formula', inputs: { expr: last.expr } },
+      ],
     },
-  },
-};
+    results: {
+      blocks: {
+        params: { status: 'ok', outputs: { K: out(K.value, 'm^2 / yr', K.si, 'm^2 / s'), C: out(-0.02, 'm^-1', -0.02, 'm^-1') } },
+        [state.hillName]: {
+          status: 'ok',
+          outputs: { dz_dt: out(-lowering.value, 'mm / yr', -lowering.si, 'm / s'), lowering_rate: out(lowering.value, 'mm / yr', lowering.si, 'm / s') },
+        },
+        [last.name]: { status: 'ok', outputs: { value: out(last.value, 'm', last.value, 'm') } },
+      },
+    },
+  };
+}
 
-const after: CompareSide = {
-  document: {
-    title: 'Crest A',
-    site: { name: 'South ridge' },
-    blocks: [
-      { id: 'p', name: 'params', type: 'quantities', inputs: { K: '0.006 m^2/yr', C: '-0.02 m^-1' } },
-      { id: 'h', name: 'hill_lowering', type: 'hillslope_diffusion', inputs: { diffusivity: 'params.K', curvature: 'params.C' } },
-      { id: 'n', name: 'context', type: 'note', inputs: {}, note: 'Old note' },
-      { id: 'new', name: 'scarp', type: 'formula', inputs: { expr: '3 m' } },
-    ],
-  },
-  results: {
-    blocks: {
-      params: { status: 'ok', outputs: { K: out(0.006, 'm^2 / yr', 1.90125e-10, 'm^2 / s'), C: out(-0.02, 'm^-1', -0.02, 'm^-1') } },
-      hill_lowering: { status: 'ok', outputs: { dz_dt: out(-0.12, 'mm / yr', -3.8025e-12, 'm / s'), lowering_rate: out(0.12, 'mm / yr', 3.8025e-12, 'm / s') } },
-      scarp: { status: 'ok', outputs: { value: out(3, 'm', 3, 'm') } },
-    },
-  },
-};
+const before = crestSide({
+  site: 'North ridge',
+  K: { text: '0.004 m^2/yr', value: 0.004, si: 1.2675e-10 },
+  hillName: 'hill',
+  lowering: { value: 0.08, si: 2.535e-12 },
+  last: { id: 'gone', name: 'old_formula', expr: '2 m', value: 2 },
+});
+
+const after = crestSide({
+  site: 'South ridge',
+  K: { text: '0.006 m^2/yr', value: 0.006, si: 1.90125e-10 },
+  hillName: 'hill_lowering',
+  lowering: { value: 0.12, si: 3.8025e-12 },
+  last: { id: 'new', name: 'scarp', expr: '3 m', value: 3 },
+});
 
 describe('compareSheets', () => {
   it('should list blocks added and removed by id', () => {
