@@ -1,5 +1,5 @@
 import { describe, expect, it } from 'vitest';
-import { mergeEdits } from '@/lib/sheets/merge';
+import { mergeEdits } from '@/lib/sheet/merge';
 
 type Block = { id: string; name: string; type: string; inputs: Record<string, string>; note?: string };
 type Doc = { format: string; title: string; blocks: Block[] };

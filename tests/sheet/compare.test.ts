@@ -1,5 +1,5 @@
 import { describe, expect, it } from 'vitest';
-import { compareSheets, relativeChange, type CompareSide } from '@/lib/sheets/compare';
+import { compareSheets, relativeChange, type CompareSide } from '@/lib/sheet/compare';
 
 const out = (value: number, unit: string, si: number, siUnit: string) => ({ value, unit, si, siUnit });
 
