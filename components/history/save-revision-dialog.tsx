@@ -3,8 +3,8 @@
 import { useState } from 'react';
 import { Button } from '@/components/ui/button';
 import { Dialog } from '@/components/ui/dialog';
-import { compareSheets, type SheetComparison } from '@/lib/sheets/compare';
-import { mergeEdits, type MergeClash } from '@/lib/sheets/merge';
+import { compareSheets, type SheetComparison } from '@/lib/sheet/compare';
+import { mergeEdits, type MergeClash } from '@/lib/sheet/merge';
 
 type Doc = { format: string; title: string; site?: { name: string; latitude?: number; longitude?: number; notes?: string }; blocks: { id: string; name: string; type: string; inputs: Record<string, string>; note?: string }[] };
 

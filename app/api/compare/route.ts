@@ -1,7 +1,7 @@
 import { requireSheetRole, requireUser } from '@/lib/auth/guard';
 import { getRevision } from '@/lib/db/revisions';
 import { json, readQuery, route } from '@/lib/http';
-import { compareSheets } from '@/lib/sheets/compare';
+import { compareSheets } from '@/lib/sheet/compare';
 import { compareQuerySchema } from './schema';
 
 export const GET = route(async (request) => {

@@ -2,8 +2,8 @@ import type { Metadata } from 'next';
 import Link from 'next/link';
 import { getRevision } from '@/lib/db/revisions';
 import { findSheetRecord } from '@/lib/db/sheets';
-import { compareSheets, type OutputValue } from '@/lib/sheets/compare';
-import { requireSheetPage } from '@/lib/sheets/page-access';
+import { compareSheets, type OutputValue } from '@/lib/sheet/compare';
+import { requireSheetPage } from '@/lib/sheet/page-access';
 
 export const metadata: Metadata = { title: 'Compare revisions' };
 

@@ -2,7 +2,7 @@ import type { Metadata } from 'next';
 import Link from 'next/link';
 import { StatusTag } from '@/components/ui/status';
 import { listRevisionsBySheet } from '@/lib/db/revisions';
-import { requireSheetPage } from '@/lib/sheets/page-access';
+import { requireSheetPage } from '@/lib/sheet/page-access';
 
 export const metadata: Metadata = { title: 'Revisions' };
 

@@ -8,7 +8,7 @@ import { roleAllows } from '@/lib/auth/permissions';
 import { listCommentsBySheet } from '@/lib/db/comments';
 import { listMembersByTeam } from '@/lib/db/members';
 import { getRevision } from '@/lib/db/revisions';
-import { requireSheetPage } from '@/lib/sheets/page-access';
+import { requireSheetPage } from '@/lib/sheet/page-access';
 
 export const metadata: Metadata = { title: 'Revision' };
 
