@@ -6,6 +6,7 @@ import { useRouter } from 'next/navigation';
 import { useState, type FormEvent } from 'react';
 import { Button } from '@/components/ui/button';
 import { Field } from '@/components/ui/field';
+import { ErrorText } from '@/components/ui/error-text';
 
 export function SignInForm({ next }: { next: string }) {
   const router = useRouter();
@@ -37,10 +38,7 @@ export function SignInForm({ next }: { next: string }) {
       <Field label="E-mail" name="email" type="email" autoComplete="email" required autoFocus />
       <Field label="Password" name="password" type="password" autoComplete="current-password" required />
       {error ? (
-        <p role="alert" className="text-[13px] text-oxide">
-          <span aria-hidden="true">✕ </span>
-          {error}
-        </p>
+        <ErrorText>{error}</ErrorText>
       ) : null}
       <Button variant="primary" type="submit" disabled={pending}>
         {pending ? 'Signing in…' : 'Sign in'}

@@ -9,6 +9,7 @@ import { DISPLAY_UNIT_CHOICES } from '@/lib/sheet/vocabulary';
 import type { BlockResult, CatalogInput, CatalogType, SheetBlock } from '@/lib/sheet/types';
 import type { CompletionData } from './expression-language';
 import { NoteMarkdown } from './note-markdown';
+import { ErrorText } from '@/components/ui/error-text';
 
 // CodeMirror and Plot load only on pages that show fields and plots.
 const ExpressionField = dynamic(() => import('./expression-field'), {
@@ -333,10 +334,9 @@ function RenameForm({ block, onCancel, onRename }: { block: SheetBlock; onCancel
         Cancel
       </button>
       {error ? (
-        <p id={errorId} role="alert" className="w-full text-[12px] text-oxide">
-          <span aria-hidden="true">✕ </span>
+        <ErrorText id={errorId} size="sm" className="w-full">
           {error}
-        </p>
+        </ErrorText>
       ) : null}
     </form>
   );

@@ -3,6 +3,7 @@
 import { useMutation, useQuery, useQueryClient } from '@tanstack/react-query';
 import { useState, type FormEvent } from 'react';
 import { Button } from '@/components/ui/button';
+import { ErrorText } from '@/components/ui/error-text';
 
 type Person = { id: string; name: string; email: string };
 type Comment = {
@@ -235,7 +236,7 @@ export function CommentsPanel({
       ) : (
         <p className="text-[12px] text-slate">Your role can read comments but not write them.</p>
       )}
-      {error ? <p role="alert" className="text-oxide"><span aria-hidden="true">✕ </span>{error}</p> : null}
+      {error ? <ErrorText size="inherit">{error}</ErrorText> : null}
       {open.length === 0 && !isLoading ? <p className="text-slate">No open comments on this block.</p> : null}
       <ul className="flex flex-col gap-2">{open.map(renderThread)}</ul>
       {resolved.length ? (

@@ -5,6 +5,7 @@ import { useState, type FormEvent } from 'react';
 import { Button } from '@/components/ui/button';
 import { Dialog } from '@/components/ui/dialog';
 import { Field } from '@/components/ui/field';
+import { ErrorText } from '@/components/ui/error-text';
 
 /** Forks a sheet for a new site: title and site; the fork starts from the chosen (default: newest) revision. */
 export function ForkDialog({
@@ -98,10 +99,7 @@ export function ForkDialog({
             className="rounded-[3px] border border-rule bg-chalk px-2.5 py-1.5 text-[14px]"
           />
           {errors.siteNotes ? (
-            <p role="alert" className="text-[12px] text-oxide">
-              <span aria-hidden="true">✕ </span>
-              {errors.siteNotes}
-            </p>
+            <ErrorText size="sm">{errors.siteNotes}</ErrorText>
           ) : null}
         </div>
         {teams && teams.length > 1 ? (
@@ -113,7 +111,7 @@ export function ForkDialog({
           </label>
         ) : null}
         {errors.form || errors.revision || errors.teamId ? (
-          <p role="alert" className="text-[13px] text-oxide"><span aria-hidden="true">✕ </span>{errors.form ?? errors.revision ?? errors.teamId}</p>
+          <ErrorText>{errors.form ?? errors.revision ?? errors.teamId}</ErrorText>
         ) : null}
         <div className="flex justify-end gap-2">
           <Button onClick={onClose}>Cancel</Button>

@@ -5,6 +5,7 @@ import { Button } from '@/components/ui/button';
 import { Dialog } from '@/components/ui/dialog';
 import { compareSheets, type SheetComparison } from '@/lib/sheet/compare';
 import { mergeEdits, type MergeClash } from '@/lib/sheet/merge';
+import { ErrorText } from '@/components/ui/error-text';
 
 type Doc = { format: string; title: string; site?: { name: string; latitude?: number; longitude?: number; notes?: string }; blocks: { id: string; name: string; type: string; inputs: Record<string, string>; note?: string }[] };
 
@@ -125,10 +126,7 @@ export function SaveRevisionDialog({
             The sheet is evaluated and stored as revision {baseRevision + 1} with its results and hash. A new revision starts unsigned.
           </p>
           {error ? (
-            <p role="alert" className="text-[13px] text-oxide">
-              <span aria-hidden="true">✕ </span>
-              {error}
-            </p>
+            <ErrorText>{error}</ErrorText>
           ) : null}
           <div className="flex justify-end gap-2">
             <Button onClick={onClose}>Cancel</Button>

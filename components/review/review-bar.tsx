@@ -4,6 +4,7 @@ import { useRouter } from 'next/navigation';
 import { useCallback, useState } from 'react';
 import { Button } from '@/components/ui/button';
 import { StatusTag, type SheetStatus } from '@/components/ui/status';
+import { ErrorText } from '@/components/ui/error-text';
 
 type Person = { id: string; name: string; email: string };
 type Role = 'owner' | 'editor' | 'reviewer' | 'viewer';
@@ -180,10 +181,7 @@ export function ReviewBar({
         </div>
       ) : null}
       {error ? (
-        <p role="alert" className="text-oxide">
-          <span aria-hidden="true">✕ </span>
-          {error}
-        </p>
+        <ErrorText size="inherit">{error}</ErrorText>
       ) : null}
     </section>
   );

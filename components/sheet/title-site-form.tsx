@@ -5,6 +5,7 @@ import { Button } from '@/components/ui/button';
 import { Field } from '@/components/ui/field';
 import { readTitleSite, type TitleSiteErrors as Errors } from '@/lib/sheet/title-site';
 import type { SiteInfo } from '@/lib/sheet/types';
+import { ErrorText } from '@/components/ui/error-text';
 
 /** Edits the sheet's title and site in the header; saved with the draft (the sheet row follows it). */
 export function TitleSiteForm({
@@ -88,10 +89,9 @@ export function TitleSiteForm({
           className="rounded-[3px] border border-rule bg-chalk px-2.5 py-1.5 text-[14px]"
         />
         {errors.notes ? (
-          <p id="sheet-site-notes-error" role="alert" className="text-[12px] text-oxide">
-            <span aria-hidden="true">✕ </span>
+          <ErrorText id="sheet-site-notes-error" size="sm">
             {errors.notes}
-          </p>
+          </ErrorText>
         ) : null}
       </div>
       <div className="flex justify-end gap-2">

@@ -190,6 +190,20 @@ export function useSheetDraft({
     setStale((s) => new Set([...s, ...affected]));
   }, []);
 
+  /** Makes `next` the working document: marks what changed stale, keeps it locally and schedules a save. */
+  const adopt = useCallback(
+    (before: SheetDocument, next: SheetDocument) => {
+      docRef.current = next;
+      editCounter.current += 1;
+      setDoc(next);
+      markChanged(before, next);
+      writePending(sheetId, { baseVersion: versionRef.current, baseDocument: baseDocRef.current, document: next, at: new Date().toISOString() });
+      setSaveState((s) => (s.kind === 'conflict' ? s : { kind: 'pending' }));
+      schedule();
+    },
+    [markChanged, schedule, sheetId],
+  );
+
   /** Applies an edit; edits with the same coalesce key within 1.5 s form one undo step. */
   const apply = useCallback(
     (next: SheetDocument, options: { coalesce?: string } = {}) => {
@@ -201,15 +215,9 @@ export function useSheetDraft({
       lastCoalesce.current = options.coalesce ? { key: options.coalesce, at: now } : null;
       if (!coalesce) setHistory((h) => ({ past: [...h.past, before].slice(-HISTORY_LIMIT), future: [] }));
       else setHistory((h) => ({ past: h.past, future: [] }));
-      docRef.current = next;
-      editCounter.current += 1;
-      setDoc(next);
-      markChanged(before, next);
-      writePending(sheetId, { baseVersion: versionRef.current, baseDocument: baseDocRef.current, document: next, at: new Date().toISOString() });
-      setSaveState((s) => (s.kind === 'conflict' ? s : { kind: 'pending' }));
-      schedule();
+      adopt(before, next);
     },
-    [canEdit, markChanged, schedule, sheetId, setHistory],
+    [adopt, canEdit, setHistory],
   );
 
   const travel = useCallback(
@@ -225,16 +233,10 @@ export function useSheetDraft({
           ? { past: h.past.slice(0, -1), future: [...h.future, current] }
           : { past: [...h.past, current], future: h.future.slice(0, -1) },
       );
-      docRef.current = target;
-      editCounter.current += 1;
       lastCoalesce.current = null;
-      setDoc(target);
-      markChanged(current, target);
-      writePending(sheetId, { baseVersion: versionRef.current, baseDocument: baseDocRef.current, document: target, at: new Date().toISOString() });
-      setSaveState((s) => (s.kind === 'conflict' ? s : { kind: 'pending' }));
-      schedule();
+      adopt(current, target);
     },
-    [canEdit, markChanged, schedule, sheetId, setHistory],
+    [adopt, canEdit, setHistory],
   );
 
   const evaluateNow = useCallback(() => {

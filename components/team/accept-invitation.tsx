@@ -3,6 +3,7 @@
 import { useRouter } from 'next/navigation';
 import { useState } from 'react';
 import { Button } from '@/components/ui/button';
+import { ErrorText } from '@/components/ui/error-text';
 
 export function AcceptInvitation({ token, teamName }: { token: string; teamName: string }) {
   const router = useRouter();
@@ -29,10 +30,7 @@ export function AcceptInvitation({ token, teamName }: { token: string; teamName:
         {pending ? 'Joining…' : `Join ${teamName}`}
       </Button>
       {error ? (
-        <p role="alert" className="text-[13px] text-oxide">
-          <span aria-hidden="true">✕ </span>
-          {error}
-        </p>
+        <ErrorText>{error}</ErrorText>
       ) : null}
     </div>
   );

@@ -1,4 +1,5 @@
 import type { InputHTMLAttributes, ReactNode } from 'react';
+import { ErrorText } from './error-text';
 
 /** A labelled input with its help and its error, tied together for assistive technology. */
 export function Field({
@@ -28,10 +29,9 @@ export function Field({
         </p>
       ) : null}
       {error ? (
-        <p id={`${name}-error`} role="alert" className="text-[12px] text-oxide">
-          <span aria-hidden="true">✕ </span>
+        <ErrorText id={`${name}-error`} size="sm">
           {error}
-        </p>
+        </ErrorText>
       ) : null}
     </div>
   );

@@ -1,9 +1,8 @@
 import 'server-only';
 import { badRequest, notFound } from '@/lib/errors';
 import { Sheet, SheetRevision } from '@/models';
-import { recordAudit } from './audit';
 import { db } from './index';
-import { siteColumns, toSheetRecord, type SheetRecord, type SiteInput } from './sheets';
+import { insertSheet, toSheetRecord, type SheetRecord, type SiteInput } from './sheets';
 
 /**
  * Forks a sheet (for a new site, typically) into a team: the new sheet's draft is the chosen revision's
@@ -42,28 +41,16 @@ export async function forkSheet({
     const { site: _dropped, ...rest } = document;
     void _dropped;
     const forked = { ...rest, title, ...(keptSite ? { site: keptSite } : {}) };
-    const sheet = await Sheet.create(
+    const sheet = await insertSheet(
       {
         teamId,
-        title,
-        ...siteColumns(keptSite),
-        draftDocument: forked,
-        createdBy: userId,
-        updatedBy: userId,
-        forkedFromSheetId: sourceSheetId,
-        forkedFromRevision: number,
-        archivedAt: null,
-      },
-      { transaction },
-    );
-    await recordAudit(
-      {
-        teamId,
-        actorId: userId,
-        action: 'sheet.forked',
-        subjectType: 'sheet',
-        subjectId: sheet.id,
-        details: { title, site: keptSite?.name ?? null, fromSheetId: sourceSheetId, fromTitle: source.title, fromRevision: number },
+        userId,
+        document: forked as { title: string; site?: SiteInput },
+        forkedFrom: { sheetId: sourceSheetId, revision: number },
+        audit: {
+          action: 'sheet.forked',
+          details: { title, site: keptSite?.name ?? null, fromSheetId: sourceSheetId, fromTitle: source.title, fromRevision: number },
+        },
       },
       transaction,
     );

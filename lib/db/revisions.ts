@@ -7,7 +7,7 @@ import { runEvaluate } from '@/lib/evaluation/pool';
 import { Sheet, SheetRevision, User, type ReviewStatus } from '@/models';
 import { recordAudit } from './audit';
 import { db } from './index';
-import { siteColumns, toSheetRecord, type SheetRecord } from './sheets';
+import { insertSheet, toSheetRecord, type SheetRecord } from './sheets';
 import { toPublicUser, type PublicUser } from './users';
 
 export type ReviewSummary = {
@@ -225,22 +225,8 @@ export async function importSheet({
   const evaluated = await evaluateForRevision(document);
   const sequelize = db();
   return sequelize.transaction(async (transaction) => {
-    const sheet = await Sheet.create(
-      {
-        teamId,
-        title: evaluated.document.title,
-        ...siteColumns(evaluated.document.site),
-        draftDocument: evaluated.document,
-        createdBy: userId,
-        updatedBy: userId,
-        forkedFromSheetId: null,
-        forkedFromRevision: null,
-        archivedAt: null,
-      },
-      { transaction },
-    );
-    await recordAudit(
-      { teamId, actorId: userId, action: 'sheet.imported', subjectType: 'sheet', subjectId: sheet.id, details: { title: sheet.title } },
+    const sheet = await insertSheet(
+      { teamId, userId, document: evaluated.document, audit: { action: 'sheet.imported' } },
       transaction,
     );
     const revision = await insertRevision(

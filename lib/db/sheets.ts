@@ -1,5 +1,5 @@
 import 'server-only';
-import { Op, QueryTypes } from 'sequelize';
+import { Op, QueryTypes, type Transaction } from 'sequelize';
 import { conflict, notFound } from '@/lib/errors';
 import { Sheet, SheetRevision, User, type ReviewStatus } from '@/models';
 import { recordAudit } from './audit';
@@ -148,6 +148,55 @@ export async function findSheetRecord({ sheetId }: { sheetId: string }): Promise
   return sheet ? toSheetRecord(sheet) : null;
 }
 
+/**
+ * Inserts a sheet whose draft is `document`, its title and site taken from the document, and records the
+ * audit entry, inside the caller's transaction. Creating, forking and importing a sheet all go through here.
+ */
+export async function insertSheet(
+  {
+    teamId,
+    userId,
+    document,
+    forkedFrom = null,
+    audit,
+  }: {
+    teamId: string;
+    userId: string;
+    document: { title: string; site?: SiteInput | null };
+    forkedFrom?: { sheetId: string; revision: number | null } | null;
+    audit: { action: string; details?: Record<string, unknown> };
+  },
+  transaction: Transaction,
+): Promise<Sheet> {
+  const sheet = await Sheet.create(
+    {
+      teamId,
+      title: document.title,
+      ...siteColumns(document.site),
+      draftDocument: document,
+      createdBy: userId,
+      updatedBy: userId,
+      forkedFromSheetId: forkedFrom?.sheetId ?? null,
+      forkedFromRevision: forkedFrom?.revision ?? null,
+      archivedAt: null,
+    },
+    { transaction },
+  );
+  await recordAudit(
+    {
+      teamId,
+      actorId: userId,
+      action: audit.action,
+      subjectType: 'sheet',
+      subjectId: sheet.id,
+      details: audit.details ?? { title: document.title },
+    },
+    transaction,
+  );
+  return sheet;
+}
+
+/** A new sheet: an empty draft, or the given document as its draft. */
 export async function createSheet({
   teamId,
   userId,
@@ -159,30 +208,12 @@ export async function createSheet({
   userId: string;
   title: string;
   site?: SiteInput | null;
-  document?: unknown;
+  document?: { title: string; site?: SiteInput };
 }): Promise<SheetRecord> {
-  const sequelize = db();
-  return sequelize.transaction(async (transaction) => {
-    const sheet = await Sheet.create(
-      {
-        teamId,
-        title,
-        ...siteColumns(site),
-        draftDocument: document ?? emptyDocument(title, site),
-        createdBy: userId,
-        updatedBy: userId,
-        forkedFromSheetId: null,
-        forkedFromRevision: null,
-        archivedAt: null,
-      },
-      { transaction },
-    );
-    await recordAudit(
-      { teamId, actorId: userId, action: 'sheet.created', subjectType: 'sheet', subjectId: sheet.id, details: { title } },
-      transaction,
-    );
-    return toSheetRecord(sheet);
-  });
+  const draft = document ?? emptyDocument(title, site);
+  return db().transaction(async (transaction) =>
+    toSheetRecord(await insertSheet({ teamId, userId, document: draft, audit: { action: 'sheet.created' } }, transaction)),
+  );
 }
 
 export type SheetDetail = {
