@@ -3,7 +3,9 @@
  * evaluate(), and formatting of its outputs. Also registers each calculation type as a
  * function in expressions, e.g. peclet_number(1 mm/yr, 30 km, 1e-6 m^2/s).
  */
-import type { BlockOutcome, BlockTypeDefinition, InputSpec, InputValues, OutputSpec } from './block-type';
+import type { BlockOutcome, BlockTypeDefinition, InputSpec, InputValues, OtherInputs, OutputSpec } from './block-type';
+import type { DatasetLookup } from './dataset';
+import { DatasetReference, resolveDataset } from './dataset-input';
 import { EngineError } from './errors';
 import { checkExpression, defineExpressionFunction } from './expression';
 import { BLOCK_TYPES } from './registry';
@@ -39,13 +41,47 @@ export function defaultValue(spec: InputSpec): unknown {
   return defaultValues.get(text);
 }
 
+/** Options of one run: the datasets data inputs resolve against. */
+export interface RunOptions {
+  datasets?: DatasetLookup;
+}
+
+const NOT_QUANTITY = new Set(['text', 'boolean', 'dataset']);
+
+/** Coerces a text, boolean or data input (the dimensions that are not quantities). */
+function coerceOther(spec: InputSpec, value: unknown, other: OtherInputs, options: RunOptions): void {
+  if (spec.dimension === 'text') {
+    if (typeof value !== 'string') {
+      throw new EngineError(`${spec.name}: expected a word in double quotes (${(spec.choices ?? []).map((c) => `"${c}"`).join(' or ')}), got ${describeValue(value)}`, {
+        input: spec.name,
+      });
+    }
+    const word = value.trim().toLowerCase();
+    if (spec.choices && !spec.choices.includes(word)) {
+      throw new EngineError(`${spec.name} must be ${spec.choices.map((c) => `"${c}"`).join(' or ')}, got ${JSON.stringify(value)}`, { input: spec.name });
+    }
+    other.text[spec.name] = word;
+  } else if (spec.dimension === 'boolean') {
+    if (typeof value !== 'boolean') {
+      throw new EngineError(`${spec.name}: expected true or false, got ${describeValue(value)}`, { input: spec.name });
+    }
+    other.flags[spec.name] = value;
+  } else {
+    if (!(value instanceof DatasetReference)) {
+      throw new EngineError(`${spec.name}: must be dataset("<sha256>")`, { input: spec.name });
+    }
+    other.data[spec.name] = resolveDataset(spec.name, value, spec.datasetKind!, options.datasets);
+  }
+}
+
 /**
  * Runs a calculation type on evaluated values (undefined = left empty). Applies defaults,
  * checks dimensions and ranges, and checks that every numeric output is finite.
  */
-export function runBlockType(type: BlockTypeDefinition, values: Record<string, unknown>): BlockOutcome {
+export function runBlockType(type: BlockTypeDefinition, values: Record<string, unknown>, options: RunOptions = {}): BlockOutcome {
   if (!type.evaluate) throw new EngineError(`${type.id} blocks are not calculated`);
   const coerced: InputValues = {};
+  const other: OtherInputs = { text: {}, flags: {}, data: {} };
   for (const spec of type.inputs) {
     let value = values[spec.name];
     if (value === undefined && spec.default !== undefined) value = defaultValue(spec);
@@ -53,9 +89,10 @@ export function runBlockType(type: BlockTypeDefinition, values: Record<string, u
       if (spec.optional) continue;
       throw new EngineError(`${spec.name}: this input is required`, { input: spec.name });
     }
-    coerced[spec.name] = coerceBlockInput(spec, value);
+    if (NOT_QUANTITY.has(spec.dimension)) coerceOther(spec, value, other, options);
+    else coerced[spec.name] = coerceBlockInput(spec, value);
   }
-  const outcome = type.evaluate(coerced);
+  const outcome = type.evaluate(coerced, other);
   for (const [name, output] of Object.entries(outcome.outputs)) {
     if ('si' in output && !Number.isFinite(output.si)) {
       throw new EngineError(`${name}: the result is not finite (${output.si}); check the inputs`);

@@ -1,6 +1,9 @@
 /**
  * The shape of a block type: its documentation as data, and a pure evaluate().
  */
+import type { DatasetCanonical, DatasetKind } from './dataset';
+import { EngineError } from './errors';
+import type { ResolvedDataset } from './dataset-input';
 import type { DimensionKey, Quantity } from './units';
 
 /** A hard limit on an input: values outside it are an error for the block. */
@@ -28,6 +31,10 @@ export interface InputSpec {
   range?: InputRange;
   /** Suggested unit to type, in mathjs syntax (for forms). */
   unitHint?: string;
+  /** The allowed words of a text input (dimension "text"), lower case. */
+  choices?: readonly string[];
+  /** The dataset kind a data input (dimension "dataset") takes. */
+  datasetKind?: DatasetKind;
   help: string;
 }
 
@@ -54,6 +61,8 @@ export interface SeriesSpec {
 export interface WorkedExample {
   /** Input expressions by input name. */
   inputs: Record<string, string>;
+  /** Canonical datasets the example's data inputs refer to, by sha256. */
+  datasets?: Record<string, DatasetCanonical>;
   /** The output the expectation applies to (the primary one unless stated). */
   output: string;
   expected: { value: number; unit: string; relTol: number };
@@ -81,6 +90,16 @@ export interface BlockOutcome {
 /** Coerced inputs by name; optional inputs left out are undefined. */
 export type InputValues = Record<string, Quantity | undefined>;
 
+/**
+ * The inputs that are not quantities, coerced: text inputs (the chosen word, lower case),
+ * boolean inputs, and data inputs (resolved and in SI). Left out: undefined.
+ */
+export interface OtherInputs {
+  text: Record<string, string | undefined>;
+  flags: Record<string, boolean | undefined>;
+  data: Record<string, ResolvedDataset | undefined>;
+}
+
 export interface BlockTypeDefinition {
   id: string;
   title: string;
@@ -103,7 +122,7 @@ export interface BlockTypeDefinition {
   /** Whether the type is also a function in expressions. */
   expressionFunction: boolean;
   /** Pure evaluation from coerced inputs. Absent for quantities, formula and note. */
-  evaluate?: (inputs: InputValues) => BlockOutcome;
+  evaluate?: (inputs: InputValues, other: OtherInputs) => BlockOutcome;
 }
 
 /** The caution every calculation type carries. */
@@ -123,4 +142,18 @@ export function required(inputs: InputValues, name: string): number {
   const value = inputs[name];
   if (value === undefined) throw new Error(`internal: input ${name} missing`);
   return value.si;
+}
+
+/**
+ * A block error that still carries series (CONTRACT "Additions" §2: a data block in error keeps
+ * the `measured` series of its dataset, and nothing else).
+ */
+export class BlockFailure extends EngineError {
+  constructor(
+    message: string,
+    readonly series: Record<string, Series>,
+  ) {
+    super(message);
+    this.name = 'BlockFailure';
+  }
 }

@@ -3,8 +3,9 @@
  * graph orders the blocks, and each block becomes ok, error or blocked. Incremental evaluation
  * reuses previous results for blocks that neither changed nor depend on a change.
  */
-import { formatBlockOutput, runBlockType } from './block-run';
-import type { BlockTypeDefinition, Series } from './block-type';
+import { formatBlockOutput, runBlockType, type RunOptions } from './block-run';
+import { BlockFailure, type BlockTypeDefinition, type Series } from './block-type';
+import { DATA_INPUT_RULE, DatasetReference, parseDataInput } from './dataset-input';
 import { hashSheetDocument, type SheetBlock, type SheetDocument } from './document';
 import { EngineError, toSafeMessage } from './errors';
 import { checkExpression, type CheckedExpression, type OutputReference } from './expression';
@@ -44,6 +45,8 @@ interface PreparedBlock {
   block: SheetBlock;
   type: BlockTypeDefinition;
   inputs: Map<string, PreparedInput>;
+  /** Data inputs by name: the sha256 each refers to. */
+  data: Map<string, string>;
   references: OutputReference[];
   dependencies: string[];
   /** A fault found before evaluation (parse, refused function, unknown reference). */
@@ -94,12 +97,20 @@ function prepare(document: SheetDocument): Prepared {
   const blocks = new Map<string, PreparedBlock>();
   const nodes: GraphNode[] = [];
   for (const { block, type } of byName.values()) {
-    const prepared: PreparedBlock = { block, type, inputs: new Map(), references: [], dependencies: [] };
+    const prepared: PreparedBlock = { block, type, inputs: new Map(), data: new Map(), references: [], dependencies: [] };
     // The first fault found is the block's problem (inputs in document order).
     let problem: string | undefined;
     for (const input of Object.keys(block.inputs)) {
       const text = block.inputs[input]!;
       if (BLANK.test(text)) continue;
+      const spec = type.inputs.find((candidate) => candidate.name === input);
+      if (spec?.dimension === 'dataset') {
+        // A data input is one call with one string literal, never an expression (§7.6).
+        const sha256 = parseDataInput(text);
+        if (sha256 === null) problem ??= blockMessage(block.name, `${input}: ${DATA_INPUT_RULE}`);
+        else prepared.data.set(input, sha256);
+        continue;
+      }
       let checked: CheckedExpression;
       try {
         checked = checkExpression(text);
@@ -110,7 +121,9 @@ function prepare(document: SheetDocument): Prepared {
       prepared.inputs.set(input, { name: input, text, checked });
       if (problem === undefined && checked.freeSymbols.length > 0) {
         const symbol = checked.freeSymbols[0]!;
-        const message = byName.has(symbol) || notes.has(symbol)
+        const message = spec?.dimension === 'text' && !byName.has(symbol)
+          ? `write the word in double quotes, such as "${spec.choices?.[0] ?? symbol}" (a bare ${symbol} is read as a name)`
+          : byName.has(symbol) || notes.has(symbol)
           ? `"${symbol}" is a block; refer to one of its outputs as ${symbol}.<output>`
           : `unknown name "${symbol}" (not a block, unit, constant or function)`;
         problem = blockMessage(block.name, `${input}: ${message}`);
@@ -144,8 +157,10 @@ function prepare(document: SheetDocument): Prepared {
   return { blocks, graph: buildDependencyGraph(nodes) };
 }
 
-function failed(block: SheetBlock, status: 'error' | 'blocked', error: string): BlockResult {
-  return { id: block.id, type: block.type, status, error, warnings: [], outputs: {} };
+function failed(block: SheetBlock, status: 'error' | 'blocked', error: string, series?: Record<string, Series>): BlockResult {
+  const result: BlockResult = { id: block.id, type: block.type, status, error, warnings: [], outputs: {} };
+  if (series) result.series = series;
+  return result;
 }
 
 /** Evaluation state shared by the blocks of one run. */
@@ -154,6 +169,8 @@ class Run {
   private readonly scopeObjects = new Map<string, Record<string, unknown>>();
   /** One scope for every expression of the run, holding only what the current block reads. */
   private readonly scope = new Map<string, unknown>();
+
+  constructor(private readonly options: RunOptions = {}) {}
 
   /** The values of a block's outputs as expressions see them (rebuilt from the results). */
   scopeObject(name: string): Record<string, unknown> {
@@ -194,7 +211,8 @@ class Run {
     try {
       return this.compute(prepared, scope);
     } catch (error) {
-      return failed(block, 'error', blockMessage(block.name, toSafeMessage(error)));
+      const series = error instanceof BlockFailure ? error.series : undefined;
+      return failed(block, 'error', blockMessage(block.name, toSafeMessage(error)), series);
     } finally {
       scope.clear();
     }
@@ -231,8 +249,11 @@ class Run {
     }
 
     const values: Record<string, unknown> = {};
-    for (const spec of type.inputs) values[spec.name] = this.evaluateInput(prepared, spec.name, scope);
-    const outcome = runBlockType(type, values);
+    for (const spec of type.inputs) {
+      const sha256 = prepared.data.get(spec.name);
+      values[spec.name] = sha256 !== undefined ? new DatasetReference(sha256) : this.evaluateInput(prepared, spec.name, scope);
+    }
+    const outcome = runBlockType(type, values, this.options);
     const outputs: Record<string, FormattedOutput> = {};
     for (const spec of type.outputs) {
       const formatted = formatBlockOutput(spec, outcome, display?.[spec.name]);
@@ -259,9 +280,10 @@ function run(
   document: SheetDocument,
   reuse: (prepared: PreparedBlock, graph: DependencyGraph, reused: Set<string>) => BlockResult | null,
   sheetHash: string,
+  options: RunOptions,
 ): { results: SheetResults; evaluatedBlockIds: string[] } {
   const { blocks, graph } = prepare(document);
-  const state = new Run();
+  const state = new Run(options);
   const reused = new Set<string>();
   const evaluatedBlockIds: string[] = [];
   for (const name of graph.order) {
@@ -282,8 +304,8 @@ function run(
  * Evaluates every block of a (validated) sheet document. `sheetHash` is the document's hash
  * when the caller has it already (computed from the canonical text of the validation).
  */
-export function evaluateSheet(document: SheetDocument, sheetHash = hashSheetDocument(document)): SheetResults {
-  return run(document, () => null, sheetHash).results;
+export function evaluateSheet(document: SheetDocument, sheetHash = hashSheetDocument(document), options: RunOptions = {}): SheetResults {
+  return run(document, () => null, sheetHash, options).results;
 }
 
 /**
@@ -295,9 +317,10 @@ export function evaluateSheetIncremental(
   previous: SheetResults | null,
   changedBlockIds: readonly string[],
   sheetHash = hashSheetDocument(document),
+  options: RunOptions = {},
 ): { results: SheetResults; evaluatedBlockIds: string[] } {
   if (!previous || previous.engine !== ENGINE_VERSION || previous.format !== RESULTS_FORMAT) {
-    return run(document, () => null, sheetHash);
+    return run(document, () => null, sheetHash, options);
   }
   const changed = new Set(changedBlockIds);
   return run(document, (prepared, graph, reused) => {
@@ -306,6 +329,9 @@ export function evaluateSheetIncremental(
     if (!before || before.id !== block.id || before.type !== block.type) return null;
     if (changed.has(block.id) || prepared.problem || graph.cycles.has(block.name)) return null;
     if (!prepared.dependencies.every((dependency) => reused.has(dependency))) return null;
+    // A failed data block is tried again: the missing dataset may have been uploaded since.
+    // An ok one stays valid, since a dataset never changes under its hash.
+    if (prepared.data.size > 0 && before.status !== 'ok') return null;
     return before;
-  }, sheetHash);
+  }, sheetHash, options);
 }

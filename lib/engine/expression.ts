@@ -254,6 +254,15 @@ export function isExpressionFunction(name: string): boolean {
   return expressionFunctions.has(name);
 }
 
+// dataset("<sha256>") is only ever the whole text of a data input, which the evaluator reads
+// without running it (CONTRACT "Additions" §7.6). Anywhere else the call is a block error; it is
+// defined so that the name is reserved and the message says why.
+defineExpressionFunction('dataset', () => {
+  throw new EngineError(
+    'dataset(…) can only be the whole input of a data input (data of scarp_fit, profile_evolution or channel_march)',
+  );
+});
+
 /* ----------------------------------------------------------- reserved names */
 const KEYWORDS = new Set(['to', 'in', 'and', 'or', 'not', 'xor', 'mod', 'end', 'true', 'false', 'null', 'undefined']);
 

@@ -3,6 +3,7 @@
  * the client receives block-type metadata as plain data from blockCatalog().
  */
 import type { BlockTypeDefinition, InputSpec, OutputSpec, SeriesSpec, WorkedExample } from './block-type';
+import type { DatasetLookup } from './dataset';
 import { checkSheetDocument, hashCanonicalText, type SheetDocument } from './document';
 import { EngineError, toSafeMessage } from './errors';
 import {
@@ -28,6 +29,9 @@ export type { ParseSheetResult, SheetBlock, SheetDocument } from './document';
 export { EngineError } from './errors';
 export type { Series } from './block-type';
 export { MAX_EXPRESSION_LENGTH } from './expression';
+export { DATASET_COLUMNS, DATASET_FORMAT, DATASET_KINDS, SHA256_PATTERN, canonicalDatasetJson, hashDataset } from './dataset';
+export type { DatasetCanonical, DatasetColumn, DatasetKind, DatasetLookup } from './dataset';
+export { parseDataInput } from './dataset-input';
 
 /** The answer of a quick calculation. */
 export type QuickResult = FormattedOutput;
@@ -39,10 +43,16 @@ function assertValid(document: SheetDocument): { document: SheetDocument; sheetH
   return { document: checked.document, sheetHash: hashCanonicalText(checked.canonical) };
 }
 
+/** What an evaluation may use besides the document. */
+export interface EvaluateOptions {
+  /** Canonical datasets by sha256, for data inputs `dataset("<sha256>")` (CONTRACT §7.6). */
+  datasets?: DatasetLookup;
+}
+
 /** Evaluates every block of a sheet. Throws EngineError when the document is invalid. */
-export function evaluateSheet(document: SheetDocument): SheetResults {
+export function evaluateSheet(document: SheetDocument, options: EvaluateOptions = {}): SheetResults {
   const valid = assertValid(document);
-  return evaluateValidSheet(valid.document, valid.sheetHash);
+  return evaluateValidSheet(valid.document, valid.sheetHash, options);
 }
 
 /**
@@ -53,9 +63,10 @@ export function evaluateSheetIncremental(
   document: SheetDocument,
   previous: SheetResults | null,
   changedBlockIds: string[],
+  options: EvaluateOptions = {},
 ): { results: SheetResults; evaluatedBlockIds: string[] } {
   const valid = assertValid(document);
-  return evaluateValidSheetIncremental(valid.document, previous, changedBlockIds, valid.sheetHash);
+  return evaluateValidSheetIncremental(valid.document, previous, changedBlockIds, valid.sheetHash, options);
 }
 
 /**

@@ -3,6 +3,7 @@
  */
 import type { BlockTypeDefinition } from './block-type';
 import { advectiveGeotherm } from './blocks/advective-geotherm';
+import { channelMarch } from './blocks/channel-march';
 import { denudationConversion } from './blocks/denudation-conversion';
 import { formula } from './blocks/formula';
 import { hillslopeDiffusion } from './blocks/hillslope-diffusion';
@@ -34,6 +35,7 @@ export const BLOCK_TYPES: readonly BlockTypeDefinition[] = [
   steadyStateChannel,
   isostaticResponse,
   denudationConversion,
+  channelMarch,
 ];
 
 const byId = new Map(BLOCK_TYPES.map((type) => [type.id, type]));

@@ -19,7 +19,10 @@ export type DimensionKey =
   | 'temperature'
   | 'slope'
   | 'dimensionless'
-  | 'variable';
+  | 'variable'
+  | 'text'
+  | 'boolean'
+  | 'dataset';
 
 export interface DimensionInfo {
   key: DimensionKey;
@@ -43,6 +46,9 @@ export const DIMENSIONS: Record<DimensionKey, DimensionInfo> = {
   slope: { key: 'slope', symbol: '1', noun: 'a slope (a gradient such as 0.2, or an angle such as 25 deg)', reference: null },
   dimensionless: { key: 'dimensionless', symbol: '1', noun: 'a dimensionless number', reference: null },
   variable: { key: 'variable', symbol: 'varies', noun: 'a quantity', reference: null },
+  text: { key: 'text', symbol: 'text', noun: 'a word in double quotes', reference: null },
+  boolean: { key: 'boolean', symbol: 'true/false', noun: 'true or false', reference: null },
+  dataset: { key: 'dataset', symbol: 'dataset', noun: 'a dataset reference, dataset("<sha256>")', reference: null },
 };
 
 /** A coerced input: its SI value (K for temperatures, a gradient for slopes) and dimensions. */

@@ -1,5 +1,5 @@
 import { describe, expect, it } from 'vitest';
-import { blockCatalog, evaluateSheet, type SheetBlock } from '@/lib/engine';
+import { blockCatalog, evaluateSheet, hashDataset, type SheetBlock } from '@/lib/engine';
 import { coerceBlockInput, defaultValue } from '@/lib/engine/block-run';
 import { BLOCK_TYPES } from '@/lib/engine/registry';
 import { unitTemplate } from '@/lib/engine/units';
@@ -14,7 +14,7 @@ describe('registry', () => {
       [
         'quantities', 'formula', 'note', 'hillslope_diffusion', 'hilltop_erosion', 'scarp_forward', 'scarp_age',
         'transport_capacity', 'net_change', 'peclet_number', 'advective_geotherm', 'stream_power',
-        'steady_state_channel', 'isostatic_response', 'denudation_conversion',
+        'steady_state_channel', 'isostatic_response', 'denudation_conversion', 'channel_march',
       ].sort(),
     );
   });
@@ -47,7 +47,9 @@ describe('registry', () => {
 
       it('should have defaults that pass their own checks', () => {
         for (const input of type.inputs.filter((i) => i.default !== undefined)) {
-          expect(() => coerceBlockInput(input, defaultValue(input))).not.toThrow();
+          if (input.dimension === 'text') expect(input.choices).toContain(defaultValue(input));
+          else if (input.dimension === 'boolean') expect(typeof defaultValue(input)).toBe('boolean');
+          else expect(() => coerceBlockInput(input, defaultValue(input))).not.toThrow();
         }
       });
 
@@ -55,7 +57,9 @@ describe('registry', () => {
         const example = type.example;
         it(`should evaluate its worked example to the stated result (${example.source})`, () => {
           const block: SheetBlock = { id: 'ex', name: 'example', type: type.id, inputs: example.inputs };
-          const result = evaluateSheet(sheet([block])).blocks.example!;
+          const datasets = new Map(Object.entries(example.datasets ?? {}));
+          for (const [sha256, canonical] of datasets) expect(hashDataset(canonical)).toBe(sha256);
+          const result = evaluateSheet(sheet([block]), { datasets }).blocks.example!;
           expect(result.status, result.error).toBe('ok');
           const output = result.outputs[example.output]!;
           expect(output.unit).toBe(example.expected.unit);

@@ -77,7 +77,8 @@ function touch(document: SheetDocument, id: string): SheetDocument {
   const edited = structuredClone(document);
   const block = edited.blocks.find((b) => b.id === id)!;
   for (const name of Object.keys(block.inputs)) {
-    if (block.inputs[name]!.trim() !== '') block.inputs[name] = `(${block.inputs[name]})`;
+    // A data input is exactly dataset("<sha256>") (CONTRACT §7.6), so it cannot be wrapped.
+    if (block.inputs[name]!.trim() !== '' && !/^\s*dataset\(/.test(block.inputs[name]!)) block.inputs[name] = `(${block.inputs[name]})`;
   }
   return edited;
 }

@@ -1,0 +1,149 @@
+import { describe, expect, it } from 'vitest';
+import { evaluateSheet, hashDataset, type DatasetCanonical, type SheetDocument } from '@/lib/engine';
+import { caseDatasets, checkKey, comparableKeys, dataCase } from '../../support/data-cases';
+
+// channel_march (CONTRACT "Additions" §4.3; FORMULAS §16): the explicit march of reference case
+// P10 (Beaumont, Fullsack & Hamilton 1992; Kooi & Beaumont 1994) over a long-profile dataset,
+// with porosity in the volume balance (Exner 1925; Paola & Voller 2005).
+
+function profile(rows: number[][], third: 'discharge' | 'drainage_area' = 'discharge', units = ['m', 'm', 'm^2/yr']): DatasetCanonical {
+  return {
+    columns: [
+      { name: 'distance', unit: units[0]! },
+      { name: 'elevation', unit: units[1]! },
+      { name: third, unit: units[2]! },
+    ],
+    format: 'denudata-dataset@1',
+    kind: 'long_profile',
+    rows,
+  };
+}
+
+function march(dataset: DatasetCanonical, inputs: Record<string, string>) {
+  const sha = hashDataset(dataset);
+  const document: SheetDocument = {
+    format: 'denudata-sheet@1',
+    title: 'march',
+    blocks: [{ id: 'b1', name: 'march', type: 'channel_march', inputs: { data: `dataset("${sha}")`, ...inputs } }],
+  };
+  return evaluateSheet(document, { datasets: new Map([[sha, dataset]]) }).blocks.march!;
+}
+
+for (const id of ['P46', 'P47']) {
+  const c = dataCase(id);
+  describe(`channel_march, reference case ${id} (${c.source})`, () => {
+    const results = evaluateSheet(c.sheet!, { datasets: caseDatasets(c) });
+    it('should be ok without warnings', () => {
+      const result = results.blocks.march!;
+      expect(result.status, result.error).toBe('ok');
+      expect(result.warnings).toEqual([]);
+    });
+    for (const key of comparableKeys(c)) {
+      it(`should match ${key}`, () => {
+        expect(checkKey(results, key, c.expected[key]!)).toBeNull();
+      });
+    }
+  });
+}
+
+describe('channel_march against P10 node by node (Beaumont et al. 1992; Kooi & Beaumont 1994)', () => {
+  const p10 = dataCase('P10');
+  const p46 = dataCase('P46');
+  const result = evaluateSheet(p46.sheet!, { datasets: caseDatasets(p46) }).blocks.march!;
+  const yr = 365.25 * 86400;
+  it('should reproduce q_eq, q_in, dz/dt and q_out of P10 to 1e-9', () => {
+    const expectList = (got: number[], want: number[], scale = 1) => {
+      expect(got).toHaveLength(want.length);
+      want.forEach((w, i) => expect(Math.abs(got[i]! / scale - w)).toBeLessThanOrEqual(1e-9 * Math.abs(w) + 1e-15));
+    };
+    expectList(result.series!.capacity!.y, p10.expected.q_eq!.value as number[]);
+    expectList(result.series!.flux!.y.slice(0, 5), p10.expected.q_in!.value as number[]);
+    expectList(result.series!.flux!.y.slice(1), p10.expected.q_out!.value as number[]);
+    expectList(result.series!.dz_dt!.y, p10.expected.dz_dt!.value as number[], 1000); // mm/yr → m/yr
+    expect(yr).toBe(31557600);
+  });
+});
+
+describe('channel_march volume balance (FORMULAS §16: q_out − q_top = (1 − φ)(eroded − deposited))', () => {
+  it('should hold exactly on an irregular profile with reverse slopes and porosity', () => {
+    const rows: number[][] = [];
+    let z = 300;
+    for (let i = 0; i < 60; i++) {
+      const x = i * 97 + 13 * Math.sin(i);
+      z -= 0.4 + 0.6 * Math.sin(1.3 * i); // some reverse slopes
+      rows.push([x, z, 5000 + 300 * i]);
+    }
+    const result = march(profile(rows), { coefficient: '0.03', length_scale: '600 m', incoming_flux: '3 m^2/yr', porosity: '0.35' });
+    expect(result.status, result.error).toBe('ok');
+    const out = result.outputs.outgoing_flux!.value as number;
+    const eroded = result.outputs.eroded_volume_rate!.value as number;
+    const deposited = result.outputs.deposited_volume_rate!.value as number;
+    expect(Math.abs(out - 3 - 0.65 * (eroded - deposited))).toBeLessThan(1e-12 * Math.max(out, eroded));
+    expect(result.outputs.net_volume_rate!.value).toBeCloseTo(deposited - eroded, 12);
+    expect(result.warnings.some((w) => /^reverse slope on \d+ reach\(es\), first at distance .* m: capacity set to 0$/.test(w))).toBe(true);
+  });
+});
+
+describe('channel_march inputs, units and drainage area', () => {
+  it('should convert declared units (km, ft, km^2) to SI before marching', () => {
+    // P47's profile with distance in km and elevation in ft gives the same march.
+    const c = dataCase('P47');
+    const base = [...caseDatasets(c).values()][0]!;
+    const converted: DatasetCanonical = {
+      ...base,
+      columns: [
+        { name: 'distance', unit: 'km' },
+        { name: 'elevation', unit: 'ft' },
+        { name: 'drainage_area', unit: 'km^2' },
+      ],
+      rows: base.rows.map(([x, z, a]) => [x! / 1000, z! / 0.3048, a!]),
+    };
+    const result = march(converted, { coefficient: '0.002', length_scale: '1.5 km', incoming_flux: '2 m^2/yr', porosity: '0.3', runoff: '0.8 m/yr', width: '6 m' });
+    expect(result.status, result.error).toBe('ok');
+    expect(Math.abs((result.outputs.outgoing_flux!.value as number) / 15.9904747103 - 1)).toBeLessThan(1e-9);
+  });
+
+  it('should refuse a reach not shorter than length_scale', () => {
+    const result = march(profile([[0, 10, 100], [500, 9, 100], [1000, 8, 100]]), { coefficient: '0.01', length_scale: '500 m' });
+    expect(result.status).toBe('error');
+    expect(result.error).toContain('explicit march needs every reach shorter than length_scale');
+    expect(Object.keys(result.outputs)).toEqual([]);
+    expect(Object.keys(result.series ?? {})).toEqual(['measured']);
+  });
+
+  it('should refuse a drainage_area dataset without runoff and width', () => {
+    const data = profile([[0, 10, 1], [100, 9, 2], [200, 8, 3]], 'drainage_area', ['m', 'm', 'km^2']);
+    expect(march(data, { coefficient: '0.01', length_scale: '500 m', runoff: '1 m/yr' }).error).toContain('needs both runoff and width');
+    expect(march(data, { coefficient: '0.01', length_scale: '500 m' }).error).toContain('needs both runoff and width');
+  });
+
+  it('should refuse runoff or width with a discharge dataset', () => {
+    const data = profile([[0, 10, 100], [100, 9, 100], [200, 8, 100]]);
+    expect(march(data, { coefficient: '0.01', length_scale: '500 m', width: '3 m' }).error).toContain('runoff and width apply only to a drainage_area dataset');
+  });
+
+  it.each([
+    ['coefficient', '-0.1', 'coefficient: must be ≥ 0'],
+    ['length_scale', '0 m', 'length_scale: must be > 0'],
+    ['incoming_flux', '-1 m^2/yr', 'incoming_flux: must be ≥ 0'],
+    ['porosity', '1', 'porosity: must be 0 ≤ φ < 1'],
+    ['porosity', '-0.1', 'porosity: must be 0 ≤ φ < 1'],
+  ])('should refuse %s = %s', (name, value, message) => {
+    const inputs: Record<string, string> = { coefficient: '0.01', length_scale: '500 m', [name]: value };
+    expect(march(profile([[0, 10, 100], [100, 9, 100], [200, 8, 100]]), inputs).error).toContain(message);
+  });
+
+  it('should refuse runoff ≤ 0 and width ≤ 0', () => {
+    const data = profile([[0, 10, 1], [100, 9, 2], [200, 8, 3]], 'drainage_area', ['m', 'm', 'km^2']);
+    expect(march(data, { coefficient: '0.01', length_scale: '500 m', runoff: '0 m/yr', width: '2 m' }).error).toContain('runoff: must be > 0');
+    expect(march(data, { coefficient: '0.01', length_scale: '500 m', runoff: '1 m/yr', width: '-2 m' }).error).toContain('width: must be > 0');
+  });
+
+  it('should warn for long reaches and a drainage area that decreases downstream', () => {
+    const data = profile([[0, 10, 3], [300, 9, 2], [400, 8, 3]], 'drainage_area', ['m', 'm', 'km^2']);
+    const result = march(data, { coefficient: '0.01', length_scale: '500 m', runoff: '1 m/yr', width: '5 m' });
+    expect(result.status, result.error).toBe('ok');
+    expect(result.warnings.some((w) => w.includes('longer than half the length_scale'))).toBe(true);
+    expect(result.warnings.some((w) => w.startsWith('drainage area decreases downstream on 1 reach(es), first at distance 0 m'))).toBe(true);
+  });
+});
