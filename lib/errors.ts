@@ -26,19 +26,26 @@ export class AppError extends Error {
   readonly field?: string;
   /** Extra members of the error body, such as `current` on a conflict. */
   readonly extra?: Record<string, unknown>;
+  /** Extra members of the error object itself, such as `position` on a parse error. */
+  readonly detail?: Record<string, unknown>;
 
-  constructor(code: ErrorCode, message: string, options: { field?: string; extra?: Record<string, unknown> } = {}) {
+  constructor(
+    code: ErrorCode,
+    message: string,
+    options: { field?: string; extra?: Record<string, unknown>; detail?: Record<string, unknown> } = {},
+  ) {
     super(message);
     this.name = 'AppError';
     this.code = code;
     this.status = STATUS[code];
     this.field = options.field;
     this.extra = options.extra;
+    this.detail = options.detail;
   }
 
   toBody() {
     return {
-      error: { code: this.code, message: this.message, ...(this.field ? { field: this.field } : {}) },
+      error: { code: this.code, message: this.message, ...(this.field ? { field: this.field } : {}), ...this.detail },
       ...this.extra,
     };
   }

@@ -39,6 +39,12 @@ export function HelpPanel({ block, type, standingCaution }: { block: SheetBlock 
                   </span>
                   <br />
                   {input.help}
+                  {input.typical ? (
+                    <>
+                      <br />
+                      <span>Typical: {input.typical}</span>
+                    </>
+                  ) : null}
                 </dd>
               </div>
             ))}

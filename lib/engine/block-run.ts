@@ -9,6 +9,7 @@ import { DatasetReference, resolveDataset } from './dataset-input';
 import { EngineError } from './errors';
 import { checkExpression, defineExpressionFunction } from './expression';
 import { BLOCK_TYPES } from './registry';
+import { BARE_HILLSLOPE_LIMIT, BARE_SLOPE_LIMIT, CHANNEL_SLOPE_INPUTS, isImplausible, typicalRange } from './typical-ranges';
 import { coerceInput, describeValue, formatFromSI, quantityFromSI, sameDimension, type FormattedOutput, type Quantity } from './units';
 
 function inRange(spec: InputSpec, quantity: Quantity): boolean {
@@ -31,6 +32,29 @@ export function coerceBlockInput(spec: InputSpec, value: unknown): Quantity {
     });
   }
   return quantity;
+}
+
+/** Warnings for a value typed by the user that is probably a units slip (typical-ranges.ts). */
+function plausibilityWarnings(typeId: string, spec: InputSpec, value: unknown, quantity: Quantity): string[] {
+  const warnings: string[] = [];
+  const key = `${typeId}.${spec.name}`;
+  const plainNumber = typeof value === 'number';
+  const bareLimit = CHANNEL_SLOPE_INPUTS.has(key) ? BARE_SLOPE_LIMIT : BARE_HILLSLOPE_LIMIT;
+  if (spec.dimension === 'slope' && plainNumber && Math.abs(quantity.si) > bareLimit) {
+    const degrees = (Math.atan(Math.abs(quantity.si)) * 180) / Math.PI;
+    const what = CHANNEL_SLOPE_INPUTS.has(key) ? 'a river' : 'a soil-mantled slope or scarp face';
+    warnings.push(
+      `${spec.name} = ${describeValue(value)} is a gradient of ${describeValue(value)} (${degrees.toFixed(0)}°), far steeper than ${what}: did you mean degrees? Write ${describeValue(value)} deg`,
+    );
+    return warnings;
+  }
+  const range = typicalRange(typeId, spec.name);
+  if (range && isImplausible(range, quantity.si)) {
+    warnings.push(
+      `${spec.name} = ${describeValue(value)} is more than 100 times outside the typical range ${range.text} (${range.source}): check the value and its unit`,
+    );
+  }
+  return warnings;
 }
 
 const defaultValues = new Map<string, unknown>();
@@ -82,17 +106,25 @@ export function runBlockType(type: BlockTypeDefinition, values: Record<string, u
   if (!type.evaluate) throw new EngineError(`${type.id} blocks are not calculated`);
   const coerced: InputValues = {};
   const other: OtherInputs = { text: {}, flags: {}, data: {} };
+  const plausibility: string[] = [];
   for (const spec of type.inputs) {
     let value = values[spec.name];
+    const given = value !== undefined;
     if (value === undefined && spec.default !== undefined) value = defaultValue(spec);
     if (value === undefined) {
       if (spec.optional) continue;
       throw new EngineError(`${spec.name}: this input is required`, { input: spec.name });
     }
-    if (NOT_QUANTITY.has(spec.dimension)) coerceOther(spec, value, other, options);
-    else coerced[spec.name] = coerceBlockInput(spec, value);
+    if (NOT_QUANTITY.has(spec.dimension)) {
+      coerceOther(spec, value, other, options);
+      continue;
+    }
+    const quantity = coerceBlockInput(spec, value);
+    coerced[spec.name] = quantity;
+    if (given) plausibility.push(...plausibilityWarnings(type.id, spec, value, quantity));
   }
   const outcome = type.evaluate(coerced, other);
+  if (plausibility.length > 0) outcome.warnings = [...plausibility, ...outcome.warnings];
   for (const [name, output] of Object.entries(outcome.outputs)) {
     if ('si' in output && !Number.isFinite(output.si)) {
       throw new EngineError(`${name}: the result is not finite (${output.si}); check the inputs`);
@@ -125,6 +157,33 @@ export function formatBlockOutput(spec: OutputSpec, outcome: BlockOutcome, displ
 }
 
 /* ------------------------------------------------------- expression functions */
+/**
+ * Warnings raised by block types called as functions inside an expression. The evaluation of a
+ * block (or a quick calculation) opens a collector; each function call adds its warnings to it,
+ * naming the function, so that a warning never vanishes because a relation was written as a call.
+ */
+let warningCollector: string[] | null = null;
+
+/** Runs fn with a fresh collector and returns what it collected (nested calls are safe). */
+export function collectCallWarnings<T>(fn: () => T): { value: T; warnings: string[] } {
+  const previous = warningCollector;
+  const warnings: string[] = [];
+  warningCollector = warnings;
+  try {
+    return { value: fn(), warnings };
+  } finally {
+    warningCollector = previous;
+  }
+}
+
+function reportCallWarnings(type: BlockTypeDefinition, warnings: readonly string[]): void {
+  if (!warningCollector) return;
+  for (const warning of warnings) {
+    const text = `${type.id}(…): ${warning}`;
+    if (!warningCollector.includes(text)) warningCollector.push(text);
+  }
+}
+
 function expressionFunctionFor(type: BlockTypeDefinition) {
   const primary = type.outputs[0]!;
   const names = type.inputs.map((spec) => spec.name).join(', ');
@@ -143,6 +202,7 @@ function expressionFunctionFor(type: BlockTypeDefinition) {
       if (error instanceof EngineError) throw new EngineError(`${type.id}: ${error.message}`, error);
       throw error;
     }
+    reportCallWarnings(type, outcome.warnings);
     const output = outcome.outputs[primary.name]!;
     if ('text' in output) return output.text;
     const unit = output.unit ?? primary.unit ?? '';

@@ -7,6 +7,8 @@ export interface EngineErrorDetails {
   input?: string;
   expected?: string;
   given?: string;
+  /** 0-based character index in the expression as typed, for parse errors. */
+  position?: number;
 }
 
 export class EngineError extends Error {
@@ -14,6 +16,7 @@ export class EngineError extends Error {
   readonly input?: string;
   readonly expected?: string;
   readonly given?: string;
+  readonly position?: number;
 
   constructor(message: string, details: EngineErrorDetails = {}) {
     super(message);
@@ -22,6 +25,7 @@ export class EngineError extends Error {
     this.input = details.input;
     this.expected = details.expected;
     this.given = details.given;
+    if (details.position !== undefined) this.position = details.position;
   }
 }
 
@@ -40,6 +44,14 @@ export function toSafeMessage(error: unknown): string {
     return 'the expression is nested too deeply';
   }
   if (error instanceof Error) {
+    if (/^Unexpected type of argument in function to\b/.test(error.message)) {
+      return 'to converts a value that has a unit, and the value before it is a plain number (atan, asin and acos give radians as plain numbers: write (atan(x) rad) to deg)';
+    }
+    const typeError = /^Unexpected type of argument in function (\w+) \(expected: ([^,]+?)(?:, actual: ([^,]+))?, index: (\d+)\)/.exec(error.message);
+    if (typeError) {
+      const [, fn, expected, actual, index] = typeError;
+      return `${fn}: input ${Number(index) + 1} should be ${expected!.replace(/ or /g, ' or ')}${actual ? `, not ${actual}` : ''}`;
+    }
     // mathjs messages are short and describe the expression; keep the first line only.
     const first = error.message.split('\n')[0]?.trim() ?? '';
     return first.length > 0 ? first.slice(0, 300) : 'the expression could not be evaluated';

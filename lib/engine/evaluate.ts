@@ -3,7 +3,7 @@
  * graph orders the blocks, and each block becomes ok, error or blocked. Incremental evaluation
  * reuses previous results for blocks that neither changed nor depend on a change.
  */
-import { formatBlockOutput, runBlockType, type RunOptions } from './block-run';
+import { collectCallWarnings, formatBlockOutput, runBlockType, type RunOptions } from './block-run';
 import { BlockFailure, type BlockTypeDefinition, type Series } from './block-type';
 import { DATA_INPUT_RULE, DatasetReference, parseDataInput } from './dataset-input';
 import { hashSheetDocument, type SheetBlock, type SheetDocument } from './document';
@@ -218,11 +218,19 @@ class Run {
     }
   }
 
+  /** Warnings of block-type functions called in the current block's expressions. */
+  private callWarnings: string[] = [];
+
   private evaluateInput(prepared: PreparedBlock, name: string, scope: Map<string, unknown>): unknown {
     const input = prepared.inputs.get(name);
     if (!input) return undefined;
     try {
-      return input.checked.evaluate(scope);
+      const { value, warnings } = collectCallWarnings(() => input.checked.evaluate(scope));
+      for (const warning of warnings) {
+        const text = `${name}: ${warning}`;
+        if (!this.callWarnings.includes(text)) this.callWarnings.push(text);
+      }
+      return value;
     } catch (error) {
       throw new EngineError(`${name}: ${toSafeMessage(error)}`, { input: name });
     }
@@ -231,6 +239,7 @@ class Run {
   private compute(prepared: PreparedBlock, scope: Map<string, unknown>): BlockResult {
     const { block, type } = prepared;
     const display = block.display;
+    this.callWarnings = [];
 
     if (type.freeInputs || type.id === 'formula') {
       const outputs: Record<string, FormattedOutput> = {};
@@ -245,7 +254,7 @@ class Run {
           throw new EngineError(`${name}: ${toSafeMessage(error)}`, { input: name });
         }
       }
-      return { id: block.id, type: block.type, status: 'ok', warnings: [], outputs };
+      return { id: block.id, type: block.type, status: 'ok', warnings: this.callWarnings, outputs };
     }
 
     const values: Record<string, unknown> = {};
@@ -259,7 +268,8 @@ class Run {
       const formatted = formatBlockOutput(spec, outcome, display?.[spec.name]);
       if (formatted) outputs[spec.name] = formatted;
     }
-    const result: BlockResult = { id: block.id, type: block.type, status: 'ok', warnings: outcome.warnings, outputs };
+    const warnings = this.callWarnings.length > 0 ? [...outcome.warnings, ...this.callWarnings] : outcome.warnings;
+    const result: BlockResult = { id: block.id, type: block.type, status: 'ok', warnings, outputs };
     if (outcome.series) result.series = outcome.series;
     return result;
   }

@@ -9,6 +9,8 @@
  */
 import { all, create, type MathNode, type Unit } from 'mathjs';
 import { EngineError } from './errors';
+import { explainParseError, rewriteNaturalInput } from './natural-input';
+import { temperatureArithmetic } from './temperature';
 
 export const MAX_EXPRESSION_LENGTH = 2000;
 export const MAX_EXPRESSION_NODES = 1000;
@@ -24,6 +26,8 @@ math.createUnit('yr', { definition: '365.25 day', aliases: ['yrs'] });
 math.createUnit('kyr', { definition: '1000 yr', aliases: ['kyrs', 'ka'] });
 math.createUnit('Myr', { definition: '1e6 yr', aliases: ['Myrs', 'Ma'] });
 math.createUnit('Gyr', { definition: '1e9 yr', aliases: ['Gyrs', 'Ga'] });
+// The annus on its own (1 mm/a), the trade's usual unit beside ka, Ma and Ga (CONTRACT §3).
+math.createUnit('a', { definition: '1 yr' });
 
 // How a result is shown when no display unit is given, fixed for reproducibility.
 // mathjs shows a product, quotient or power of quantities (e.g. (2 J) / (1 s)) through
@@ -118,6 +122,8 @@ const original = {
   identity: math.identity as unknown as AnyFunction,
   range: math.range as unknown as AnyFunction,
   matrix: math.matrix as unknown as AnyFunction,
+  add: math.add as unknown as AnyFunction,
+  subtract: math.subtract as unknown as AnyFunction,
 };
 
 /** Namespace names known before any engine function is added (for the reserved-name check). */
@@ -206,6 +212,7 @@ privateImport(
   {
     ...Object.fromEntries(LOCKED_FUNCTIONS.map((name) => [name, refused(name)])),
     ...boundedConstructors,
+    ...temperatureArithmetic(math, original.add, original.subtract),
   },
   { override: true },
 );
@@ -403,13 +410,13 @@ export function checkExpression(text: string): CheckedExpression {
   }
   if (text.trim() === '') throw new EngineError('the expression is empty');
   checkNesting(text);
+  const rewritten = rewriteNaturalInput(text);
   let node: MathNode;
   try {
-    node = privateParse(text);
+    node = privateParse(rewritten.text);
   } catch (error) {
     if (error instanceof RangeError) throw new EngineError('the expression is nested too deeply');
-    const message = error instanceof Error ? error.message : 'unreadable';
-    throw new EngineError(`the expression does not parse: ${message}`);
+    throw explainParseError(error, text, rewritten);
   }
   const state: Walk = { nodes: 0, references: new Map(), freeSymbols: new Set() };
   walk(node, state, 0);

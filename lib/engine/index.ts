@@ -12,8 +12,10 @@ import {
   evaluateSheetIncremental as evaluateValidSheetIncremental,
   type SheetResults,
 } from './evaluate';
+import { collectCallWarnings } from './block-run';
 import { checkExpression } from './expression';
 import { BLOCK_TYPES } from './registry';
+import { typicalRange } from './typical-ranges';
 import { DIMENSIONS, formatValue, type DimensionInfo, type FormattedOutput } from './units';
 
 export { ENGINE_VERSION, RESULTS_FORMAT } from './evaluate';
@@ -33,8 +35,8 @@ export { DATASET_COLUMNS, DATASET_FORMAT, DATASET_KINDS, SHA256_PATTERN, canonic
 export type { DatasetCanonical, DatasetColumn, DatasetKind, DatasetLookup } from './dataset';
 export { parseDataInput } from './dataset-input';
 
-/** The answer of a quick calculation. */
-export type QuickResult = FormattedOutput;
+/** The answer of a quick calculation, with the warnings of any block-type function it called. */
+export type QuickResult = FormattedOutput & { warnings: string[] };
 
 /** Validates once (zod, then the canonical JSON that also gives the hash). */
 function assertValid(document: SheetDocument): { document: SheetDocument; sheetHash: string } {
@@ -84,7 +86,8 @@ export function evaluateQuick(expr: string): QuickResult {
     if (checked.freeSymbols.length > 0) {
       throw new EngineError(`unknown name "${checked.freeSymbols[0]}" (not a unit, constant or function)`);
     }
-    return formatValue(checked.evaluate(new Map()), undefined);
+    const { value, warnings } = collectCallWarnings(() => checked.evaluate(new Map()));
+    return { ...formatValue(value, undefined), warnings };
   } catch (error) {
     if (error instanceof EngineError) throw error;
     throw new EngineError(toSafeMessage(error));
@@ -94,6 +97,8 @@ export function evaluateQuick(expr: string): QuickResult {
 /* ------------------------------------------------------------------ catalog */
 export interface InputInfo extends Omit<InputSpec, 'dimension'> {
   dimension: DimensionInfo;
+  /** The typical range in words with its source, for plausibility warnings and help. */
+  typical: { text: string; source: string } | null;
 }
 
 /** Plain, JSON-serialisable metadata of a block type (no functions). */
@@ -122,7 +127,10 @@ function describe(type: BlockTypeDefinition): BlockTypeInfo {
     purpose: type.purpose,
     formula: { ...type.formula },
     sources: [...type.sources],
-    inputs: type.inputs.map((input) => ({ ...input, dimension: { ...DIMENSIONS[input.dimension] } })),
+    inputs: type.inputs.map((input) => {
+      const typical = typicalRange(type.id, input.name);
+      return { ...input, dimension: { ...DIMENSIONS[input.dimension] }, typical: typical ? { text: typical.text, source: typical.source } : null };
+    }),
     freeInputs: type.freeInputs ?? false,
     outputs: type.outputs.map((output) => ({ ...output })),
     series: (type.series ?? []).map((series) => ({ ...series })),

@@ -135,7 +135,17 @@ export function coerceInput(input: string, dimension: DimensionKey, value: unkno
   if (dimension === 'variable') {
     result = { si: unit.toSI().toNumber(), dimensions: [...unit.dimensions] };
   } else if (dimension === 'slope') {
-    if (isAngle(unit)) result = { si: Math.tan(unit.toNumber('rad')), dimensions: ZERO_DIMENSIONS };
+    if (isAngle(unit)) {
+      const radians = unit.toNumber('rad');
+      if (!(Math.abs(radians) < Math.PI / 2)) {
+        throw new EngineError(`${input}: an angle of 90° or more is not a slope (got ${describeValue(value)}); give an angle between -90° and 90°, or a gradient`, {
+          input,
+          expected: 'an angle between -90° and 90°',
+          given: describeValue(value),
+        });
+      }
+      result = { si: Math.tan(radians), dimensions: ZERO_DIMENSIONS };
+    }
     else if (isDimensionless(unit)) result = { si: unit.toSI().toNumber(), dimensions: ZERO_DIMENSIONS };
     else throw mismatch(input, info, value);
   } else if (dimension === 'dimensionless') {

@@ -52,7 +52,7 @@ async function runTask<T>(task: EvaluationTask): Promise<T> {
     }
     throw error;
   }
-  if (!reply.ok) throw new EngineError(reply.message);
+  if (!reply.ok) throw new EngineError(reply.message, reply.position === undefined ? {} : { position: reply.position });
   return reply.value as T;
 }
 

@@ -10,7 +10,7 @@ export type EvaluationTask =
   | { kind: 'incremental'; document: SheetDocument; previous: SheetResults | null; changedBlockIds: string[] }
   | { kind: 'quick'; expr: string };
 
-export type EvaluationReply = { ok: true; value: unknown } | { ok: false; message: string };
+export type EvaluationReply = { ok: true; value: unknown } | { ok: false; message: string; position?: number };
 
 export default function runEvaluationTask(task: EvaluationTask): EvaluationReply {
   try {
@@ -25,6 +25,7 @@ export default function runEvaluationTask(task: EvaluationTask): EvaluationReply
         return { ok: false, message: 'unknown evaluation task' };
     }
   } catch (error) {
-    return { ok: false, message: error instanceof EngineError ? error.message : 'the evaluation failed unexpectedly' };
+    if (!(error instanceof EngineError)) return { ok: false, message: 'the evaluation failed unexpectedly' };
+    return error.position === undefined ? { ok: false, message: error.message } : { ok: false, message: error.message, position: error.position };
   }
 }

@@ -25,6 +25,7 @@ export function clientCatalog(): BlockCatalogData {
       ...(input.optional ? { optional: true } : {}),
       ...(input.range ? { range: input.range.text } : {}),
       ...(input.unitHint ? { unitHint: input.unitHint } : {}),
+      ...(input.typical ? { typical: `${input.typical.text} (${input.typical.source})` } : {}),
       help: input.help,
     })),
     freeInputs: type.freeInputs,

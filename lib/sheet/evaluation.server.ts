@@ -22,6 +22,8 @@ export function asEvaluationError(error: unknown): Error {
   if (error instanceof Error && (error.name === 'EngineError' || error.name === 'InputError')) {
     // The pool's time and memory limits are not faults of the document: 422 with the reason.
     if (/^evaluation (took longer|needed too much memory)/.test(error.message)) return new AppError('timeout', error.message);
+    const position = (error as { position?: unknown }).position;
+    if (typeof position === 'number') return new AppError('validation', error.message, { detail: { position } });
     return badRequest(error.message);
   }
   return error instanceof Error ? error : new Error('evaluation failed');

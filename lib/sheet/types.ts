@@ -88,6 +88,8 @@ export interface CatalogInput {
   /** The valid range in words, e.g. "> 0". */
   range?: string;
   unitHint?: string;
+  /** The typical range with its source; a value 100 times beyond it warns. */
+  typical?: string;
   help: string;
 }
 

@@ -105,7 +105,24 @@ describe('POST /api/quick and GET /api/quick/recent', () => {
     expect(response.status).toBe(200);
     expectClose(response.body.value, 0.950642634421, 0.003);
     expect(response.body.siUnit).toBe('');
-    expect(Object.keys(response.body).sort()).toEqual(['si', 'siUnit', 'unit', 'value']);
+    expect(Object.keys(response.body).sort()).toEqual(['si', 'siUnit', 'unit', 'value', 'warnings']);
+    expect(response.body.warnings).toEqual([]);
+  });
+
+  it('should carry a block function’s warnings in the quick answer (CONTRACT §6b)', async () => {
+    const client = await signedInAs('viewer');
+    // 25 read as a gradient (degrees forgotten) and an age under 1 kyr (Kogan & Bendick 2011).
+    const response = await client.post('/api/quick', { expr: 'scarp_age(2 m, 0, 25, 1 m^2/kyr) to yr' });
+    expect(response.status).toBe(200);
+    expect(response.body.warnings.some((w: string) => /did you mean degrees/.test(w))).toBe(true);
+  });
+
+  it('should give the 0-based position of a parse error in the error (CONTRACT §6b)', async () => {
+    const client = await signedInAs('viewer');
+    const response = await client.post('/api/quick', { expr: '2,4 m' });
+    expect(response.status).toBe(400);
+    expect(response.body.error.position).toBe(1);
+    expect(response.body.error.message).toMatch(/decimal point/);
   });
 
   it('should keep units through arithmetic: 2 m / 3 s = 0.6667 m / s (arithmetic, common practice)', async () => {

@@ -81,7 +81,7 @@ describe('evaluateSheetIncremental', () => {
   });
 
   it('should fall back to a full evaluation without previous results', () => {
-    const doc = sheet([{ id: 'a', name: 'a', type: 'formula', inputs: { expr: '1 m' } }]);
+    const doc = sheet([{ id: 'a', name: 'first', type: 'formula', inputs: { expr: '1 m' } }]);
     expect(evaluateSheetIncremental(doc, null, []).evaluatedBlockIds).toEqual(['a']);
   });
 });

@@ -49,7 +49,7 @@ describe('withTitleSite', () => {
     format: 'denudata-sheet@1',
     title: 'Old',
     site: { name: 'Old site', latitude: 1, longitude: 2 },
-    blocks: [{ id: 'a', name: 'a', type: 'formula', inputs: { expr: '1 m' } }],
+    blocks: [{ id: 'a', name: 'first', type: 'formula', inputs: { expr: '1 m' } }],
   };
 
   it('should replace the title and site and keep the blocks and the key order', () => {

@@ -17,5 +17,5 @@ export const POST = route(async (request) => {
   }
   const answer = { value: result.value, unit: result.unit, si: result.si, siUnit: result.siUnit };
   if (!preview) await createQuickCalculation({ userId: user.id, expression: expr, result: answer });
-  return json(answer);
+  return json({ ...answer, warnings: result.warnings });
 });

@@ -20,6 +20,7 @@ export const netChange: BlockTypeDefinition = {
       symbol: 'q_eq',
       dimension: 'area_per_time',
       unitHint: 'm^2/yr',
+      range: { min: 0, text: '≥ 0 (a transport capacity is a magnitude of downstream transport)' },
       help: 'Equilibrium flux per unit width (area per time), often reach.capacity from a transport capacity block.',
     },
     {
@@ -28,6 +29,7 @@ export const netChange: BlockTypeDefinition = {
       symbol: 'q_s',
       dimension: 'area_per_time',
       unitHint: 'm^2/yr',
+      range: { min: 0, text: '≥ 0 (an incoming flux is a magnitude of downstream transport)' },
       help: 'Sediment volume flux per unit width arriving at the reach (area per time).',
     },
     {
