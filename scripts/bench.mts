@@ -13,7 +13,7 @@
 // forms of every output) and the document hash. Also: incremental re-evaluation after one edit,
 // with how many blocks it re-evaluated.
 import { loadavg } from 'node:os';
-import { all, create, type EvalFunction, type Unit } from 'mathjs';
+import { all, create, type EvalFunction, type FactoryFunctionMap, type Unit } from 'mathjs';
 import { evaluateSheet, evaluateSheetIncremental, type SheetDocument } from '../lib/engine';
 
 const BLOCKS = 500;
@@ -38,7 +38,7 @@ function chain(factor: number, prefix = 'v'): Chain {
   return { document: { format: 'denudata-sheet@1', title: 'Benchmark chain', blocks }, bare };
 }
 
-const bare = create(all);
+const bare = create(all as FactoryFunctionMap);
 bare.createUnit('yr', { definition: '365.25 day' });
 
 function bareColdRun(expressions: Chain['bare']): unknown {

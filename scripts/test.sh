@@ -1,5 +1,7 @@
 #!/usr/bin/env bash
 # npm test: does all of its own set-up, runs every suite, and ends with "N passed, N failed".
+#  0. the gates: TypeScript (tsc --noEmit) and ESLint (npm run lint); each counts as one test in the summary
+#     line, and any error in either fails the run (the suites still run, so one run shows everything)
 #  1. unit and integration tests (vitest, real PostgreSQL test database)
 #  2. the app built into .next-test and served on 127.0.0.1:$DENUDATA_TEST_PORT (default 3100),
 #     then the API and browser tests (vitest driving Debian's headless Chromium)
@@ -29,6 +31,22 @@ mkdir -p .denudata
 rm -rf "$DENUDATA_MAIL_DIR" && mkdir -p "$DENUDATA_MAIL_DIR"
 
 status=0
+gate() { # gate <name> <command...>: one pass or one failure in a vitest-shaped report
+  local name="$1"; shift
+  local report=".denudata/report-$name-$DENUDATA_TEST_PORT.json"
+  if "$@" > ".denudata/$name-$DENUDATA_TEST_PORT.log" 2>&1; then
+    echo "test: $name passed"
+    echo '{"numPassedTests":1,"numFailedTests":0}' > "$report"
+  else
+    status=1
+    echo "test: $name FAILED"
+    tail -60 ".denudata/$name-$DENUDATA_TEST_PORT.log"
+    echo '{"numPassedTests":0,"numFailedTests":1}' > "$report"
+  fi
+}
+gate typecheck node_modules/.bin/tsc --noEmit
+gate lint node_modules/.bin/eslint .
+
 echo "test: unit and integration suites"
 node_modules/.bin/vitest run "$@" --passWithNoTests --reporter=default --reporter=json --outputFile.json=.denudata/report-unit-$DENUDATA_TEST_PORT.json || status=1
 
@@ -43,5 +61,6 @@ else
   echo '{"numPassedTests":0,"numFailedTests":1}' > .denudata/report-server-$DENUDATA_TEST_PORT.json
 fi
 
-node scripts/test-summary.mjs .denudata/report-unit-$DENUDATA_TEST_PORT.json .denudata/report-server-$DENUDATA_TEST_PORT.json || status=1
+node scripts/test-summary.mjs .denudata/report-typecheck-$DENUDATA_TEST_PORT.json .denudata/report-lint-$DENUDATA_TEST_PORT.json \
+  .denudata/report-unit-$DENUDATA_TEST_PORT.json .denudata/report-server-$DENUDATA_TEST_PORT.json || status=1
 exit $status

@@ -20,6 +20,23 @@ export interface ExpressionFieldProps {
   onChange: (value: string) => void;
 }
 
+function attributeExtension(p: Pick<ExpressionFieldProps, 'labelId' | 'describedBy' | 'invalid' | 'readOnly'>): Extension {
+  return EditorView.contentAttributes.of({
+    'aria-labelledby': p.labelId,
+    ...(p.describedBy ? { 'aria-describedby': p.describedBy } : {}),
+    ...(p.invalid ? { 'aria-invalid': 'true' } : {}),
+    ...(p.readOnly ? { 'aria-readonly': 'true' } : {}),
+    'aria-multiline': 'false',
+    spellcheck: 'false',
+    autocapitalize: 'off',
+    autocorrect: 'off',
+  });
+}
+
+function editableExtension(readOnly: boolean): Extension {
+  return [EditorView.editable.of(!readOnly), EditorState.readOnly.of(readOnly)];
+}
+
 /**
  * One-line expression editor on CodeMirror's view and state only (no basic setup: it keeps the
  * sheet page light). Undo and redo go to the sheet's own history, so Ctrl+Z is one stack.
@@ -31,19 +48,6 @@ export default function ExpressionField(props: ExpressionFieldProps) {
   latest.current = props;
   const attributes = useRef(new Compartment());
   const editable = useRef(new Compartment());
-
-  const attributeExtension = (p: ExpressionFieldProps): Extension =>
-    EditorView.contentAttributes.of({
-      'aria-labelledby': p.labelId,
-      ...(p.describedBy ? { 'aria-describedby': p.describedBy } : {}),
-      ...(p.invalid ? { 'aria-invalid': 'true' } : {}),
-      ...(p.readOnly ? { 'aria-readonly': 'true' } : {}),
-      'aria-multiline': 'false',
-      spellcheck: 'false',
-      autocapitalize: 'off',
-      autocorrect: 'off',
-    });
-  const editableExtension = (readOnly: boolean): Extension => [EditorView.editable.of(!readOnly), EditorState.readOnly.of(readOnly)];
 
   useEffect(() => {
     if (!host.current) return;
@@ -79,8 +83,7 @@ export default function ExpressionField(props: ExpressionFieldProps) {
       view.current?.destroy();
       view.current = null;
     };
-    // The editor is made once; later prop changes are applied below.
-    // eslint-disable-next-line react-hooks/exhaustive-deps
+    // The editor is made once (everything it reads is a ref); later prop changes are applied below.
   }, []);
 
   // Outside changes (undo, rename, merge) replace the text.
@@ -91,10 +94,10 @@ export default function ExpressionField(props: ExpressionFieldProps) {
     if (current !== props.value) v.dispatch({ changes: { from: 0, to: current.length, insert: props.value } });
   }, [props.value]);
 
+  const { labelId, describedBy, invalid, readOnly } = props;
   useEffect(() => {
-    view.current?.dispatch({ effects: attributes.current.reconfigure(attributeExtension(props)) });
-    // eslint-disable-next-line react-hooks/exhaustive-deps
-  }, [props.labelId, props.describedBy, props.invalid, props.readOnly]);
+    view.current?.dispatch({ effects: attributes.current.reconfigure(attributeExtension({ labelId, describedBy, invalid, readOnly })) });
+  }, [labelId, describedBy, invalid, readOnly]);
 
   useEffect(() => {
     view.current?.dispatch({ effects: editable.current.reconfigure(editableExtension(props.readOnly)) });

@@ -102,7 +102,7 @@ export function ForkDialog({
             <ErrorText size="sm">{errors.siteNotes}</ErrorText>
           ) : null}
         </div>
-        {teams && teams.length > 1 ? (
+        {teams && teams[0] && teams.length > 1 ? (
           <label className="flex flex-col gap-1 text-[13px]">
             <span className="font-medium">Team</span>
             <select name="teamId" defaultValue={teams[0].id} className="h-9 rounded-[3px] border border-rule bg-chalk px-2">

@@ -113,7 +113,7 @@ export function useSheetDraft({
   const evaluateRef = useRef(evaluate.mutate);
   evaluateRef.current = evaluate.mutate;
 
-  const flush = useCallback(async () => {
+  const flush = useCallback(async function saveDraft(): Promise<void> {
     if (!canEdit || conflictRef.current) return;
     if (saving.current) {
       again.current = true;
@@ -168,12 +168,12 @@ export function useSheetDraft({
       retryDelay.current = Math.min(30, wait * 2);
       setSaveState({ kind: 'retrying', inSeconds: wait, message: error instanceof Error ? error.message : 'network error' });
       if (timer.current) clearTimeout(timer.current);
-      timer.current = setTimeout(() => void flush(), wait * 1000);
+      timer.current = setTimeout(() => void saveDraft(), wait * 1000);
     } finally {
       saving.current = false;
       if (again.current) {
         again.current = false;
-        void flush();
+        void saveDraft();
       }
     }
   }, [canEdit, sheetId]);
@@ -298,8 +298,11 @@ export function useSheetDraft({
     evaluateRef.current(editCounter.current);
   }, [sheetId, setHistory]);
 
-  // First load: restore unsaved edits kept in this browser, then evaluate.
+  // First load: restore unsaved edits kept in this browser, then evaluate (once per mounted sheet).
+  const loaded = useRef(false);
   useEffect(() => {
+    if (loaded.current) return;
+    loaded.current = true;
     const pending = canEdit ? readPending(sheetId) : null;
     if (pending && !same(pending.document, initialDocument)) {
       if (pending.baseVersion === initialVersion) {
@@ -323,8 +326,7 @@ export function useSheetDraft({
     }
     if (pending) writePending(sheetId, null);
     evaluateRef.current(editCounter.current);
-    // eslint-disable-next-line react-hooks/exhaustive-deps
-  }, []);
+  }, [canEdit, sheetId, initialDocument, initialVersion, flush]);
 
   // Try to save before the page goes away; the edits stay in localStorage either way.
   useEffect(() => {

@@ -48,13 +48,13 @@ function blockFingerprint(block: unknown): string {
 
 /** The @handles in a comment body, lower-cased, in order, without repeats. */
 export function extractMentionHandles(body: string): string[] {
-  const handles = [...body.matchAll(/(?:^|[^\w@.])@([A-Za-z0-9][A-Za-z0-9._-]{0,63})/g)].map((m) => m[1].replace(/[._-]+$/, '').toLowerCase());
+  const handles = [...body.matchAll(/(?:^|[^\w@.])@([A-Za-z0-9][A-Za-z0-9._-]{0,63})/g)].map((m) => (m[1] ?? '').replace(/[._-]+$/, '').toLowerCase());
   return [...new Set(handles)];
 }
 
 /** Every handle by which a member can be mentioned: the e-mail's local part and forms of the name. */
 export function handlesOf(person: PublicUser): string[] {
-  const local = person.email.split('@')[0].toLowerCase();
+  const local = (person.email.split('@')[0] ?? '').toLowerCase();
   const words = person.name.toLowerCase().normalize('NFD').replace(/[\u0300-\u036f]/g, '').split(/[^a-z0-9]+/).filter(Boolean);
   return [...new Set([local, words.join('.'), words.join('_'), words.join('-'), words.join('')].filter(Boolean))];
 }
@@ -68,7 +68,8 @@ export function resolveMentions(handles: string[], members: PublicUser[]): Publi
       // A first name alone is enough when only one member has it.
       matches = members.filter((m) => m.name.toLowerCase().split(/\s+/)[0] === handle);
     }
-    if (matches.length === 1) found.set(matches[0].id, matches[0]);
+    const [only] = matches;
+    if (only && matches.length === 1) found.set(only.id, only);
   }
   return [...found.values()];
 }

@@ -1,5 +1,5 @@
 import 'server-only';
-import { Op } from 'sequelize';
+import { Op, type Transaction } from 'sequelize';
 import { badRequest, conflict, notFound } from '@/lib/errors';
 import { Invitation, Membership, Team, User, type TeamRole } from '@/models';
 import { recordAudit } from './audit';
@@ -47,7 +47,7 @@ export async function listPendingInvitationsByTeam({ teamId }: { teamId: string 
  * Locks the team's membership rows and counts its owners (so two demotions cannot race past the last owner).
  * The rows are locked in id order, so concurrent changes in one team queue up instead of deadlocking.
  */
-async function lockedOwnerCount(teamId: string, transaction: import('sequelize').Transaction): Promise<number> {
+async function lockedOwnerCount(teamId: string, transaction: Transaction): Promise<number> {
   const rows = await Membership.findAll({ where: { teamId }, order: [['id', 'ASC']], transaction, lock: transaction.LOCK.UPDATE });
   return rows.filter((r) => r.role === 'owner').length;
 }

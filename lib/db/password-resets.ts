@@ -40,10 +40,11 @@ export async function completePasswordReset({ token, password }: { token: string
         WHERE token_hash = :tokenHash AND used_at IS NULL AND expires_at > now() RETURNING user_id`,
       { type: QueryTypes.SELECT, replacements: { tokenHash: hashToken(token) }, transaction },
     );
-    if (claimed.length !== 1) {
+    const [claim] = claimed;
+    if (!claim || claimed.length !== 1) {
       throw badRequest('This link to set a new password has been used or has expired. Ask for a new one.');
     }
-    const userId = claimed[0].user_id;
+    const userId = claim.user_id;
     await User.update({ passwordHash, passwordChangedAt: new Date() }, { where: { id: userId }, transaction });
     await sequelize.query('UPDATE password_resets SET used_at = now() WHERE user_id = :userId AND used_at IS NULL', {
       replacements: { userId },

@@ -97,6 +97,7 @@ export async function getRevision({ sheetId, number }: { sheetId: string; number
   const revision = await SheetRevision.findOne({ where: { sheetId, number } });
   if (!revision) throw notFound(`Revision ${number}`);
   const [item] = await toListItems([revision]);
+  if (!item) throw notFound(`Revision ${number}`);
   return { ...item, document: revision.document as SheetDocument, results: revision.results as SheetResults };
 }
 

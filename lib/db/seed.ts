@@ -1,4 +1,5 @@
 import 'server-only';
+import type { Transaction } from 'sequelize';
 import { Membership, Sheet, SheetRevision, Team, User, type TeamRole } from '@/models';
 import { ENGINE_VERSION, evaluateSheet, hashSheetDocument, parseSheetDocument } from '@/lib/engine';
 import { DEMO_SHEETS } from '@/lib/demo/sheets';
@@ -17,6 +18,15 @@ export const DEMO_ACCOUNTS: { email: string; name: string; role: TeamRole }[] = 
   { email: 'viewer@demo.test', name: 'Priya Halvorsen', role: 'viewer' },
 ];
 
+/** The two demo accounts that write the demo revisions. */
+type DemoAuthors = { editor: User; reviewer: User };
+
+function demoAuthors(byRole: Partial<Record<TeamRole, User>>): DemoAuthors {
+  const { editor, reviewer } = byRole;
+  if (!editor || !reviewer) throw new Error('The demo accounts need an editor and a reviewer.');
+  return { editor, reviewer };
+}
+
 /** Fixed ids make the demo idempotent: seeding twice finds what the first run made. */
 export const demoSheetId = (index: number) => `0d3a7e10-5c2b-4f6a-8e1d-${String(index + 1).padStart(12, '0')}`;
 
@@ -29,20 +39,21 @@ export async function seedDemo(): Promise<{ users: number; sheets: number }> {
       transaction,
     });
     const passwordHash = await hashPassword(DEMO_PASSWORD);
-    const users: Record<string, User> = {};
+    const byRole: Partial<Record<TeamRole, User>> = {};
     for (const account of DEMO_ACCOUNTS) {
       const [user] = await User.findOrCreate({
         where: { email: account.email },
         defaults: { email: account.email, name: account.name, passwordHash, currentTeamId: team.id },
         transaction,
       });
-      users[account.role] = user;
+      byRole[account.role] = user;
       await Membership.findOrCreate({
         where: { teamId: team.id, userId: user.id },
         defaults: { teamId: team.id, userId: user.id, role: account.role },
         transaction,
       });
     }
+    const users = demoAuthors(byRole);
     for (const [index, demo] of DEMO_SHEETS.entries()) {
       await Sheet.findOrCreate({
         where: { id: demoSheetId(index) },
@@ -74,8 +85,8 @@ export const DEMO_IN_REVIEW_INDEX = 1;
  * revision 1 is left alone). One sheet's revision is sent to the reviewer, so a review shows in progress.
  */
 async function seedDemoRevision(
-  { index, document: raw, users }: { index: number; document: unknown; users: Record<string, User> },
-  transaction: import('sequelize').Transaction,
+  { index, document: raw, users }: { index: number; document: unknown; users: DemoAuthors },
+  transaction: Transaction,
 ): Promise<void> {
   const sheetId = demoSheetId(index);
   const existing = await SheetRevision.findOne({ where: { sheetId, number: 1 }, attributes: ['id'], transaction });

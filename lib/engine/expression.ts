@@ -7,7 +7,7 @@
  * is checked against an allow-list of functions, a node-count cap and matrix-size caps
  * before it is compiled.
  */
-import { all, create, type MathNode, type Unit } from 'mathjs';
+import { all, create, type FactoryFunctionMap, type MathNode, type Unit } from 'mathjs';
 import { EngineError } from './errors';
 import { explainParseError, rewriteNaturalInput } from './natural-input';
 import { temperatureArithmetic } from './temperature';
@@ -17,7 +17,8 @@ export const MAX_EXPRESSION_NODES = 1000;
 export const MAX_NESTING_DEPTH = 40;
 export const MAX_MATRIX_ELEMENTS = 1000;
 
-const math = create(all, { number: 'number', precision: 64 });
+// mathjs types `all` as an index into a map; it is the full factory set.
+const math = create(all as FactoryFunctionMap, { number: 'number', precision: 64 });
 
 /* ------------------------------------------------------------------ units */
 // The Julian year (365.25 d), with SI-prefixed multiples and the annus forms used for ages

@@ -7,7 +7,6 @@ import type { DatasetLookup } from './dataset';
 import { checkSheetDocument, hashCanonicalText, type SheetDocument } from './document';
 import { EngineError, toSafeMessage } from './errors';
 import {
-  ENGINE_VERSION,
   evaluateSheet as evaluateValidSheet,
   evaluateSheetIncremental as evaluateValidSheetIncremental,
   type SheetResults,

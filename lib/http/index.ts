@@ -13,6 +13,7 @@ export function json(data: unknown, status = 200, headers?: HeadersInit): NextRe
 /** The first problem zod found, as a message and a dotted field path. */
 export function firstIssue(error: z.ZodError): { message: string; field?: string } {
   const issue = error.issues[0];
+  if (!issue) return { message: 'The input is not valid.' };
   const field = issue.path.length ? issue.path.map(String).join('.') : undefined;
   return { message: field ? `${field}: ${issue.message}` : issue.message, field };
 }

@@ -42,7 +42,7 @@ describe('comments (lib/db/comments)', () => {
 
     let listed = await listCommentsBySheet({ sheetId, blockId: 'b-hill' });
     expect(listed.items).toHaveLength(1);
-    expect(listed.items[0].replies.map((r) => r.body)).toEqual([`Yes, @${reviewerHandle}.`, 'Fine by me.']);
+    expect(listed.items[0]?.replies.map((r) => r.body)).toEqual([`Yes, @${reviewerHandle}.`, 'Fine by me.']);
     expect(listed.openByBlock).toEqual({ 'b-hill': 1, 'b-params': 1 });
 
     await updateComment({ commentId: first.comment.id, userId: team.people.editor.id, resolved: true });

@@ -25,7 +25,7 @@ describe('forks (lib/db/forks)', () => {
     const draft = detail.draft.document as ReturnType<typeof sampleDocument>;
     expect(draft.title).toBe('Lower slope lowering');
     expect(draft.site).toEqual({ name: 'South cutting', latitude: 51.9 });
-    expect(draft.blocks[0].inputs.K).toBe('0.005 m^2/yr');
+    expect(draft.blocks[0]?.inputs.K).toBe('0.005 m^2/yr');
     expect(detail.sheet.site).toEqual({ name: 'South cutting', latitude: 51.9 });
     const sourceDetail = await getSheetDetail({ sheetId: source.id, visibleTeamIds: [team.teamId] });
     expect(sourceDetail.forks).toEqual([{ id: sheet.id, title: 'Lower slope lowering', site: 'South cutting', revision: 2 }]);
@@ -37,7 +37,7 @@ describe('forks (lib/db/forks)', () => {
     await saveRevision({ sheetId: source.id, userId: team.people.editor.id, baseRevision: 1, document: sampleDocument({ K: '0.009 m^2/yr' }), message: '' });
     const earlier = await forkSheet({ sourceSheetId: source.id, teamId: team.teamId, userId: team.people.owner.id, title: 'From r1', revision: 1 });
     const detail = await getSheetDetail({ sheetId: earlier.sheet.id, visibleTeamIds: [team.teamId] });
-    expect((detail.draft.document as ReturnType<typeof sampleDocument>).blocks[0].inputs.K).toBe('0.004 m^2/yr');
+    expect((detail.draft.document as ReturnType<typeof sampleDocument>).blocks[0]?.inputs.K).toBe('0.004 m^2/yr');
     // No site given: the source's site is kept.
     expect(detail.sheet.site?.name).toBe('Test ridge');
 

@@ -122,7 +122,7 @@ describe('draft saves are audited', () => {
 
 const statusOf = (r: AppError | 'ok') => (r === 'ok' ? 200 : r.status);
 const auditCount = async (action: string, subjectId: string) =>
-  Number((await db().query<{ n: string }>('SELECT count(*) AS n FROM audit_log WHERE action = :action AND subject_id = :subjectId', { type: QueryTypes.SELECT, replacements: { action, subjectId } }))[0].n);
+  Number((await db().query<{ n: string }>('SELECT count(*) AS n FROM audit_log WHERE action = :action AND subject_id = :subjectId', { type: QueryTypes.SELECT, replacements: { action, subjectId } }))[0]?.n);
 
 describe('concurrent writes: exactly one wins, the other gets a 4xx and writes nothing', () => {
   it('two drafts saved on the same base version', async () => {

@@ -9,7 +9,7 @@ import { AppError } from '@/lib/errors';
 import { makeSheet, rejection, sampleDocument, useTeamFixture } from '../support/review-fixtures';
 
 const count = async (sql: string, replacements: Record<string, unknown>) =>
-  Number((await db().query<{ n: string }>(sql, { type: QueryTypes.SELECT, replacements }))[0].n);
+  Number((await db().query<{ n: string }>(sql, { type: QueryTypes.SELECT, replacements }))[0]?.n);
 
 describe('revisions (lib/db/revisions)', () => {
   const team = useTeamFixture({ closePool: true });
@@ -26,8 +26,8 @@ describe('revisions (lib/db/revisions)', () => {
     expect(stored.review.status).toBe('unsigned');
     // K·C = 0.004 m²/yr × −0.02 /m = −8e-5 m/yr = −0.08 mm/yr (dz/dt); lowering 0.08 mm/yr (arithmetic of the contract's relation).
     const hill = (stored.results as { blocks: Record<string, { outputs: Record<string, { value: number; unit: string }> }> }).blocks.hill;
-    expect(hill.outputs.dz_dt.value).toBeCloseTo(-0.08, 12);
-    expect(hill.outputs.lowering_rate.value).toBeCloseTo(0.08, 12);
+    expect(hill?.outputs.dz_dt?.value).toBeCloseTo(-0.08, 12);
+    expect(hill?.outputs.lowering_rate?.value).toBeCloseTo(0.08, 12);
     const detail = await getSheetDetail({ sheetId: sheet.id, visibleTeamIds: [team.teamId] });
     expect(detail.head).toEqual({ number: 1, hash: first.hash, status: 'unsigned' });
     const second = await saveRevision({ sheetId: sheet.id, userId: team.people.owner.id, baseRevision: 1, document: sampleDocument({ K: '0.005 m^2/yr' }), message: '' });
@@ -50,7 +50,7 @@ describe('revisions (lib/db/revisions)', () => {
     const lost = outcomes.filter((o): o is PromiseRejectedResult => o.status === 'rejected');
     expect(won).toHaveLength(1);
     expect(lost).toHaveLength(1);
-    const error = lost[0].reason as AppError;
+    const error = lost[0]?.reason as AppError;
     expect(error).toBeInstanceOf(AppError);
     expect(error.status).toBe(409);
     expect(error.toBody()).toMatchObject({ error: { code: 'conflict' }, current: { number: 2 } });
@@ -92,7 +92,7 @@ describe('revisions (lib/db/revisions)', () => {
     expect(hashSheetDocument(stored.document)).toBe(stored.hash);
     // Same bytes in canonical JSON (RFC 8785): JSONB keeps values exactly but not key order.
     expect(canonicalize(evaluateSheet(stored.document))).toBe(canonicalize(stored.results));
-    expect((stored.results as { blocks: Record<string, { status: string }> }).blocks.hill.status).toBe('ok');
+    expect((stored.results as { blocks: Record<string, { status: string }> }).blocks.hill?.status).toBe('ok');
   });
 
   it('should import a document as a new sheet whose revision 1 has the same hash', async () => {

@@ -6,7 +6,7 @@ import { verifyCredentials } from '@/lib/db/users';
 import { closeSequelize } from '@/lib/db/sequelize';
 
 const count = async (table: string) =>
-  (await db().query<{ n: string }>(`SELECT count(*) AS n FROM ${table}`, { type: QueryTypes.SELECT }))[0].n;
+  (await db().query<{ n: string }>(`SELECT count(*) AS n FROM ${table}`, { type: QueryTypes.SELECT }))[0]?.n;
 
 describe('seedDemo', () => {
   afterAll(closeSequelize);

@@ -90,9 +90,11 @@ describe('compareSheets', () => {
   });
 
   it('should flag a changed note or a block that moved', () => {
+    const [first, second, third, fourth] = before.document.blocks;
+    const b = [first!, second!, third!, fourth!] as const;
     const moved: CompareSide = {
       ...before,
-      document: { ...before.document, blocks: [before.document.blocks[1], before.document.blocks[0], { ...before.document.blocks[2], note: 'New note' }, before.document.blocks[3]] },
+      document: { ...before.document, blocks: [b[1], b[0], { ...b[2], note: 'New note' }, b[3]] },
     };
     const c = compareSheets(before, moved);
     expect(c.changed.find((b) => b.id === 'n')?.noteChanged).toBe(true);

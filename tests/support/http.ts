@@ -13,7 +13,7 @@ export class ApiClient {
 
   private keepCookies(response: Response) {
     for (const line of response.headers.getSetCookie()) {
-      const [pair] = line.split(';');
+      const pair = line.split(';', 1)[0] ?? '';
       const index = pair.indexOf('=');
       this.cookies.set(pair.slice(0, index), pair.slice(index + 1));
     }

@@ -51,7 +51,8 @@ export async function waitForMail(to: string, subject: RegExp): Promise<Captured
   const deadline = Date.now() + 10_000;
   while (Date.now() < deadline) {
     const found = readMails().filter((m) => m.to.includes(to.toLowerCase()) && subject.test(m.subject));
-    if (found.length) return found[found.length - 1];
+    const last = found.at(-1);
+    if (last) return last;
     await new Promise((r) => setTimeout(r, 150));
   }
   throw new Error(`no message to ${to} with a subject like ${subject} in ${folder()}`);

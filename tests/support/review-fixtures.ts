@@ -22,7 +22,7 @@ export async function makeTeam(): Promise<{ teamId: string; people: Record<Role,
   const tag = unique();
   const people = {} as Record<Role, PublicUser>;
   for (const role of ['owner', 'editor', 'reviewer', 'viewer'] as const) {
-    const { user } = await createUserWithTeam({ email: `${role}-${tag}@example.test`, password: 'long-enough-password', name: `${role[0].toUpperCase()}${role.slice(1)} ${tag.replace(/[^a-z]/g, '')}` });
+    const { user } = await createUserWithTeam({ email: `${role}-${tag}@example.test`, password: 'long-enough-password', name: `${role.charAt(0).toUpperCase()}${role.slice(1)} ${tag.replace(/[^a-z]/g, '')}` });
     people[role] = user;
   }
   const { user: outsider } = await createUserWithTeam({ email: `outsider-${tag}@example.test`, password: 'long-enough-password', name: 'Outsider Person' });

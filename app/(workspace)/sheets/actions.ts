@@ -23,7 +23,8 @@ export async function createSheetAction(_previous: CreateSheetState, formData: F
   });
   if (!parsed.success) {
     const issue = parsed.error.issues[0];
-    return { errors: { [issue.path[0] as 'title' | 'siteName']: issue.message } };
+    const field = issue?.path[0] === 'siteName' ? 'siteName' : 'title';
+    return { errors: { [field]: issue?.message ?? 'Check this field.' } };
   }
   let sheetId: string;
   try {

@@ -10,6 +10,9 @@ export default async function RevisionsPage({ params }: { params: Promise<{ shee
   const { sheetId } = await params;
   const { sheet } = await requireSheetPage(sheetId);
   const { items, total } = await listRevisionsBySheet({ sheetId });
+  // Newest first: the latest number, and the number saved just before the i-th row (none for the oldest).
+  const latest = items[0]?.number ?? 1;
+  const previous = (i: number): number | undefined => items[i + 1]?.number;
   return (
     <div className="flex flex-col gap-4">
       <nav aria-label="Breadcrumb" className="text-[13px] text-slate">
@@ -24,7 +27,7 @@ export default async function RevisionsPage({ params }: { params: Promise<{ shee
           <form action={`/sheets/${sheetId}/compare`} className="flex flex-wrap items-end gap-2 text-[13px]">
             <label className="flex flex-col gap-1">
               <span>From</span>
-              <select name="from" defaultValue={items[1]?.number ?? items[0].number} className="h-8 rounded-[3px] border border-rule bg-chalk px-2">
+              <select name="from" defaultValue={items[1]?.number ?? latest} className="h-8 rounded-[3px] border border-rule bg-chalk px-2">
                 {items.map((r) => (
                   <option key={r.number} value={r.number}>r{r.number}</option>
                 ))}
@@ -32,7 +35,7 @@ export default async function RevisionsPage({ params }: { params: Promise<{ shee
             </label>
             <label className="flex flex-col gap-1">
               <span>To</span>
-              <select name="to" defaultValue={items[0].number} className="h-8 rounded-[3px] border border-rule bg-chalk px-2">
+              <select name="to" defaultValue={latest} className="h-8 rounded-[3px] border border-rule bg-chalk px-2">
                 {items.map((r) => (
                   <option key={r.number} value={r.number}>r{r.number}</option>
                 ))}
@@ -66,8 +69,8 @@ export default async function RevisionsPage({ params }: { params: Promise<{ shee
                     <td className="px-3 py-2"><StatusTag status={r.review.status} /></td>
                     <td className="num px-3 py-2 text-slate" title={r.hash}>{r.hash.slice(0, 10)}</td>
                     <td className="px-3 py-2 whitespace-nowrap text-[12px]">
-                      {items[i + 1] ? (
-                        <Link href={`/sheets/${sheetId}/compare?from=${items[i + 1].number}&to=${r.number}`} className="text-river hover:underline">changes</Link>
+                      {previous(i) ? (
+                        <Link href={`/sheets/${sheetId}/compare?from=${previous(i)}&to=${r.number}`} className="text-river hover:underline">changes</Link>
                       ) : null}{' '}
                       <a href={`/api/sheets/${sheetId}/export?revision=${r.number}`} className="text-river hover:underline">export</a>
                     </td>

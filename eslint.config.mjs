@@ -1,0 +1,43 @@
+// ESLint flat config: Next.js's rules (core web vitals), React hooks and typescript-eslint's recommended set.
+// Errors are for real problems; style is left to habit and review.
+import nextCoreWebVitals from 'eslint-config-next/core-web-vitals';
+import nextTypescript from 'eslint-config-next/typescript';
+
+const config = [
+  {
+    ignores: [
+      'node_modules/**',
+      '.next/**',
+      '.next-*/**',
+      '.worker-dist/**',
+      '.denudata/**',
+      '.stryker-tmp/**',
+      'reports/**',
+      'public/**',
+      'next-env.d.ts',
+    ],
+  },
+  ...nextCoreWebVitals,
+  ...nextTypescript,
+  {
+    rules: {
+      'react-hooks/exhaustive-deps': 'error',
+      'react-hooks/rules-of-hooks': 'error',
+      '@typescript-eslint/no-unused-vars': ['error', { argsIgnorePattern: '^_', varsIgnorePattern: '^_', caughtErrors: 'none' }],
+      '@typescript-eslint/no-unused-expressions': 'error',
+      '@typescript-eslint/consistent-type-imports': ['error', { fixStyle: 'inline-type-imports' }],
+      // React Compiler diagnostics (react-hooks 7). We do not run the compiler; these point at patterns that
+      // are safe without it (a "latest value" ref written during render, state set from an effect that reads
+      // the browser). Shown as warnings so they are visible and worked down, not errors that block others.
+      'react-hooks/refs': 'warn',
+      'react-hooks/set-state-in-effect': 'warn',
+    },
+  },
+  {
+    // Tests read arbitrary JSON answers from the API.
+    files: ['tests/**'],
+    rules: { '@typescript-eslint/no-explicit-any': 'off' },
+  },
+];
+
+export default config;
