@@ -104,6 +104,18 @@ function coerceOther(spec: InputSpec, value: unknown, other: OtherInputs, option
  */
 export function runBlockType(type: BlockTypeDefinition, values: Record<string, unknown>, options: RunOptions = {}): BlockOutcome {
   if (!type.evaluate) throw new EngineError(`${type.id} blocks are not calculated`);
+  const { coerced, other, plausibility } = coerceBlockInputs(type, values, options);
+  const outcome = type.evaluate(coerced, other);
+  if (plausibility.length > 0) outcome.warnings = [...plausibility, ...outcome.warnings];
+  return checkOutcome(outcome);
+}
+
+/** Applies defaults and coerces every input of a calculation type (dimension and range checks). */
+export function coerceBlockInputs(
+  type: BlockTypeDefinition,
+  values: Record<string, unknown>,
+  options: RunOptions = {},
+): { coerced: InputValues; other: OtherInputs; plausibility: string[] } {
   const coerced: InputValues = {};
   const other: OtherInputs = { text: {}, flags: {}, data: {} };
   const plausibility: string[] = [];
@@ -123,8 +135,16 @@ export function runBlockType(type: BlockTypeDefinition, values: Record<string, u
     coerced[spec.name] = quantity;
     if (given) plausibility.push(...plausibilityWarnings(type.id, spec, value, quantity));
   }
-  const outcome = type.evaluate(coerced, other);
-  if (plausibility.length > 0) outcome.warnings = [...plausibility, ...outcome.warnings];
+  return { coerced, other, plausibility };
+}
+
+/** Whether an input is a text, boolean or data input (never a quantity, so never uncertain). */
+export function isNonQuantityInput(spec: InputSpec): boolean {
+  return NOT_QUANTITY.has(spec.dimension);
+}
+
+/** Checks that every numeric output and series value of an outcome is finite. */
+export function checkOutcome(outcome: BlockOutcome): BlockOutcome {
   for (const [name, output] of Object.entries(outcome.outputs)) {
     if ('si' in output && !Number.isFinite(output.si)) {
       throw new EngineError(`${name}: the result is not finite (${output.si}); check the inputs`);

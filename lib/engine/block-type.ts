@@ -36,6 +36,11 @@ export interface InputSpec {
   /** The dataset kind a data input (dimension "dataset") takes. */
   datasetKind?: DatasetKind;
   help: string;
+  /**
+   * The input must be certain: a distribution here is a block error (text and data inputs, grid
+   * settings; CONTRACT §4 amendment and §8.1).
+   */
+  certain?: boolean;
 }
 
 export interface OutputSpec {
@@ -45,6 +50,8 @@ export interface OutputSpec {
   unit: string | null;
   kind: 'quantity' | 'text';
   description: string;
+  /** Every label a text output can take (Monte Carlo counts list them all, zeros included). */
+  labels?: readonly string[];
 }
 
 export interface SeriesSpec {
@@ -123,6 +130,17 @@ export interface BlockTypeDefinition {
   expressionFunction: boolean;
   /** Pure evaluation from coerced inputs. Absent for quantities, formula and note. */
   evaluate?: (inputs: InputValues, other: OtherInputs) => BlockOutcome;
+  /**
+   * Optional: the relation used for uncertainty samples, built once from the nominal inputs and
+   * outcome (a grid fixed at the nominal values, a fit done once and scaled per sample). Without
+   * it every sample calls evaluate() on its SI values (CONTRACT §8.3).
+   */
+  sampleRelation?: (nominal: InputValues, other: OtherInputs, outcome: BlockOutcome) => (inputs: InputValues, other: OtherInputs) => BlockOutcome;
+  /**
+   * Optional: the work of one sample in the units of a limit, e.g. nodes × steps; the evaluation
+   * is refused as a block error when samples × cost exceeds `limit` (CONTRACT §8.3 "Cost").
+   */
+  sampleCost?: (nominal: InputValues, other: OtherInputs, outcome: BlockOutcome) => { cost: number; limit: number; what: string } | null;
 }
 
 /** The caution every calculation type carries. */

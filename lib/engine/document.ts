@@ -110,6 +110,22 @@ const siteSchema = z.strictObject({
   notes: z.string().optional(),
 });
 
+/** The document's uncertainty settings (CONTRACT §8.2); defaults are filled in by the engine. */
+export const UNCERTAINTY_METHODS = ['monte_carlo', 'linear'] as const;
+export const MIN_SAMPLES = 100;
+export const MAX_SAMPLES = 100_000;
+export const MAX_SEED = 4_294_967_295;
+const SAMPLES_RULE = `samples must be an integer from ${MIN_SAMPLES} to ${MAX_SAMPLES}`;
+const SEED_RULE = `seed must be an integer from 0 to ${MAX_SEED}`;
+const uncertaintySchema = z.strictObject(
+  {
+    method: z.enum(UNCERTAINTY_METHODS, { error: 'method must be "monte_carlo" or "linear"' }).optional(),
+    samples: z.number({ error: SAMPLES_RULE }).int(SAMPLES_RULE).min(MIN_SAMPLES, SAMPLES_RULE).max(MAX_SAMPLES, SAMPLES_RULE).optional(),
+    seed: z.number({ error: SEED_RULE }).int(SEED_RULE).min(0, SEED_RULE).max(MAX_SEED, SEED_RULE).optional(),
+  },
+  { error: 'uncertainty must be an object {method, samples, seed}' },
+);
+
 /** The strict schema of a `denudata-sheet@1` document (structural faults only). */
 export const sheetDocumentSchema = z
   .strictObject({
@@ -117,6 +133,7 @@ export const sheetDocumentSchema = z
     title: z.string({ error: 'title must be a string' }).min(1, 'title must not be empty').max(200, 'title must be at most 200 characters'),
     site: siteSchema.optional(),
     blocks: z.array(blockSchema, { error: 'blocks must be a list' }),
+    uncertainty: uncertaintySchema.optional(),
   })
   .superRefine((doc, ctx) => {
     const names = new Map<string, number>();
@@ -196,12 +213,12 @@ function canonicalBlock(block: SheetBlock): string {
 
 /** Canonical JSON text of a document that passed the schema (RFC 8785, as canonicalJson). */
 export function canonicalSheetJson(document: SheetDocument): string {
-  const { format, title, site, blocks } = document;
-  const known = 3 + (site !== undefined ? 1 : 0);
+  const { format, title, site, blocks, uncertainty } = document;
+  const known = 3 + (site !== undefined ? 1 : 0) + (uncertainty !== undefined ? 1 : 0);
   if (typeof format !== 'string' || typeof title !== 'string' || !Array.isArray(blocks) || countKeys(document) !== known) {
     return canonicalJson(document);
   }
-  // Sorted keys: blocks, format, site, title.
+  // Sorted keys: blocks, format, site, title, uncertainty.
   let text = '{"blocks":[';
   for (let i = 0; i < blocks.length; i++) {
     const block = blocks[i];
@@ -210,7 +227,9 @@ export function canonicalSheetJson(document: SheetDocument): string {
   }
   text += `],"format":${canonicalString(format)}`;
   if (site !== undefined) text += `,"site":${canonicalJson(site)}`;
-  return `${text},"title":${canonicalString(title)}}`;
+  text += `,"title":${canonicalString(title)}`;
+  if (uncertainty !== undefined) text += `,"uncertainty":${canonicalJson(uncertainty)}`;
+  return `${text}}`;
 }
 
 /** A validated document with its canonical JSON text (computed once, for the hash). */

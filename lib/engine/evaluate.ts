@@ -3,20 +3,34 @@
  * graph orders the blocks, and each block becomes ok, error or blocked. Incremental evaluation
  * reuses previous results for blocks that neither changed nor depend on a change.
  */
-import { collectCallWarnings, formatBlockOutput, runBlockType, type RunOptions } from './block-run';
+import { collectCallWarnings, formatBlockOutput, isNonQuantityInput, runBlockType, type RunOptions } from './block-run';
 import { BlockFailure, type BlockTypeDefinition, type Series } from './block-type';
 import { DATA_INPUT_RULE, DatasetReference, parseDataInput } from './dataset-input';
 import { hashSheetDocument, type SheetBlock, type SheetDocument } from './document';
 import { EngineError, toSafeMessage } from './errors';
-import { checkExpression, type CheckedExpression, type OutputReference } from './expression';
+import { checkExpression, NESTED_DISTRIBUTION_MESSAGE, type CheckedExpression, type OutputReference } from './expression';
 import { buildDependencyGraph, type DependencyGraph, type GraphNode } from './graph';
 import { getBlockType } from './registry';
 import { formatValue, valueFromFormatted, type FormattedOutput } from './units';
+import { isDistributionName, makeDistribution, valueOf, type Distribution } from './uncertainty/distributions';
+import {
+  DISTRIBUTION_CALL,
+  planUncertainty,
+  propagateUncertainty,
+  type Spread,
+  type UncertaintyEcho,
+  type UncertaintyPlan,
+} from './uncertainty/propagate';
+
+export type { Spread, UncertaintyEcho } from './uncertainty/propagate';
 
 export const ENGINE_VERSION = '1.0.0';
 export const RESULTS_FORMAT = 'denudata-results@1';
 
 export type BlockStatus = 'ok' | 'error' | 'blocked';
+
+/** One output in the results: its nominal value, and its spread when it is uncertain (§8.5). */
+export type OutputResult = FormattedOutput & { spread?: Spread };
 
 export interface BlockResult {
   id: string;
@@ -24,7 +38,7 @@ export interface BlockResult {
   status: BlockStatus;
   error?: string;
   warnings: string[];
-  outputs: Record<string, FormattedOutput>;
+  outputs: Record<string, OutputResult>;
   series?: Record<string, Series>;
 }
 
@@ -32,6 +46,8 @@ export interface SheetResults {
   format: typeof RESULTS_FORMAT;
   sheetHash: string;
   engine: string;
+  /** The uncertainty settings used and the declared distributions (sheets with distributions). */
+  uncertainty?: UncertaintyEcho;
   blocks: Record<string, BlockResult>;
 }
 
@@ -41,7 +57,7 @@ interface PreparedInput {
   checked: CheckedExpression;
 }
 
-interface PreparedBlock {
+export interface PreparedBlock {
   block: SheetBlock;
   type: BlockTypeDefinition;
   inputs: Map<string, PreparedInput>;
@@ -119,6 +135,12 @@ function prepare(document: SheetDocument): Prepared {
         continue;
       }
       prepared.inputs.set(input, { name: input, text, checked });
+      if (problem === undefined && checked.nestedDistribution) {
+        problem = blockMessage(block.name, `${input}: ${NESTED_DISTRIBUTION_MESSAGE}; derive quantities from it in a later block (formula, or another block's input referring to it)`);
+      }
+      if (problem === undefined && checked.distribution && spec && (spec.certain || isNonQuantityInput(spec))) {
+        problem = blockMessage(block.name, `${input}: must be certain; a distribution is not allowed in this input`);
+      }
       if (problem === undefined && checked.freeSymbols.length > 0) {
         const symbol = checked.freeSymbols[0]!;
         const message = spec?.dimension === 'text' && !byName.has(symbol)
@@ -166,11 +188,20 @@ function failed(block: SheetBlock, status: 'error' | 'blocked', error: string, s
 /** Evaluation state shared by the blocks of one run. */
 class Run {
   readonly results = new Map<string, BlockResult>();
+  /** Distributions made in this run, by `<block>\u0000<input>` (uncertain sheets only). */
+  readonly distributions = new Map<string, Distribution>();
+  /** The nominal input values of the blocks downstream of a distribution. */
+  readonly nominalInputs = new Map<string, Map<string, unknown>>();
+
+
   private readonly scopeObjects = new Map<string, Record<string, unknown>>();
   /** One scope for every expression of the run, holding only what the current block reads. */
   private readonly scope = new Map<string, unknown>();
 
-  constructor(private readonly options: RunOptions = {}) {}
+  constructor(
+    private readonly options: RunOptions = {},
+    private readonly uncertain: ReadonlySet<string> = new Set(),
+  ) {}
 
   /** The values of a block's outputs as expressions see them (rebuilt from the results). */
   scopeObject(name: string): Record<string, unknown> {
@@ -224,16 +255,38 @@ class Run {
   private evaluateInput(prepared: PreparedBlock, name: string, scope: Map<string, unknown>): unknown {
     const input = prepared.inputs.get(name);
     if (!input) return undefined;
+    let value: unknown;
     try {
-      const { value, warnings } = collectCallWarnings(() => input.checked.evaluate(scope));
-      for (const warning of warnings) {
-        const text = `${name}: ${warning}`;
-        if (!this.callWarnings.includes(text)) this.callWarnings.push(text);
+      const call = input.checked.distribution;
+      if (call && isDistributionName(call.name)) {
+        // The nominal pass: the distribution at its median (CONTRACT §8.3).
+        const distribution = makeDistribution(call.name, call.args.map((arg) => arg.evaluate(scope)));
+        this.distributions.set(`${prepared.block.name}\u0000${name}`, distribution);
+        value = valueOf(distribution, distribution.median);
+      } else {
+        const collected = collectCallWarnings(() => input.checked.evaluate(scope));
+        for (const warning of collected.warnings) {
+          const text = `${name}: ${warning}`;
+          if (!this.callWarnings.includes(text)) this.callWarnings.push(text);
+        }
+        value = collected.value;
       }
-      return value;
     } catch (error) {
       throw new EngineError(`${name}: ${toSafeMessage(error)}`, { input: name });
     }
+    this.recordNominal(prepared.block.name, name, value);
+    return value;
+  }
+
+  /** Keeps the nominal input values of blocks downstream of a distribution, for the samples. */
+  private recordNominal(block: string, input: string, value: unknown): void {
+    if (!this.uncertain.has(block)) return;
+    let values = this.nominalInputs.get(block);
+    if (!values) {
+      values = new Map();
+      this.nominalInputs.set(block, values);
+    }
+    values.set(input, value);
   }
 
   private compute(prepared: PreparedBlock, scope: Map<string, unknown>): BlockResult {
@@ -261,6 +314,7 @@ class Run {
     for (const spec of type.inputs) {
       const sha256 = prepared.data.get(spec.name);
       values[spec.name] = sha256 !== undefined ? new DatasetReference(sha256) : this.evaluateInput(prepared, spec.name, scope);
+      if (sha256 !== undefined) this.recordNominal(block.name, spec.name, values[spec.name]);
     }
     const outcome = runBlockType(type, values, this.options);
     const outputs: Record<string, FormattedOutput> = {};
@@ -277,12 +331,13 @@ class Run {
 
 const FORMULA_INPUTS: readonly string[] = ['expr'];
 
-function assemble(document: SheetDocument, results: Map<string, BlockResult>, sheetHash: string): SheetResults {
+function assemble(document: SheetDocument, results: Map<string, BlockResult>, sheetHash: string, uncertainty?: UncertaintyEcho): SheetResults {
   const blocks: Record<string, BlockResult> = {};
   for (const block of document.blocks) {
     const result = results.get(block.name);
     if (result) blocks[block.name] = result;
   }
+  if (uncertainty) return { format: RESULTS_FORMAT, sheetHash, engine: ENGINE_VERSION, uncertainty, blocks };
   return { format: RESULTS_FORMAT, sheetHash, engine: ENGINE_VERSION, blocks };
 }
 
@@ -293,7 +348,11 @@ function run(
   options: RunOptions,
 ): { results: SheetResults; evaluatedBlockIds: string[] } {
   const { blocks, graph } = prepare(document);
-  const state = new Run(options);
+  const plan: UncertaintyPlan | null = planUncertainty(document, blocks, graph.order, (name, message) => {
+    const prepared = blocks.get(name)!;
+    prepared.problem ??= blockMessage(name, message);
+  });
+  const state = new Run(options, plan?.uncertain);
   const reused = new Set<string>();
   const evaluatedBlockIds: string[] = [];
   for (const name of graph.order) {
@@ -307,7 +366,18 @@ function run(
     evaluatedBlockIds.push(prepared.block.id);
     state.results.set(name, state.evaluateBlock(prepared, graph));
   }
-  return { results: assemble(document, state.results, sheetHash), evaluatedBlockIds };
+  const uncertainty = plan
+    ? propagateUncertainty({
+        plan,
+        blocks,
+        order: graph.order,
+        results: state.results,
+        distributions: state.distributions,
+        nominalInputs: state.nominalInputs,
+        options,
+      })
+    : undefined;
+  return { results: assemble(document, state.results, sheetHash, uncertainty), evaluatedBlockIds };
 }
 
 /**
@@ -329,7 +399,7 @@ export function evaluateSheetIncremental(
   sheetHash = hashSheetDocument(document),
   options: RunOptions = {},
 ): { results: SheetResults; evaluatedBlockIds: string[] } {
-  if (!previous || previous.engine !== ENGINE_VERSION || previous.format !== RESULTS_FORMAT) {
+  if (!previous || previous.engine !== ENGINE_VERSION || previous.format !== RESULTS_FORMAT || mayBeUncertain(document)) {
     return run(document, () => null, sheetHash, options);
   }
   const changed = new Set(changedBlockIds);
@@ -344,4 +414,13 @@ export function evaluateSheetIncremental(
     if (prepared.data.size > 0 && before.status !== 'ok') return null;
     return before;
   }, sheetHash, options);
+}
+
+/**
+ * Whether a document has uncertainty settings or may hold a distribution: such sheets are always
+ * evaluated in full (a changed seed or distribution changes every downstream sample).
+ */
+function mayBeUncertain(document: SheetDocument): boolean {
+  if (document.uncertainty !== undefined) return true;
+  return document.blocks.some((block) => Object.values(block.inputs).some((text) => DISTRIBUTION_CALL.test(text)));
 }

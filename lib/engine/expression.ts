@@ -271,6 +271,21 @@ defineExpressionFunction('dataset', () => {
   );
 });
 
+/* ------------------------------------------------------------ distributions */
+/**
+ * The distribution calls of CONTRACT §8.1. They are recognised only as the whole expression of
+ * an input (the evaluation reads their arguments); called anywhere else they refuse.
+ */
+export const DISTRIBUTION_FUNCTIONS: readonly string[] = ['normal', 'lognormal', 'uniform', 'triangular'];
+const distributionFunctions = new Set<string>(DISTRIBUTION_FUNCTIONS);
+export const NESTED_DISTRIBUTION_MESSAGE = 'a distribution must be the whole expression of an input';
+privateImport(
+  Object.fromEntries(DISTRIBUTION_FUNCTIONS.map((name) => [name, () => {
+    throw new EngineError(NESTED_DISTRIBUTION_MESSAGE);
+  }])),
+  { override: true },
+);
+
 /* ----------------------------------------------------------- reserved names */
 const KEYWORDS = new Set(['to', 'in', 'and', 'or', 'not', 'xor', 'mod', 'end', 'true', 'false', 'null', 'undefined']);
 
@@ -279,6 +294,7 @@ export function reservedNameReason(name: string): string | null {
   if (KEYWORDS.has(name)) return `"${name}" is a word of the expression language`;
   if (math.Unit.isValuelessUnit(name)) return `"${name}" is a unit the engine knows, so ${name}.x would be ambiguous`;
   if (expressionFunctions.has(name)) return `"${name}" is a block type's function in expressions`;
+  if (distributionFunctions.has(name)) return `"${name}" is a distribution the engine knows, such as ${name}(…) in an input`;
   if (builtInNames.has(name)) {
     const value = (math as unknown as Record<string, unknown>)[name];
     return typeof value === 'function'
@@ -294,8 +310,20 @@ export interface OutputReference {
   output: string;
 }
 
+/** A distribution call that is the whole expression: its name and its compiled arguments. */
+export interface DistributionCall {
+  readonly name: string;
+  readonly args: ReadonlyArray<{ evaluate(scope: Map<string, unknown>): unknown }>;
+}
+
 export interface CheckedExpression {
   readonly text: string;
+  /** The parsed (and checked) expression tree, for the numeric compiler of samples. */
+  readonly node: MathNode;
+  /** Set when the whole expression is a distribution call (CONTRACT §8.1). */
+  readonly distribution: DistributionCall | null;
+  /** True when a distribution call appears inside a larger expression (a block error). */
+  readonly nestedDistribution: boolean;
   /** `name.output` references, in order of appearance (duplicates removed). */
   readonly references: readonly OutputReference[];
   /** Symbols that are neither units, constants nor functions (block names used bare, typos). */
@@ -324,6 +352,9 @@ function checkNesting(text: string): void {
 }
 
 interface Walk {
+  /** The root call when the expression is a single distribution call. */
+  rootCall: MathNode | null;
+  nestedDistribution: boolean;
   nodes: number;
   references: Map<string, OutputReference>;
   freeSymbols: Set<string>;
@@ -357,7 +388,8 @@ function walk(node: MathNode, state: Walk, depth: number): void {
         refuse('only named functions can be called, such as sqrt(x)');
       }
       const name = fn.name!;
-      if (!ALLOWED_FUNCTIONS.has(name) && !expressionFunctions.has(name)) {
+      if (distributionFunctions.has(name) && node !== state.rootCall) state.nestedDistribution = true;
+      if (!ALLOWED_FUNCTIONS.has(name) && !expressionFunctions.has(name) && !distributionFunctions.has(name)) {
         refuse(`the function "${name}" is not available in Denudata expressions`);
       }
       for (const arg of n.args as MathNode[]) walk(arg, state, depth + 1);
@@ -365,7 +397,7 @@ function walk(node: MathNode, state: Walk, depth: number): void {
     }
     case 'SymbolNode': {
       const name = n.name as string;
-      if (ALLOWED_FUNCTIONS.has(name) || expressionFunctions.has(name) || builtInNames.has(name)) {
+      if (ALLOWED_FUNCTIONS.has(name) || expressionFunctions.has(name) || distributionFunctions.has(name) || builtInNames.has(name)) {
         if (!isAllowedConstant(name)) refuse(`"${name}" can only be called as a function, such as ${name}(x)`);
       } else if (!math.Unit.isValuelessUnit(name)) {
         state.freeSymbols.add(name);
@@ -419,11 +451,24 @@ export function checkExpression(text: string): CheckedExpression {
     if (error instanceof RangeError) throw new EngineError('the expression is nested too deeply');
     throw explainParseError(error, text, rewritten);
   }
-  const state: Walk = { nodes: 0, references: new Map(), freeSymbols: new Set() };
+  let root: MathNode = node;
+  while (root.type === 'ParenthesisNode') root = (root as MathNode & { content: MathNode }).content;
+  const rootFn = root.type === 'FunctionNode' ? (root as MathNode & { fn: MathNode & { name?: string } }).fn : null;
+  const rootCall = rootFn && rootFn.type === 'SymbolNode' && distributionFunctions.has(rootFn.name!) ? root : null;
+  const state: Walk = { rootCall, nestedDistribution: false, nodes: 0, references: new Map(), freeSymbols: new Set() };
   walk(node, state, 0);
   const compiled = node.compile();
+  const distribution: DistributionCall | null = rootCall
+    ? {
+        name: (rootFn as MathNode & { name: string }).name,
+        args: ((rootCall as MathNode & { args: MathNode[] }).args).map((arg) => arg.compile()),
+      }
+    : null;
   const checked: CheckedExpression = {
     text,
+    node,
+    distribution,
+    nestedDistribution: state.nestedDistribution,
     references: [...state.references.values()],
     freeSymbols: [...state.freeSymbols],
     evaluate: (scope) => compiled.evaluate(scope),

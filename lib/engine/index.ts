@@ -18,7 +18,9 @@ import { typicalRange } from './typical-ranges';
 import { DIMENSIONS, formatValue, type DimensionInfo, type FormattedOutput } from './units';
 
 export { ENGINE_VERSION, RESULTS_FORMAT } from './evaluate';
-export type { BlockResult, BlockStatus, SheetResults } from './evaluate';
+export type { BlockResult, BlockStatus, OutputResult, SheetResults, Spread, UncertaintyEcho } from './evaluate';
+export type { NumericSpread, TextSpread, UncertaintyMethod, UncertaintySettings } from './uncertainty/propagate';
+export { DEFAULT_UNCERTAINTY } from './uncertainty/propagate';
 export {
   SHEET_FORMAT,
   checkBlockName,
@@ -27,12 +29,16 @@ export {
   sheetDocumentSchema,
 } from './document';
 export type { ParseSheetResult, SheetBlock, SheetDocument } from './document';
+export { MAX_SAMPLES, MAX_SEED, MIN_SAMPLES, UNCERTAINTY_METHODS } from './document';
 export { EngineError } from './errors';
 export type { Series } from './block-type';
 export { MAX_EXPRESSION_LENGTH } from './expression';
 export { DATASET_COLUMNS, DATASET_FORMAT, DATASET_KINDS, SHA256_PATTERN, canonicalDatasetJson, hashDataset } from './dataset';
 export type { DatasetCanonical, DatasetColumn, DatasetKind, DatasetLookup } from './dataset';
 export { parseDataInput } from './dataset-input';
+
+/** Why a quick calculation refuses a distribution (CONTRACT §6 amendment). */
+export const DISTRIBUTIONS_NEED_A_SHEET = 'distributions need a sheet';
 
 /** The answer of a quick calculation, with the warnings of any block-type function it called. */
 export type QuickResult = FormattedOutput & { warnings: string[] };
@@ -78,6 +84,7 @@ export function evaluateQuick(expr: string): QuickResult {
   if (typeof expr !== 'string') throw new EngineError('the expression must be text');
   try {
     const checked = checkExpression(expr);
+    if (checked.distribution || checked.nestedDistribution) throw new EngineError(DISTRIBUTIONS_NEED_A_SHEET);
     if (checked.references.length > 0) {
       const first = checked.references[0]!;
       throw new EngineError(`a quick calculation cannot refer to a block (${first.block}.${first.output})`);

@@ -53,7 +53,7 @@ export const netChange: BlockTypeDefinition = {
   ],
   outputs: [
     { name: 'dz_dt', label: 'Rate of bed elevation change', unit: 'mm/yr', kind: 'quantity', description: 'Negative is erosion, positive is deposition.' },
-    { name: 'regime', label: 'Regime', unit: '', kind: 'text', description: 'erosion, deposition or equilibrium.' },
+    { name: 'regime', label: 'Regime', unit: '', kind: 'text', description: 'erosion, deposition or equilibrium.', labels: ['erosion', 'deposition', 'equilibrium'] },
   ],
   validity: [
     'Per-unit-width fluxes (area per time) and one node of a reach; a downstream march needs a declared scheme and dx < l_f.',

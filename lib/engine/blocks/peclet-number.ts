@@ -50,7 +50,7 @@ export const pecletNumber: BlockTypeDefinition = {
   ],
   outputs: [
     { name: 'Pe', label: 'Péclet number', unit: '', kind: 'quantity', description: 'v·L/κ, dimensionless; negative for burial.' },
-    { name: 'regime', label: 'Regime', unit: '', kind: 'text', description: 'conduction (|Pe| < 0.1), transitional, or advection (|Pe| ≥ 1).' },
+    { name: 'regime', label: 'Regime', unit: '', kind: 'text', description: 'conduction (|Pe| < 0.1), transitional, or advection (|Pe| ≥ 1).', labels: ['conduction', 'transitional', 'advection'] },
   ],
   validity: ['One-dimensional vertical transport through a layer of uniform properties.', 'Regime thresholds are common practice, not sharp physical limits.'],
   cautions: ['Pe depends on the chosen L, which is a modelling choice.', STANDING_CAUTION],

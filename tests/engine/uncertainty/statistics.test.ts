@@ -1,0 +1,45 @@
+import { describe, expect, it } from 'vitest';
+import { averageRanks, histogram, mean, quantileSorted, sortedCopy, spearmanFromRanks, standardDeviation } from '@/lib/engine/uncertainty/statistics';
+
+describe('sample statistics (CONTRACT §8.5)', () => {
+  it('should give type-7 percentiles as numpy.percentile does (Hyndman & Fan 1996, definition 7)', () => {
+    // numpy.percentile([1, 2, 3, 4], [25, 50, 2.5, 97.5]) = 1.75, 2.5, 1.075, 3.925 (h = (N − 1)p, from memory)
+    const sorted = sortedCopy([4, 1, 3, 2]);
+    expect(quantileSorted(sorted, 0.25)).toBeCloseTo(1.75, 14);
+    expect(quantileSorted(sorted, 0.5)).toBeCloseTo(2.5, 14);
+    expect(quantileSorted(sorted, 0.025)).toBeCloseTo(1.075, 14);
+    expect(quantileSorted(sorted, 0.975)).toBeCloseTo(3.925, 14);
+    expect(quantileSorted(sorted, 1)).toBe(4);
+  });
+
+  it('should use N − 1 for the standard deviation (numpy std(ddof=1) of 2,4,4,4,5,5,7,9 is 2.13809, common practice)', () => {
+    const x = [2, 4, 4, 4, 5, 5, 7, 9];
+    expect(mean(x)).toBe(5);
+    expect(standardDeviation(x)).toBeCloseTo(Math.sqrt(32 / 7), 14);
+  });
+
+  it('should give tied values their average rank (scipy.stats.rankdata default, from memory)', () => {
+    // rankdata([10, 20, 10, 30, 20, 20]) = [1.5, 4, 1.5, 6, 4, 4]
+    expect([...averageRanks([10, 20, 10, 30, 20, 20])]).toEqual([1.5, 4, 1.5, 6, 4, 4]);
+  });
+
+  it('should give Spearman ±1 for monotone relations and the textbook value with ties', () => {
+    const x = [1, 2, 3, 4, 5, 6];
+    const rx = averageRanks(x);
+    expect(spearmanFromRanks(rx, averageRanks(x.map((v) => Math.exp(v))))).toBe(1);
+    expect(spearmanFromRanks(rx, averageRanks(x.map((v) => -v * v)))).toBe(-1);
+    // scipy.stats.spearmanr([1,2,3,4,5], [5,6,7,8,7]) = 0.8207826816681233 (from memory)
+    expect(spearmanFromRanks(averageRanks([1, 2, 3, 4, 5]), averageRanks([5, 6, 7, 8, 7]))).toBeCloseTo(0.8207826816681233, 12);
+  });
+
+  it('should bin on [p0.5, p99.5] in 40 bins and count the samples outside', () => {
+    const values = Float64Array.from({ length: 1001 }, (_, i) => i);
+    const h = histogram(values, sortedCopy(values));
+    expect(h.lo).toBe(5);
+    expect(h.hi).toBe(995);
+    expect(h.counts.length).toBe(40);
+    expect(h.outside).toEqual([5, 5]);
+    expect(h.counts.reduce((a, b) => a + b, 0)).toBe(991);
+    expect(h.centres[0]).toBeCloseTo(5 + 990 / 80, 12);
+  });
+});
