@@ -10,6 +10,8 @@ import {
   evaluateSheetIncremental,
   hashSheetDocument,
   parseSheetDocument,
+  hashDataset,
+  type DatasetCanonical,
   type NumericSpread,
   type SheetDocument,
   type TextSpread,
@@ -282,5 +284,34 @@ describe('the uncertainty settings in the document (CONTRACT §1, §8.2)', () =>
     const results = evaluateSheet(d);
     expect('uncertainty' in results).toBe(false);
     expect(results.blocks.q!.outputs.A).toEqual({ value: 1, unit: 'm', si: 1, siUnit: 'm' });
+  });
+});
+
+describe('data-driven blocks through their own evaluate function', () => {
+  it('should propagate a uniform K_f through channel_march: the outflux is affine in K_f (FORMULAS §16, §17.3)', () => {
+    const data: DatasetCanonical = {
+      columns: [{ name: 'distance', unit: 'm' }, { name: 'elevation', unit: 'm' }, { name: 'discharge', unit: 'm^2/yr' }],
+      format: 'denudata-dataset@1',
+      kind: 'long_profile',
+      rows: [[0, 10, 100], [500, 9, 100], [1000, 8, 100]],
+    };
+    const sha = hashDataset(data);
+    const sheetFor = (method: 'linear' | 'monte_carlo'): SheetDocument => doc(
+      [{ id: 'blk-m', name: 'march', type: 'channel_march', inputs: { data: `dataset("${sha}")`, coefficient: 'uniform(0.005, 0.015)', length_scale: '2 km' } }],
+      { method, samples: 2000, seed: 4 },
+    );
+    const options = { datasets: new Map([[sha, data]]) };
+    const mc = evaluateSheet(sheetFor('monte_carlo'), options).blocks.march!;
+    expect(mc.status, mc.error).toBe('ok');
+    const spread = mc.outputs.outgoing_flux!.spread as NumericSpread;
+    expect(spread.sensitivity!['march.coefficient']).toBe(1);
+    const linear = evaluateSheet(sheetFor('linear'), options).blocks.march!.outputs.outgoing_flux!.spread as NumericSpread;
+    expect(linear.contributions).toEqual({ 'march.coefficient': 1 });
+    // An affine map of a uniform: the Monte Carlo sd converges on the linear one (5 standard errors, N = 2000).
+    expect(Math.abs(spread.sd - linear.sd)).toBeLessThan(5 * linear.sd * Math.sqrt((1.8 - 1) / (4 * 2000)));
+    // A distribution in a data input is refused like any other non-dataset text there.
+    const bad = structuredClone(sheetFor('monte_carlo'));
+    bad.blocks[0]!.inputs.data = 'normal(1 m, 0.1 m)';
+    expect(evaluateSheet(bad, options).blocks.march!.status).toBe('error');
   });
 });
