@@ -12,6 +12,7 @@ import { isostaticResponse } from './blocks/isostatic-response';
 import { netChange } from './blocks/net-change';
 import { note } from './blocks/note';
 import { pecletNumber } from './blocks/peclet-number';
+import { profileEvolution } from './blocks/profile-evolution';
 import { quantities } from './blocks/quantities';
 import { scarpAge } from './blocks/scarp-age';
 import { scarpForward } from './blocks/scarp-forward';
@@ -35,6 +36,7 @@ export const BLOCK_TYPES: readonly BlockTypeDefinition[] = [
   steadyStateChannel,
   isostaticResponse,
   denudationConversion,
+  profileEvolution,
   channelMarch,
 ];
 
