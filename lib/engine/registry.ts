@@ -15,6 +15,7 @@ import { pecletNumber } from './blocks/peclet-number';
 import { profileEvolution } from './blocks/profile-evolution';
 import { quantities } from './blocks/quantities';
 import { scarpAge } from './blocks/scarp-age';
+import { scarpFit } from './blocks/scarp-fit';
 import { scarpForward } from './blocks/scarp-forward';
 import { steadyStateChannel } from './blocks/steady-state-channel';
 import { streamPower } from './blocks/stream-power';
@@ -36,6 +37,7 @@ export const BLOCK_TYPES: readonly BlockTypeDefinition[] = [
   steadyStateChannel,
   isostaticResponse,
   denudationConversion,
+  scarpFit,
   profileEvolution,
   channelMarch,
 ];
