@@ -26,6 +26,8 @@ export function clientCatalog(): BlockCatalogData {
       ...(input.range ? { range: input.range.text } : {}),
       ...(input.unitHint ? { unitHint: input.unitHint } : {}),
       ...(input.typical ? { typical: `${input.typical.text} (${input.typical.source})` } : {}),
+      ...(input.choices ? { choices: [...input.choices] } : {}),
+      ...(input.datasetKind ? { datasetKind: input.datasetKind } : {}),
       help: input.help,
     })),
     freeInputs: type.freeInputs,

@@ -90,6 +90,10 @@ export interface CatalogInput {
   unitHint?: string;
   /** The typical range with its source; a value 100 times beyond it warns. */
   typical?: string;
+  /** The allowed words of a text input (dimension "text"), written in double quotes. */
+  choices?: string[];
+  /** The dataset kind of a data input (dimension "dataset"): slope_profile or long_profile. */
+  datasetKind?: string;
   help: string;
 }
 
