@@ -4,7 +4,7 @@ import { useState } from 'react';
 import { Button } from '@/components/ui/button';
 import { Dialog } from '@/components/ui/dialog';
 import { compareSheets, type SheetComparison } from '@/lib/sheet/compare';
-import { mergeEdits, type MergeClash } from '@/lib/sheet/merge';
+import { mergeSheets, type MergeClash } from '@/lib/sheet/merge';
 import { ErrorText } from '@/components/ui/error-text';
 
 type Doc = { format: string; title: string; site?: { name: string; latitude?: number; longitude?: number; notes?: string }; blocks: { id: string; name: string; type: string; inputs: Record<string, string>; note?: string }[] };
@@ -65,7 +65,7 @@ export function SaveRevisionDialog({
       try {
         const current = payload.current.number;
         const [latest, original] = await Promise.all([fetchRevision(sheetId, current), base > 0 ? fetchRevision(sheetId, base) : Promise.resolve({ ...doc, blocks: [] })]);
-        const { document: merged, clashes } = mergeEdits(original, doc, latest);
+        const { document: merged, clashes } = mergeSheets(original, doc, latest);
         setConflict({ current, latest, merged, clashes, theirChanges: compareSheets({ document: original }, { document: latest }) });
       } catch (e) {
         setError(e instanceof Error ? e.message : 'The newest revision could not be loaded.');

@@ -2,7 +2,8 @@
 
 import { useMutation } from '@tanstack/react-query';
 import { useCallback, useEffect, useRef, useState } from 'react';
-import { changedBlockIds, dependentsOf, mergeDocuments } from '@/lib/sheet/document-edits';
+import { changedBlockIds, dependentsOf } from '@/lib/sheet/document-edits';
+import { mergeSheets, sameJson as same } from '@/lib/sheet/merge';
 import type { SheetDocument, SheetResults } from '@/lib/sheet/types';
 
 export type SaveState =
@@ -29,7 +30,6 @@ interface PendingEdits {
 }
 
 const storageKey = (sheetId: string) => `denudata-draft:${sheetId}`;
-const same = (a: unknown, b: unknown) => JSON.stringify(a) === JSON.stringify(b);
 const SAVE_DELAY_MS = 600;
 const HISTORY_LIMIT = 200;
 
@@ -252,7 +252,7 @@ export function useSheetDraft({
   const reapplyMine = useCallback(() => {
     const current = conflictRef.current;
     if (!current) return;
-    const { document, conflicts } = mergeDocuments(baseDocRef.current, docRef.current, current.serverDocument);
+    const { document, clashes } = mergeSheets(baseDocRef.current, docRef.current, current.serverDocument);
     baseDocRef.current = current.serverDocument;
     versionRef.current = current.serverVersion;
     setVersion(current.serverVersion);
@@ -266,9 +266,9 @@ export function useSheetDraft({
     markChanged(current.serverDocument, document);
     setStale((s) => new Set([...s, ...document.blocks.map((b) => b.id)]));
     setNotice(
-      conflicts.length
-        ? `Your edits were re-applied on version ${current.serverVersion}. ${conflicts.length} block(s) changed on both sides kept your version: ${conflicts
-            .map((id) => document.blocks.find((b) => b.id === id)?.name ?? id)
+      clashes.length
+        ? `Your edits were re-applied on version ${current.serverVersion}. ${clashes.length} change(s) made on both sides kept your version: ${clashes
+            .map((c) => `${c.blockName} ${c.field}`)
             .join(', ')}.`
         : `Your edits were re-applied on version ${current.serverVersion}.`,
     );

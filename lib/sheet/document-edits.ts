@@ -3,6 +3,7 @@
  * here, so each one is unit-tested and undoable (the workspace keeps the documents).
  */
 import { findReferences, renameOutputReferences, renameReferences } from './expression-tokens';
+import { sameJson } from './merge';
 import type { CatalogType, SheetBlock, SheetDocument } from './types';
 
 /** The contract's pattern for block names (the server also refuses units, constants and functions). */
@@ -187,92 +188,15 @@ export function dependentsOf(doc: SheetDocument, seedIds: Iterable<string>): Set
 /** Ids of blocks that differ between two documents (added, removed or changed). */
 export function changedBlockIds(before: SheetDocument | null, after: SheetDocument): string[] {
   if (!before) return after.blocks.map((b) => b.id);
-  const old = new Map(before.blocks.map((b) => [b.id, JSON.stringify(b)]));
+  const old = new Map(before.blocks.map((b) => [b.id, b]));
   const ids: string[] = [];
-  for (const block of after.blocks) if (old.get(block.id) !== JSON.stringify(block)) ids.push(block.id);
+  for (const block of after.blocks) if (!sameJson(old.get(block.id), block)) ids.push(block.id);
   const now = new Set(after.blocks.map((b) => b.id));
   for (const block of before.blocks) if (!now.has(block.id)) ids.push(block.id);
   return ids;
 }
 
-/* ------------------------------------------------------------- three-way merge */
-
-export interface MergeOutcome {
-  document: SheetDocument;
-  /** Blocks both sides changed; the local edit wins and is listed here. */
-  conflicts: string[];
-}
-
-const same = (a: unknown, b: unknown) => JSON.stringify(a) === JSON.stringify(b);
-
-/**
- * Re-applies local edits (base → local) on top of the server's version (theirs), block by block
- * (by id). When both sides changed the same block, the local edit wins and the block is named in
- * `conflicts`. Names made ambiguous by the merge get a suffix.
- */
-export function mergeDocuments(base: SheetDocument, local: SheetDocument, theirs: SheetDocument): MergeOutcome {
-  const baseById = new Map(base.blocks.map((b) => [b.id, b]));
-  const localById = new Map(local.blocks.map((b) => [b.id, b]));
-  const theirsById = new Map(theirs.blocks.map((b) => [b.id, b]));
-  const conflicts: string[] = [];
-
-  const pick = (id: string): SheetBlock | null => {
-    const b = baseById.get(id);
-    const l = localById.get(id) ?? null;
-    const t = theirsById.get(id) ?? null;
-    if (!b) return l ?? t; // added on one side (ids are unique, so never on both)
-    const localChanged = !same(b, l);
-    const theirsChanged = !same(b, t);
-    if (!localChanged) return t;
-    if (!theirsChanged) return l;
-    if (same(l, t)) return l;
-    conflicts.push(id);
-    return l ?? t; // a local deletion against their edit keeps their block
-  };
-
-  // Order: local order when only we reordered, otherwise theirs, with local additions placed after
-  // the block that precedes them locally.
-  const baseOrder = base.blocks.map((b) => b.id);
-  const localOrderOfBase = local.blocks.map((b) => b.id).filter((id) => baseById.has(id));
-  const theirsOrderOfBase = theirs.blocks.map((b) => b.id).filter((id) => baseById.has(id));
-  const weReordered = !same(localOrderOfBase, baseOrder.filter((id) => localById.has(id)));
-  const theyReordered = !same(theirsOrderOfBase, baseOrder.filter((id) => theirsById.has(id)));
-  let order: string[] = weReordered && !theyReordered ? [...local.blocks.map((b) => b.id).filter((id) => baseById.has(id))] : theirs.blocks.map((b) => b.id);
-  for (const id of theirs.blocks.map((b) => b.id)) if (!order.includes(id)) order.push(id);
-  for (const id of base.blocks.map((b) => b.id)) if (!order.includes(id) && theirsById.has(id)) order.push(id);
-  local.blocks.forEach((block, index) => {
-    if (baseById.has(block.id) || order.includes(block.id)) return;
-    const before = local.blocks[index - 1]?.id;
-    const at = before ? order.indexOf(before) : -1;
-    order.splice(at + 1, 0, block.id);
-  });
-  order = [...new Set(order)];
-
-  const blocks: SheetBlock[] = [];
-  for (const id of order) {
-    const block = pick(id);
-    if (block) blocks.push(block);
-  }
-  // Keep names unique: the block that came from the local side gets a suffix.
-  const seen = new Set<string>();
-  const fixed = blocks.map((block) => {
-    if (!seen.has(block.name)) {
-      seen.add(block.name);
-      return block;
-    }
-    let n = 2;
-    let name = `${block.name.slice(0, 36)}_${n}`;
-    while (seen.has(name) || blocks.some((b) => b.name === name)) name = `${block.name.slice(0, 36)}_${++n}`;
-    seen.add(name);
-    return { ...block, name };
-  });
-
-  const header = (key: 'title' | 'site') => (!same(base[key], local[key]) ? local[key] : theirs[key]);
-  const document: SheetDocument = { format: 'denudata-sheet@1', title: header('title') as string, blocks: fixed };
-  const site = header('site');
-  if (site) document.site = site as SheetDocument['site'];
-  return { document, conflicts };
-}
+/* The three-way merge of documents lives in ./merge.ts (mergeSheets). */
 
 export const PARAMETER_NAME_PATTERN = /^[A-Za-z][A-Za-z0-9_]{0,39}$/;
 
@@ -292,7 +216,7 @@ export function renameParameter(doc: SheetDocument, id: string, from: string, to
       blocks: doc.blocks.map((b) => {
         if (b.id === id) return { ...b, inputs, ...(display ? { display } : {}) };
         const next = Object.fromEntries(Object.entries(b.inputs).map(([k, v]) => [k, renameOutputReferences(v, block.name, from, to)]));
-        return same(next, b.inputs) ? b : { ...b, inputs: next };
+        return sameJson(next, b.inputs) ? b : { ...b, inputs: next };
       }),
     },
   };

@@ -3,7 +3,6 @@ import {
   changedBlockIds,
   dependentsOf,
   duplicateBlock,
-  mergeDocuments,
   moveBlock,
   precheckBlockName,
   renameBlock,
@@ -79,53 +78,6 @@ describe('dependentsOf and changedBlockIds', () => {
     after.blocks[3]!.inputs.expr = '4 m';
     after.blocks.splice(0, 1);
     expect(changedBlockIds(doc(), after).sort()).toEqual(['a', 'd']);
-  });
-});
-
-describe('mergeDocuments', () => {
-  it('should keep their edit of one block and my edit of another', () => {
-    const base = doc();
-    const local = doc();
-    local.blocks[3]!.inputs.expr = '5 m';
-    const theirs = doc();
-    theirs.blocks[0]!.inputs.K = '0.01 m^2/yr';
-    const { document, conflicts } = mergeDocuments(base, local, theirs);
-    expect(document.blocks[0]!.inputs.K).toBe('0.01 m^2/yr');
-    expect(document.blocks[3]!.inputs.expr).toBe('5 m');
-    expect(conflicts).toEqual([]);
-  });
-
-  it('should keep a block I added after its local predecessor, and their deletion', () => {
-    const base = doc();
-    const local = doc();
-    local.blocks.splice(1, 0, { id: 'n', name: 'new_one', type: 'formula', inputs: { expr: '1' } });
-    const theirs = doc();
-    theirs.blocks.splice(3, 1);
-    const { document } = mergeDocuments(base, local, theirs);
-    expect(document.blocks.map((b) => b.id)).toEqual(['a', 'n', 'b', 'c']);
-  });
-
-  it('should let my edit win where both changed a block, and report the conflict', () => {
-    const base = doc();
-    const local = doc();
-    local.blocks[2]!.inputs.expr = 'hill.dz_dt * 3';
-    const theirs = doc();
-    theirs.blocks[2]!.inputs.expr = 'hill.dz_dt * 4';
-    const { document, conflicts } = mergeDocuments(base, local, theirs);
-    expect(document.blocks[2]!.inputs.expr).toBe('hill.dz_dt * 3');
-    expect(conflicts).toEqual(['c']);
-  });
-
-  it('should rename a local addition whose name they also took', () => {
-    const base = doc();
-    const local = doc();
-    local.blocks.push({ id: 'x', name: 'same', type: 'formula', inputs: { expr: '1' } });
-    const theirs = doc();
-    theirs.blocks.push({ id: 'y', name: 'same', type: 'formula', inputs: { expr: '2' } });
-    const names = mergeDocuments(base, local, theirs).document.blocks.map((b) => b.name);
-    expect(new Set(names).size).toBe(names.length);
-    expect(names).toContain('same');
-    expect(names).toContain('same_2');
   });
 });
 
