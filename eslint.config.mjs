@@ -25,7 +25,7 @@ const config = [
       'react-hooks/rules-of-hooks': 'error',
       '@typescript-eslint/no-unused-vars': ['error', { argsIgnorePattern: '^_', varsIgnorePattern: '^_', caughtErrors: 'none' }],
       '@typescript-eslint/no-unused-expressions': 'error',
-      '@typescript-eslint/consistent-type-imports': ['error', { fixStyle: 'inline-type-imports' }],
+      '@typescript-eslint/consistent-type-imports': ['error', { fixStyle: 'inline-type-imports', disallowTypeAnnotations: false }],
       // React Compiler diagnostics (react-hooks 7). We do not run the compiler; these point at patterns that
       // are safe without it (a "latest value" ref written during render, state set from an effect that reads
       // the browser). Shown as warnings so they are visible and worked down, not errors that block others.
