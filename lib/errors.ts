@@ -6,7 +6,8 @@ export type ErrorCode =
   | 'not_found'
   | 'conflict'
   | 'too_large'
-  | 'timeout'
+  | 'limit_exceeded'
+  | 'rate_limited'
   | 'internal';
 
 const STATUS: Record<ErrorCode, number> = {
@@ -16,7 +17,8 @@ const STATUS: Record<ErrorCode, number> = {
   not_found: 404,
   conflict: 409,
   too_large: 413,
-  timeout: 422,
+  limit_exceeded: 422,
+  rate_limited: 429,
   internal: 500,
 };
 
@@ -28,11 +30,13 @@ export class AppError extends Error {
   readonly extra?: Record<string, unknown>;
   /** Extra members of the error object itself, such as `position` on a parse error. */
   readonly detail?: Record<string, unknown>;
+  /** Seconds after which a retry may succeed (sent as Retry-After with 429 and 503). */
+  readonly retryAfter?: number;
 
   constructor(
     code: ErrorCode,
     message: string,
-    options: { field?: string; extra?: Record<string, unknown>; detail?: Record<string, unknown> } = {},
+    options: { field?: string; extra?: Record<string, unknown>; detail?: Record<string, unknown>; retryAfter?: number } = {},
   ) {
     super(message);
     this.name = 'AppError';
@@ -41,6 +45,7 @@ export class AppError extends Error {
     this.field = options.field;
     this.extra = options.extra;
     this.detail = options.detail;
+    this.retryAfter = options.retryAfter;
   }
 
   toBody() {
@@ -56,3 +61,8 @@ export const unauthenticated = () => new AppError('unauthenticated', 'Sign in to
 export const forbidden = (message = 'Your role in this team does not allow that.') => new AppError('forbidden', message);
 export const notFound = (what = 'That') => new AppError('not_found', `${what} was not found.`);
 export const conflict = (message: string, extra?: Record<string, unknown>) => new AppError('conflict', message, { extra });
+/** 429 with Retry-After (whole seconds, at least 1). */
+export const rateLimited = (message: string, retryAfterSeconds: number) =>
+  new AppError('rate_limited', message, { retryAfter: Math.max(1, Math.ceil(retryAfterSeconds)) });
+/** 422: an evaluation stopped as a whole by its time or memory limit. */
+export const limitExceeded = (message: string) => new AppError('limit_exceeded', message);

@@ -1,20 +1,105 @@
 // Command-line runner: evaluates a sheet document and prints its results as JSON.
-//   npm run --silent calc -- <sheet.json>
-// Exit codes: 0 every block ok; 1 any block error or blocked; 2 unreadable or invalid document.
+//   npm run --silent calc -- <sheet.json> [--time-limit S]
+// Exit codes: 0 every block ok; 1 any block error or blocked (a value over a size cap is a block
+// error); 2 unreadable or invalid document; 3 the whole run was stopped by its time limit
+// (--time-limit S, default 120 s, counted from when the evaluation starts) or its memory limit
+// (DENUDATA_CALC_MEMORY_MB, default 2048), with the reason on stderr.
+//
+// The evaluation runs in a worker thread so that the time and memory limits can stop it: the
+// worker says "started" when it is ready, the clock starts then, and the worker is terminated when
+// the clock runs out. Caps on values (matrix elements, string length, results size) are the
+// engine's own, the same as in the app.
 import { readFile } from 'node:fs/promises';
 import path from 'node:path';
-import { evaluateSheet, parseSheetDocument } from '../lib/engine';
+import { isMainThread, parentPort, Worker, workerData } from 'node:worker_threads';
+import { evaluateSheet, parseSheetDocument, type SheetDocument, type SheetResults } from '../lib/engine';
 
-function fail(reason: string): never {
+const DEFAULT_TIME_LIMIT_S = 120;
+const DEFAULT_MEMORY_MB = 2048;
+
+type WorkerReply = { type: 'started' } | { type: 'done'; results: SheetResults } | { type: 'failed'; message: string };
+
+function fail(reason: string, code = 2): never {
   process.stderr.write(`calc: ${reason}\n`);
-  process.exit(2);
+  process.exit(code);
+}
+
+function parseArgs(argv: string[]): { file: string; timeLimitS: number } {
+  const positional: string[] = [];
+  let timeLimitS = DEFAULT_TIME_LIMIT_S;
+  for (let i = 0; i < argv.length; i++) {
+    const arg = argv[i]!;
+    if (arg === '--') continue;
+    if (arg === '--time-limit' || arg.startsWith('--time-limit=')) {
+      const text = arg.includes('=') ? arg.slice(arg.indexOf('=') + 1) : argv[++i];
+      const value = Number(text);
+      if (text === undefined || text.trim() === '' || !Number.isFinite(value) || value <= 0) {
+        fail(`--time-limit takes a number of seconds greater than 0 (got ${text ?? 'nothing'})`);
+      }
+      timeLimitS = value;
+    } else if (arg.startsWith('--')) {
+      fail(`unknown option ${arg}; usage: npm run --silent calc -- <sheet.json> [--time-limit S]`);
+    } else positional.push(arg);
+  }
+  if (positional.length !== 1) fail('usage: npm run --silent calc -- <sheet.json> [--time-limit S]');
+  return { file: positional[0]!, timeLimitS };
+}
+
+function memoryLimitMb(): number {
+  const value = Number(process.env.DENUDATA_CALC_MEMORY_MB ?? DEFAULT_MEMORY_MB);
+  return Number.isFinite(value) && value >= 64 ? value : DEFAULT_MEMORY_MB;
+}
+
+/** Runs the evaluation in a worker thread under the time and memory limits. */
+function evaluateWithLimits(document: SheetDocument, timeLimitS: number): Promise<SheetResults> {
+  // Node 20 worker threads do not inherit tsx's loader: register it in the worker first.
+  const source = `require('tsx/cjs/api').register();
+import('tsx/esm/api').then(({ register }) => { register(); return import(${JSON.stringify(import.meta.url)}); });`;
+  const worker = new Worker(source, {
+    eval: true,
+    workerData: { document },
+    execArgv: ['--conditions=react-server'],
+    resourceLimits: { maxOldGenerationSizeMb: memoryLimitMb() },
+    stderr: false,
+  });
+  return new Promise((resolve, reject) => {
+    let timer: NodeJS.Timeout | undefined;
+    let settled = false;
+    const settle = (action: () => void) => {
+      if (settled) return;
+      settled = true;
+      clearTimeout(timer);
+      action();
+      void worker.terminate();
+    };
+    worker.on('message', (reply: WorkerReply) => {
+      if (reply.type === 'started') {
+        timer = setTimeout(() => {
+          settle(() => reject(Object.assign(new Error(`stopped: the evaluation took longer than its time limit of ${timeLimitS} s`), { exitCode: 3 })));
+        }, timeLimitS * 1000);
+      } else if (reply.type === 'done') settle(() => resolve(reply.results));
+      else settle(() => reject(new Error(reply.message)));
+    });
+    worker.on('error', (error: Error & { code?: string }) => {
+      const memory = error.code === 'ERR_WORKER_OUT_OF_MEMORY' || /out of memory/i.test(error.message);
+      settle(() =>
+        reject(
+          memory
+            ? Object.assign(new Error(`stopped: the evaluation needed more than its memory limit of ${memoryLimitMb()} MB`), { exitCode: 3 })
+            : error,
+        ),
+      );
+    });
+    worker.on('exit', (code) => {
+      settle(() => reject(Object.assign(new Error(`stopped: the evaluation ended unexpectedly (code ${code})`), { exitCode: 3 })));
+    });
+  });
 }
 
 async function main(): Promise<void> {
-  const args = process.argv.slice(2).filter((arg) => arg !== '--');
-  if (args.length !== 1) fail('usage: npm run --silent calc -- <sheet.json>');
+  const { file: given, timeLimitS } = parseArgs(process.argv.slice(2));
   const base = process.env.INIT_CWD ?? process.cwd();
-  const file = path.resolve(base, args[0]!);
+  const file = path.resolve(base, given);
   let text: string;
   try {
     text = await readFile(file, 'utf8');
@@ -29,13 +114,30 @@ async function main(): Promise<void> {
   }
   const parsed = parseSheetDocument(json);
   if (!parsed.ok) fail(`invalid document: ${parsed.path ? `${parsed.path}: ` : ''}${parsed.message}`);
-  const results = evaluateSheet(parsed.document);
+  let results: SheetResults;
+  try {
+    results = await evaluateWithLimits(parsed.document, timeLimitS);
+  } catch (error) {
+    const code = (error as { exitCode?: number }).exitCode ?? 2;
+    fail(error instanceof Error ? error.message : String(error), code);
+  }
   process.stdout.write(`${JSON.stringify(results, null, 2)}\n`);
   const allOk = Object.values(results.blocks).every((block) => block.status === 'ok');
   process.exitCode = allOk ? 0 : 1;
 }
 
-main().catch((error: unknown) => {
-  process.stderr.write(`calc: ${error instanceof Error ? error.message : String(error)}\n`);
-  process.exit(2);
-});
+if (isMainThread) {
+  main().catch((error: unknown) => {
+    process.stderr.write(`calc: ${error instanceof Error ? error.message : String(error)}\n`);
+    process.exit(2);
+  });
+} else {
+  const port = parentPort!;
+  port.postMessage({ type: 'started' } satisfies WorkerReply);
+  try {
+    const results = evaluateSheet((workerData as { document: SheetDocument }).document);
+    port.postMessage({ type: 'done', results } satisfies WorkerReply);
+  } catch (error) {
+    port.postMessage({ type: 'failed', message: error instanceof Error ? error.message : String(error) } satisfies WorkerReply);
+  }
+}

@@ -109,14 +109,14 @@ export async function getReviewSummary({ sheetId, number }: { sheetId: string; n
 type Evaluated = { document: SheetDocument; hash: string; results: SheetResults; engineVersion: string };
 
 /** Validates and evaluates a document through the worker pool (outside any transaction). */
-export async function evaluateForRevision(input: unknown): Promise<Evaluated> {
+export async function evaluateForRevision(input: unknown, userId?: string): Promise<Evaluated> {
   const document = requireValidDocument(input);
   let results: SheetResults;
   try {
-    results = await runEvaluate(document);
+    results = await runEvaluate(document, userId ? { userId } : undefined);
   } catch (error) {
     if (error instanceof EngineError) {
-      throw new AppError(/longer than|too much memory/.test(error.message) ? 'timeout' : 'validation', `document: ${error.message}`);
+      throw new AppError(/longer than|too much memory/.test(error.message) ? 'limit_exceeded' : 'validation', `document: ${error.message}`);
     }
     throw error;
   }
@@ -196,7 +196,7 @@ export async function saveRevision({
   document: unknown;
   message: string;
 }): Promise<{ number: number; hash: string }> {
-  const evaluated = await evaluateForRevision(document);
+  const evaluated = await evaluateForRevision(document, userId);
   const sequelize = db();
   try {
     return await sequelize.transaction(async (transaction) => {
@@ -223,7 +223,7 @@ export async function importSheet({
   userId: string;
   document: unknown;
 }): Promise<{ sheet: SheetRecord; revision: { number: number; hash: string } }> {
-  const evaluated = await evaluateForRevision(document);
+  const evaluated = await evaluateForRevision(document, userId);
   const sequelize = db();
   return sequelize.transaction(async (transaction) => {
     const sheet = await insertSheet(

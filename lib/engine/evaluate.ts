@@ -25,6 +25,30 @@ import {
 export type { Spread, UncertaintyEcho } from './uncertainty/propagate';
 
 export const ENGINE_VERSION = '1.0.0';
+/** CONTRACT §3 Limits: the size of a results document (UTF-8 bytes of its JSON). */
+export const MAX_RESULTS_BYTES = 16 * 1024 * 1024;
+/** Room kept for the envelope (format, hash, engine) and the block names as keys. */
+const RESULTS_ENVELOPE_BYTES = 4096;
+
+/** UTF-8 length of a string, without encoding it (the engine is pure: no Buffer). */
+function utf8Length(text: string): number {
+  let bytes = 0;
+  for (let i = 0; i < text.length; i++) {
+    const code = text.charCodeAt(i);
+    if (code < 0x80) bytes += 1;
+    else if (code < 0x800) bytes += 2;
+    else if (code >= 0xd800 && code <= 0xdbff && i + 1 < text.length) {
+      bytes += 4;
+      i++;
+    } else bytes += 3;
+  }
+  return bytes;
+}
+
+/** The bytes a block's entry adds to the results document ("name":{...},). */
+export function blockResultBytes(name: string, result: BlockResult): number {
+  return utf8Length(JSON.stringify(name)) + utf8Length(JSON.stringify(result)) + 2;
+}
 export const RESULTS_FORMAT = 'denudata-results@1';
 
 export type BlockStatus = 'ok' | 'error' | 'blocked';
@@ -341,11 +365,17 @@ function assemble(document: SheetDocument, results: Map<string, BlockResult>, sh
   return { format: RESULTS_FORMAT, sheetHash, engine: ENGINE_VERSION, blocks };
 }
 
+/** Options of an evaluation: the datasets data inputs resolve against, and a progress hook. */
+export interface EvaluateOptions extends RunOptions {
+  /** Called after each block with the fraction of blocks done (0..1], for progress bars; changes no result. */
+  onProgress?: (fraction: number) => void;
+}
+
 function run(
   document: SheetDocument,
   reuse: (prepared: PreparedBlock, graph: DependencyGraph, reused: Set<string>) => BlockResult | null,
   sheetHash: string,
-  options: RunOptions,
+  options: EvaluateOptions = {},
 ): { results: SheetResults; evaluatedBlockIds: string[] } {
   const { blocks, graph } = prepare(document);
   const plan: UncertaintyPlan | null = planUncertainty(document, blocks, graph.order, (name, message) => {
@@ -353,18 +383,44 @@ function run(
     prepared.problem ??= blockMessage(name, message);
   });
   const state = new Run(options, plan?.uncertain);
+  const total = graph.order.length;
+  // With uncertainty, the blocks' nominal pass is the first tenth of the work; the rest is reported
+  // by the propagation (options.onProgress) when it reports at all.
+  const blockShare = plan ? 0.1 : 1;
+  let done = 0;
   const reused = new Set<string>();
   const evaluatedBlockIds: string[] = [];
+  let bytes = RESULTS_ENVELOPE_BYTES;
   for (const name of graph.order) {
     const prepared = blocks.get(name)!;
     const previous = reuse(prepared, graph, reused);
+    let result: BlockResult;
     if (previous) {
       reused.add(name);
-      state.results.set(name, previous);
-      continue;
+      result = previous;
+    } else {
+      evaluatedBlockIds.push(prepared.block.id);
+      result = state.evaluateBlock(prepared, graph);
     }
-    evaluatedBlockIds.push(prepared.block.id);
-    state.results.set(name, state.evaluateBlock(prepared, graph));
+    // A block whose outputs would take the document over its size cap is an error (its
+    // dependents are then blocked), never a stopped run.
+    let size = blockResultBytes(name, result);
+    if (bytes + size > MAX_RESULTS_BYTES) {
+      if (previous) {
+        reused.delete(name);
+        evaluatedBlockIds.push(prepared.block.id);
+      }
+      result = failed(
+        prepared.block,
+        'error',
+        blockMessage(name, `its results would take the results document over the limit of ${MAX_RESULTS_BYTES / (1024 * 1024)} MB`),
+      );
+      size = blockResultBytes(name, result);
+    }
+    bytes += size;
+    state.results.set(name, result);
+    done++;
+    options.onProgress?.((blockShare * done) / total);
   }
   const uncertainty = plan
     ? propagateUncertainty({
@@ -384,7 +440,11 @@ function run(
  * Evaluates every block of a (validated) sheet document. `sheetHash` is the document's hash
  * when the caller has it already (computed from the canonical text of the validation).
  */
-export function evaluateSheet(document: SheetDocument, sheetHash = hashSheetDocument(document), options: RunOptions = {}): SheetResults {
+export function evaluateSheet(
+  document: SheetDocument,
+  sheetHash = hashSheetDocument(document),
+  options: EvaluateOptions = {},
+): SheetResults {
   return run(document, () => null, sheetHash, options).results;
 }
 
@@ -397,7 +457,7 @@ export function evaluateSheetIncremental(
   previous: SheetResults | null,
   changedBlockIds: readonly string[],
   sheetHash = hashSheetDocument(document),
-  options: RunOptions = {},
+  options: EvaluateOptions = {},
 ): { results: SheetResults; evaluatedBlockIds: string[] } {
   if (!previous || previous.engine !== ENGINE_VERSION || previous.format !== RESULTS_FORMAT || mayBeUncertain(document)) {
     return run(document, () => null, sheetHash, options);

@@ -15,7 +15,10 @@ import { temperatureArithmetic } from './temperature';
 export const MAX_EXPRESSION_LENGTH = 2000;
 export const MAX_EXPRESSION_NODES = 1000;
 export const MAX_NESTING_DEPTH = 40;
-export const MAX_MATRIX_ELEMENTS = 1000;
+/** CONTRACT §3 Limits: elements in any matrix value (intermediate or final). */
+export const MAX_MATRIX_ELEMENTS = 100_000;
+/** CONTRACT §3 Limits: characters in any string value (intermediate or final). */
+export const MAX_STRING_LENGTH = 1000;
 
 // mathjs types `all` as an index into a map; it is the full factory set.
 const math = create(all as FactoryFunctionMap, { number: 'number', precision: 64 });
@@ -156,6 +159,131 @@ function assertElementCount(fn: string, count: number): void {
   }
 }
 
+/* ------------------------------------------- size of every intermediate value */
+// The constructors above are bounded before they allocate; every other function and operator
+// an expression can reach is wrapped below so that (a) a call whose result size follows from the
+// sizes of its matrix arguments (an outer product, a broadcast sum, a concatenation) is refused
+// before it allocates, and (b) every result is checked after the call: its element count, and the
+// length of a string. The checks apply to intermediate values as well as final ones, so
+// `sum(ones(1000, 1) * ones(1, 1000))` is refused although its final value is one number.
+
+/** The shape of a matrix or nested array, or null for anything else. */
+function shapeOf(value: unknown): number[] | null {
+  if (math.isMatrix(value)) return (value as { size(): number[] }).size();
+  if (!Array.isArray(value)) return null;
+  const shape: number[] = [];
+  let level: unknown = value;
+  while (Array.isArray(level)) {
+    shape.push(level.length);
+    level = level[0];
+  }
+  return shape;
+}
+
+function product(shape: readonly number[]): number {
+  return shape.reduce((a, b) => a * b, 1);
+}
+
+/** The shape of a matrix product (mathjs semantics), or null when mathjs will refuse it. */
+function productShape(a: number[] | null, b: number[] | null): number[] | null {
+  if (a === null) return b;
+  if (b === null) return a;
+  if (a.length === 1 && b.length === 1) return [];
+  if (a.length === 2 && b.length === 1) return [a[0]!];
+  if (a.length === 1 && b.length === 2) return [b[1]!];
+  if (a.length === 2 && b.length === 2) return [a[0]!, b[1]!];
+  return null;
+}
+
+/** The element count a call will produce, when it follows from its arguments' shapes. */
+function predictedElements(fn: string, args: readonly unknown[]): number {
+  const shapes = args.map(shapeOf);
+  const matrices = shapes.filter((shape): shape is number[] => shape !== null);
+  if (fn === 'concat') return matrices.reduce((n, shape) => n + product(shape), 0);
+  if (fn === 'multiply') {
+    let shape: number[] | null = null;
+    let first = true;
+    for (const next of shapes) {
+      if (first) {
+        shape = next;
+        first = false;
+        continue;
+      }
+      shape = productShape(shape, next);
+      if (shape === null && next !== null) return 0; // a shape mathjs refuses itself
+    }
+    return shape === null ? 0 : product(shape);
+  }
+  if (matrices.length < 2) return 0;
+  // Element-wise functions broadcast their arguments to the largest size along each dimension.
+  const rank = Math.max(...matrices.map((shape) => shape.length));
+  const broadcast: number[] = [];
+  for (let d = 0; d < rank; d++) {
+    let size = 0;
+    for (const shape of matrices) size = Math.max(size, shape[shape.length - rank + d] ?? 1);
+    broadcast.push(size);
+  }
+  return product(broadcast);
+}
+
+function elementCount(value: unknown): number {
+  if (math.isMatrix(value)) return product((value as { size(): number[] }).size());
+  if (Array.isArray(value)) return value.reduce((n: number, item) => n + (Array.isArray(item) ? elementCount(item) : 1), 0);
+  return 1;
+}
+
+/**
+ * Checks one value against the size caps of CONTRACT §3 (element count of a matrix, length of a
+ * string); `what` names where it came from. Throws an EngineError naming the cap.
+ */
+export function checkValueSize(what: string, value: unknown): void {
+  if (typeof value === 'string') {
+    if (value.length > MAX_STRING_LENGTH) {
+      throw new EngineError(
+        `${what}: the text would be ${value.length} characters long, over the limit of ${MAX_STRING_LENGTH} characters in a string value`,
+      );
+    }
+    return;
+  }
+  if (math.isMatrix(value) || Array.isArray(value)) {
+    const count = elementCount(value);
+    if (count > MAX_MATRIX_ELEMENTS) {
+      throw new EngineError(
+        `${what}: the result would hold ${count} elements, over the limit of ${MAX_MATRIX_ELEMENTS} elements in a matrix value`,
+      );
+    }
+  }
+}
+
+type Flagged = AnyFunction & { rawArgs?: boolean; transform?: AnyFunction };
+
+/** The function with its size checks before (from the arguments' shapes) and after (the result). */
+function sizeChecked(name: string, fn: Flagged): Flagged {
+  let checked: Flagged;
+  if (fn.rawArgs === true) {
+    // Lazily evaluated operators (and, or, ??): their arguments are parse nodes; check the result only.
+    checked = (...args) => {
+      const result = fn(...args);
+      checkValueSize(name, result);
+      return result;
+    };
+    checked.rawArgs = true;
+  } else {
+    checked = (...args) => {
+      const predicted = predictedElements(name, args);
+      if (predicted > MAX_MATRIX_ELEMENTS) {
+        throw new EngineError(
+          `${name}: the result would hold ${predicted} elements, over the limit of ${MAX_MATRIX_ELEMENTS} elements in a matrix value`,
+        );
+      }
+      const result = fn(...args);
+      checkValueSize(name, result);
+      return result;
+    };
+  }
+  return checked;
+}
+
 function countElements(value: unknown): number {
   if (Array.isArray(value)) return value.reduce((n: number, item) => n + countElements(item), 0);
   if (math.isMatrix(value)) return value.size().reduce((a: number, b: number) => a * b, 1);
@@ -239,6 +367,32 @@ const ALLOWED_FUNCTIONS = new Set<string>([
   'inv', 'norm', 'trace', 'subset', 'concat', 'flatten', 'sort', 'count',
 ]);
 
+/** The functions behind the operators of the expression language (a + b is add(a, b), ...). */
+const OPERATOR_FUNCTIONS = [
+  'add', 'and', 'bitAnd', 'bitNot', 'bitOr', 'bitXor', 'ctranspose', 'divide', 'dotDivide', 'dotMultiply',
+  'dotPow', 'equal', 'factorial', 'larger', 'largerEq', 'leftShift', 'mod', 'multiply', 'not', 'nullish', 'or',
+  'pow', 'rightArithShift', 'rightLogShift', 'smaller', 'smallerEq', 'subtract', 'to', 'unaryMinus',
+  'unaryPlus', 'unequal', 'xor', 'index', 'subset', 'range', 'matrix',
+] as const;
+
+// Every function an expression reaches (by name or through an operator) is replaced by its
+// size-checked form, in the namespace and in the expression transforms (1-based variants), so
+// no intermediate value exceeds the caps.
+{
+  const namespace = math as unknown as Record<string, Flagged>;
+  const transforms = (math as unknown as { expression: { transform: Record<string, Flagged> } }).expression.transform;
+  const wrapped: Record<string, Flagged> = {};
+  for (const name of new Set<string>([...ALLOWED_FUNCTIONS, ...OPERATOR_FUNCTIONS])) {
+    const current = namespace[name];
+    if (typeof current !== 'function') continue;
+    const checked = sizeChecked(name, current);
+    const transform = transforms[name];
+    if (typeof transform === 'function') checked.transform = sizeChecked(name, transform);
+    wrapped[name] = checked;
+  }
+  privateImport(wrapped, { override: true });
+}
+
 /** Named values an expression may use: numeric or unit constants such as pi, e or gravity. */
 function isAllowedConstant(name: string): boolean {
   if (!builtInNames.has(name)) return false;
@@ -254,7 +408,7 @@ const expressionFunctions = new Set<string>();
  */
 export function defineExpressionFunction(name: string, fn: AnyFunction): void {
   if (expressionFunctions.has(name)) return;
-  privateImport({ [name]: fn }, { override: true });
+  privateImport({ [name]: sizeChecked(name, fn) }, { override: true });
   expressionFunctions.add(name);
 }
 
@@ -416,6 +570,13 @@ function walk(node: MathNode, state: Walk, depth: number): void {
         return;
       }
       break;
+    }
+    case 'ConstantNode': {
+      const value = n.value;
+      if (typeof value === 'string' && value.length > MAX_STRING_LENGTH) {
+        refuse(`a text in quotes may be at most ${MAX_STRING_LENGTH} characters long (this one has ${value.length})`);
+      }
+      return;
     }
     case 'ArrayNode': {
       const items = n.items as MathNode[];

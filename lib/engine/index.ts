@@ -9,6 +9,7 @@ import { EngineError, toSafeMessage } from './errors';
 import {
   evaluateSheet as evaluateValidSheet,
   evaluateSheetIncremental as evaluateValidSheetIncremental,
+  type EvaluateOptions,
   type SheetResults,
 } from './evaluate';
 import { collectCallWarnings } from './block-run';
@@ -18,9 +19,11 @@ import { typicalRange } from './typical-ranges';
 import { DIMENSIONS, formatValue, type DimensionInfo, type FormattedOutput } from './units';
 
 export { ENGINE_VERSION, RESULTS_FORMAT } from './evaluate';
-export type { BlockResult, BlockStatus, OutputResult, SheetResults, Spread, UncertaintyEcho } from './evaluate';
+export type { BlockResult, BlockStatus, OutputResult, EvaluateOptions, SheetResults, Spread, UncertaintyEcho } from './evaluate';
 export type { NumericSpread, TextSpread, UncertaintyMethod, UncertaintySettings } from './uncertainty/propagate';
 export { DEFAULT_UNCERTAINTY } from './uncertainty/propagate';
+export { MAX_RESULTS_BYTES } from './evaluate';
+export { MAX_MATRIX_ELEMENTS, MAX_STRING_LENGTH } from './expression';
 export {
   SHEET_FORMAT,
   checkBlockName,
@@ -48,12 +51,6 @@ function assertValid(document: SheetDocument): { document: SheetDocument; sheetH
   const checked = checkSheetDocument(document);
   if (!checked.ok) throw new EngineError(`invalid document at ${checked.path || 'the top level'}: ${checked.message}`);
   return { document: checked.document, sheetHash: hashCanonicalText(checked.canonical) };
-}
-
-/** What an evaluation may use besides the document. */
-export interface EvaluateOptions {
-  /** Canonical datasets by sha256, for data inputs `dataset("<sha256>")` (CONTRACT §7.6). */
-  datasets?: DatasetLookup;
 }
 
 /** Evaluates every block of a sheet. Throws EngineError when the document is invalid. */

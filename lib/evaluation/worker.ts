@@ -1,7 +1,11 @@
 /**
  * The evaluation worker (run by piscina in a worker thread with a time and memory limit).
  * Bundled to plain JavaScript by scripts/build-worker.mjs: Node 20 workers cannot load TypeScript.
+ *
+ * Each task carries a message port: the worker says "started" on it first (the pool's time limit
+ * starts then) and reports progress on it at most every PROGRESS_INTERVAL_MS.
  */
+import type { MessagePort } from 'node:worker_threads';
 import { EngineError, evaluateQuick, evaluateSheet, evaluateSheetIncremental } from '../engine';
 import type { SheetDocument, SheetResults } from '../engine';
 
@@ -12,13 +16,28 @@ export type EvaluationTask =
 
 export type EvaluationReply = { ok: true; value: unknown } | { ok: false; message: string; position?: number };
 
-export default function runEvaluationTask(task: EvaluationTask): EvaluationReply {
+export type WorkerMessage = { type: 'started' } | { type: 'progress'; fraction: number };
+
+const PROGRESS_INTERVAL_MS = 200;
+
+export default function runEvaluationTask(task: EvaluationTask & { port?: MessagePort }): EvaluationReply {
+  const port = task.port;
+  port?.postMessage({ type: 'started' } satisfies WorkerMessage);
+  let last = 0;
+  const onProgress = port
+    ? (fraction: number) => {
+        const now = Date.now();
+        if (now - last < PROGRESS_INTERVAL_MS && fraction < 1) return;
+        last = now;
+        port.postMessage({ type: 'progress', fraction } satisfies WorkerMessage);
+      }
+    : undefined;
   try {
     switch (task.kind) {
       case 'evaluate':
-        return { ok: true, value: evaluateSheet(task.document) };
+        return { ok: true, value: evaluateSheet(task.document, { onProgress }) };
       case 'incremental':
-        return { ok: true, value: evaluateSheetIncremental(task.document, task.previous, task.changedBlockIds) };
+        return { ok: true, value: evaluateSheetIncremental(task.document, task.previous, task.changedBlockIds, { onProgress }) };
       case 'quick':
         return { ok: true, value: evaluateQuick(task.expr) };
       default:

@@ -75,7 +75,8 @@ export function readQuery<T>(request: Request, schema: ZodType<T>): T {
 export function errorResponse(error: unknown): NextResponse {
   if (error instanceof AppError) {
     if (error.status >= 500) console.error('[denudata]', error.code, error.message);
-    return json(error.toBody(), error.status);
+    const headers = error.retryAfter !== undefined ? { 'Retry-After': String(error.retryAfter) } : undefined;
+    return json(error.toBody(), error.status, headers);
   }
   console.error('[denudata] unexpected error:', error instanceof Error ? `${error.name}: ${error.message}` : 'unknown');
   return json({ error: { code: 'internal', message: 'Something went wrong on the server. Try again.' } }, 500);

@@ -21,7 +21,7 @@ export function asEvaluationError(error: unknown): Error {
   if (error instanceof AppError) return error;
   if (error instanceof Error && (error.name === 'EngineError' || error.name === 'InputError')) {
     // The pool's time and memory limits are not faults of the document: 422 with the reason.
-    if (/^evaluation (took longer|needed too much memory)/.test(error.message)) return new AppError('timeout', error.message);
+    if (/^evaluation (took longer|needed too much memory)/.test(error.message)) return new AppError('limit_exceeded', error.message);
     const position = (error as { position?: unknown }).position;
     if (typeof position === 'number') return new AppError('validation', error.message, { detail: { position } });
     return badRequest(error.message);
@@ -40,10 +40,13 @@ export async function evaluateDraft({
   sheetId,
   draftVersion,
   document,
+  userId,
 }: {
   sheetId: string;
   draftVersion: number;
   document: SheetDocument;
+  /** Who asks (the pool's per-user limits; a newer evaluation of the sheet replaces a queued one). */
+  userId: string;
 }): Promise<{ draftVersion: number; results: SheetResults; evaluatedBlockIds: string[] }> {
   const previous = cache.get(sheetId);
   try {
@@ -52,11 +55,11 @@ export async function evaluateDraft({
     }
     if (previous) {
       const changed = changedBlockIds(previous.document as ClientDocument, document as ClientDocument);
-      const { results, evaluatedBlockIds } = await runEvaluateIncremental(document, previous.results, changed);
+      const { results, evaluatedBlockIds } = await runEvaluateIncremental(document, previous.results, changed, { userId, key: sheetId });
       cache.set(sheetId, { draftVersion, document, results });
       return { draftVersion, results, evaluatedBlockIds };
     }
-    const results = await runEvaluate(document);
+    const results = await runEvaluate(document, { userId, key: sheetId });
     cache.set(sheetId, { draftVersion, document, results });
     return { draftVersion, results, evaluatedBlockIds: document.blocks.filter((b) => b.type !== 'note').map((b) => b.id) };
   } catch (error) {

@@ -2,8 +2,10 @@ import 'server-only';
 
 /**
  * The last results of each sheet's draft, kept in this server process so the next evaluation of
- * the same sheet recomputes only the blocks that changed and their dependents. A small LRU:
- * losing an entry only costs a full evaluation.
+ * the same sheet recomputes only the blocks that changed and their dependents. A small LRU bounded
+ * both in entries and in bytes (the JSON size of each entry's document and results): losing an
+ * entry only costs a full evaluation, and incremental results equal a full evaluation's, so the
+ * cache is an optimisation only (another app instance without it gives the same results).
  */
 export interface CachedEvaluation<Doc, Results> {
   draftVersion: number;
@@ -11,33 +13,65 @@ export interface CachedEvaluation<Doc, Results> {
   results: Results;
 }
 
+/** Default byte bound of the process's results cache. */
+export const RESULTS_CACHE_BYTES = 64 * 1024 * 1024;
+
+/** JSON length of an entry's document and results (a close, cheap stand-in for its memory). */
+function defaultSizeOf(entry: CachedEvaluation<unknown, unknown>): number {
+  return JSON.stringify(entry.document ?? null).length + JSON.stringify(entry.results ?? null).length;
+}
+
 export class ResultsCache<Doc, Results> {
-  private entries = new Map<string, CachedEvaluation<Doc, Results>>();
-  constructor(private readonly capacity = 200) {}
+  private entries = new Map<string, { entry: CachedEvaluation<Doc, Results>; bytes: number }>();
+  private totalBytes = 0;
+
+  constructor(
+    private readonly capacity = 200,
+    private readonly maxBytes = RESULTS_CACHE_BYTES,
+    private readonly sizeOf: (entry: CachedEvaluation<Doc, Results>) => number = defaultSizeOf,
+  ) {}
 
   get(sheetId: string): CachedEvaluation<Doc, Results> | undefined {
-    const entry = this.entries.get(sheetId);
-    if (entry) {
+    const slot = this.entries.get(sheetId);
+    if (slot) {
       this.entries.delete(sheetId);
-      this.entries.set(sheetId, entry);
+      this.entries.set(sheetId, slot);
     }
-    return entry;
+    return slot?.entry;
   }
 
-  /** Keeps the entry unless a newer draft version is already stored. */
+  /**
+   * Keeps the entry unless a newer draft version is already stored; an entry larger than a quarter
+   * of the byte bound is not kept at all (and drops the sheet's older one).
+   */
   set(sheetId: string, entry: CachedEvaluation<Doc, Results>): void {
     const current = this.entries.get(sheetId);
-    if (current && current.draftVersion > entry.draftVersion) return;
-    this.entries.delete(sheetId);
-    this.entries.set(sheetId, entry);
-    while (this.entries.size > this.capacity) {
+    if (current && current.entry.draftVersion > entry.draftVersion) return;
+    this.remove(sheetId);
+    const bytes = this.sizeOf(entry);
+    if (bytes > this.maxBytes / 4) return;
+    this.entries.set(sheetId, { entry, bytes });
+    this.totalBytes += bytes;
+    while (this.entries.size > this.capacity || this.totalBytes > this.maxBytes) {
       const oldest = this.entries.keys().next().value;
       if (oldest === undefined) break;
-      this.entries.delete(oldest);
+      this.remove(oldest);
     }
+  }
+
+  private remove(sheetId: string): void {
+    const slot = this.entries.get(sheetId);
+    if (!slot) return;
+    this.entries.delete(sheetId);
+    this.totalBytes -= slot.bytes;
   }
 
   get size(): number {
     return this.entries.size;
+  }
+
+  /** Bytes held, as sizeOf counts them. */
+  get bytes(): number {
+    return this.totalBytes;
   }
 }

@@ -11,7 +11,7 @@ export const POST = route(async (request) => {
   const { expr, preview } = await readJson(request, quickBodySchema);
   let result;
   try {
-    result = await runQuick(expr);
+    result = await runQuick(expr, { userId: user.id });
   } catch (error) {
     throw asEvaluationError(error);
   }

@@ -24,5 +24,5 @@ export const POST = route(async (request, { params }: Context) => {
   }
   const draft = await getSheetDraft({ sheetId });
   const document = requireValidDocument(draft.document, 'draft');
-  return json(await evaluateDraft({ sheetId, draftVersion: draft.version, document }));
+  return json(await evaluateDraft({ sheetId, draftVersion: draft.version, document, userId: user.id }));
 });
