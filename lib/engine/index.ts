@@ -3,7 +3,6 @@
  * the client receives block-type metadata as plain data from blockCatalog().
  */
 import type { BlockTypeDefinition, InputSpec, OutputSpec, SeriesSpec, WorkedExample } from './block-type';
-import type { DatasetLookup } from './dataset';
 import { checkSheetDocument, hashCanonicalText, type SheetDocument } from './document';
 import { EngineError, toSafeMessage } from './errors';
 import {
