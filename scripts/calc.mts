@@ -12,12 +12,16 @@
 import { readFile } from 'node:fs/promises';
 import path from 'node:path';
 import { isMainThread, parentPort, Worker, workerData } from 'node:worker_threads';
-import { evaluateSheet, parseSheetDocument, type SheetDocument, type SheetResults } from '../lib/engine';
+import type { SheetResults } from '../lib/engine';
 
 const DEFAULT_TIME_LIMIT_S = 120;
 const DEFAULT_MEMORY_MB = 2048;
 
-type WorkerReply = { type: 'started' } | { type: 'done'; results: SheetResults } | { type: 'failed'; message: string };
+type WorkerReply =
+  | { type: 'started' }
+  | { type: 'done'; results: SheetResults }
+  | { type: 'invalid'; message: string }
+  | { type: 'failed'; message: string };
 
 function fail(reason: string, code = 2): never {
   process.stderr.write(`calc: ${reason}\n`);
@@ -50,14 +54,17 @@ function memoryLimitMb(): number {
   return Number.isFinite(value) && value >= 64 ? value : DEFAULT_MEMORY_MB;
 }
 
-/** Runs the evaluation in a worker thread under the time and memory limits. */
-function evaluateWithLimits(document: SheetDocument, timeLimitS: number): Promise<SheetResults> {
+/**
+ * Validates and evaluates in a worker thread under the time and memory limits. The main thread
+ * never loads the engine (one engine start-up, not two); an invalid document ends with exit 2.
+ */
+function evaluateWithLimits(json: unknown, timeLimitS: number): Promise<SheetResults> {
   // Node 20 worker threads do not inherit tsx's loader: register it in the worker first.
   const source = `require('tsx/cjs/api').register();
 import('tsx/esm/api').then(({ register }) => { register(); return import(${JSON.stringify(import.meta.url)}); });`;
   const worker = new Worker(source, {
     eval: true,
-    workerData: { document },
+    workerData: { json },
     execArgv: ['--conditions=react-server'],
     resourceLimits: { maxOldGenerationSizeMb: memoryLimitMb() },
     stderr: false,
@@ -78,6 +85,7 @@ import('tsx/esm/api').then(({ register }) => { register(); return import(${JSON.
           settle(() => reject(Object.assign(new Error(`stopped: the evaluation took longer than its time limit of ${timeLimitS} s`), { exitCode: 3 })));
         }, timeLimitS * 1000);
       } else if (reply.type === 'done') settle(() => resolve(reply.results));
+      else if (reply.type === 'invalid') settle(() => reject(Object.assign(new Error(reply.message), { exitCode: 2 })));
       else settle(() => reject(new Error(reply.message)));
     });
     worker.on('error', (error: Error & { code?: string }) => {
@@ -112,11 +120,9 @@ async function main(): Promise<void> {
   } catch (error) {
     fail(`${file} is not JSON (${error instanceof Error ? error.message : 'parse error'})`);
   }
-  const parsed = parseSheetDocument(json);
-  if (!parsed.ok) fail(`invalid document: ${parsed.path ? `${parsed.path}: ` : ''}${parsed.message}`);
   let results: SheetResults;
   try {
-    results = await evaluateWithLimits(parsed.document, timeLimitS);
+    results = await evaluateWithLimits(json, timeLimitS);
   } catch (error) {
     const code = (error as { exitCode?: number }).exitCode ?? 2;
     fail(error instanceof Error ? error.message : String(error), code);
@@ -133,10 +139,16 @@ if (isMainThread) {
   });
 } else {
   const port = parentPort!;
-  port.postMessage({ type: 'started' } satisfies WorkerReply);
   try {
-    const results = evaluateSheet((workerData as { document: SheetDocument }).document);
-    port.postMessage({ type: 'done', results } satisfies WorkerReply);
+    const { evaluateSheet, parseSheetDocument } = await import('../lib/engine');
+    const parsed = parseSheetDocument((workerData as { json: unknown }).json);
+    if (!parsed.ok) {
+      port.postMessage({ type: 'invalid', message: `invalid document: ${parsed.path ? `${parsed.path}: ` : ''}${parsed.message}` } satisfies WorkerReply);
+    } else {
+      port.postMessage({ type: 'started' } satisfies WorkerReply);
+      const results = evaluateSheet(parsed.document);
+      port.postMessage({ type: 'done', results } satisfies WorkerReply);
+    }
   } catch (error) {
     port.postMessage({ type: 'failed', message: error instanceof Error ? error.message : String(error) } satisfies WorkerReply);
   }
