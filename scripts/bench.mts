@@ -15,6 +15,7 @@
 import { loadavg } from 'node:os';
 import { all, create, type EvalFunction, type FactoryFunctionMap, type Unit } from 'mathjs';
 import { evaluateSheet, evaluateSheetIncremental, type SheetDocument } from '../lib/engine';
+import { benchUncertainty } from './bench-uncertainty.mjs';
 
 const BLOCKS = 500;
 const RUNS = Math.max(5, Number(process.env.BENCH_RUNS) || 30);
@@ -223,3 +224,6 @@ for (const verdict of verdicts) console.log(`  ${verdict}`);
 console.log(
   `incremental vs full: ${(mid.median / full.median).toFixed(2)}× the time for ${midCount} of ${BLOCKS} blocks, ${(last.median / full.median).toFixed(2)}× for ${lastCount}`,
 );
+
+// Uncertainty: 10^4 samples × 20 blocks against N × the nominal evaluation; 10^5 samples through one scarp_age.
+benchUncertainty();

@@ -94,12 +94,16 @@ export function averageRanks(values: ArrayLike<number>, sorted: Float64Array = s
       if (sorted[mid]! < v) lo = mid + 1;
       else hi = mid;
     }
-    let top = lo;
-    hi = n;
-    while (top < hi) {
-      const mid = (top + hi) >>> 1;
-      if (sorted[mid]! <= v) top = mid + 1;
-      else hi = mid;
+    // Ties are rare in continuous samples: walk past a few, then search for the end of a long run.
+    let top = lo + 1;
+    while (top < n && top - lo < 32 && sorted[top] === v) top++;
+    if (top < n && sorted[top] === v) {
+      hi = n;
+      while (top < hi) {
+        const mid = (top + hi) >>> 1;
+        if (sorted[mid]! <= v) top = mid + 1;
+        else hi = mid;
+      }
     }
     ranks[i] = (lo + top + 1) / 2;
   }

@@ -43,3 +43,15 @@ describe('sample statistics (CONTRACT §8.5)', () => {
     expect(h.centres[0]).toBeCloseTo(5 + 990 / 80, 12);
   });
 });
+
+describe('average ranks of long runs of ties', () => {
+  it('should give a run of 5000 equal values the same average rank', () => {
+    const values = Float64Array.from({ length: 10000 }, (_, i) => (i % 2 === 0 ? 0 : i));
+    const ranks = averageRanks(values);
+    // the 5000 zeros take ranks 1..5000, average 2500.5; the odd values follow in order
+    expect(ranks[0]).toBe(2500.5);
+    expect(ranks[9998]).toBe(2500.5);
+    expect(ranks[1]).toBe(5001);
+    expect(ranks[9999]).toBe(10000);
+  });
+});
