@@ -1,0 +1,25 @@
+// Mutation testing of the engine (`npm run mutation`; not part of `npm test`). Stryker changes the engine's
+// code one small mutation at a time and runs the engine tests; a mutant that no test notices "survives".
+// By default it mutates the fourteen calculation block types of the first release; pass files to widen it:
+//   npm run mutation -- --mutate 'lib/engine/**/*.ts'
+// The score is printed at the end (clear-text reporter) and written to reports/mutation/.
+/** @type {import('@stryker-mutator/api/core').PartialStrykerOptions} */
+const config = {
+  testRunner: 'vitest',
+  vitest: { configFile: 'vitest.mutation.config.ts' },
+  plugins: ['@stryker-mutator/vitest-runner'],
+  mutate: [
+    'lib/engine/blocks/{quantities,formula,note,hillslope-diffusion,hilltop-erosion,scarp-forward,scarp-age,scarp-shared,transport-capacity,net-change,peclet-number,advective-geotherm,stream-power,stream-power-shared,steady-state-channel,isostatic-response,denudation-conversion}.ts',
+  ],
+  coverageAnalysis: 'perTest',
+  concurrency: 2,
+  timeoutMS: 30_000,
+  reporters: ['clear-text', 'progress', 'html', 'json'],
+  htmlReporter: { fileName: 'reports/mutation/index.html' },
+  jsonReporter: { fileName: 'reports/mutation/mutation.json' },
+  thresholds: { high: 90, low: 85, break: null },
+  tempDirName: '.stryker-tmp',
+  ignorePatterns: ['.next*', '.denudata', '.worker-dist', 'reports', 'node_modules'],
+};
+
+export default config;
