@@ -94,6 +94,11 @@ export interface BlockOutcome {
   warnings: string[];
 }
 
+/** What a block type's estimateCost sees: the input expressions as written. */
+export interface CostEstimateInput {
+  inputs: Readonly<Record<string, string>>;
+}
+
 /** Coerced inputs by name; optional inputs left out are undefined. */
 export type InputValues = Record<string, Quantity | undefined>;
 
@@ -128,6 +133,14 @@ export interface BlockTypeDefinition {
   example: WorkedExample | null;
   /** Whether the type is also a function in expressions. */
   expressionFunction: boolean;
+  /**
+   * Optional estimate of the work of one evaluation of a block of this type, in cost units (one
+   * unit: an ordinary block, well under a millisecond). Called before evaluation with the block's
+   * input expressions as written, so it must be cheap and must not evaluate references; return
+   * undefined when the inputs do not say (the default of 1 unit is used). lib/engine/cost.ts sums
+   * the estimates; a sheet over SYNC_COST_LIMIT runs as a long run (CONTRACT §6b).
+   */
+  estimateCost?: (block: CostEstimateInput) => number | undefined;
   /** Pure evaluation from coerced inputs. Absent for quantities, formula and note. */
   evaluate?: (inputs: InputValues, other: OtherInputs) => BlockOutcome;
   /**

@@ -22,6 +22,7 @@ export type { BlockResult, BlockStatus, OutputResult, EvaluateOptions, SheetResu
 export type { NumericSpread, TextSpread, UncertaintyMethod, UncertaintySettings } from './uncertainty/propagate';
 export { DEFAULT_UNCERTAINTY } from './uncertainty/propagate';
 export { MAX_RESULTS_BYTES } from './evaluate';
+export { SYNC_COST_LIMIT, estimateEvaluationCost, needsLongRun } from './cost';
 export { MAX_MATRIX_ELEMENTS, MAX_STRING_LENGTH } from './expression';
 export {
   SHEET_FORMAT,

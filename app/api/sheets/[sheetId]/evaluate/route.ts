@@ -2,6 +2,8 @@ import { requireSheetRole, requireUser } from '@/lib/auth/guard';
 import { getSheetDraft } from '@/lib/db/sheets';
 import { json, parseWith, readBodyText, route } from '@/lib/http';
 import { badRequest } from '@/lib/errors';
+import { needsLongRun } from '@/lib/engine';
+import { startSheetRun } from '@/lib/runs/service.server';
 import { evaluateDraft, requireValidDocument } from '@/lib/sheet/evaluation.server';
 import { evaluateDraftSchema } from './schema';
 
@@ -24,5 +26,10 @@ export const POST = route(async (request, { params }: Context) => {
   }
   const draft = await getSheetDraft({ sheetId });
   const document = requireValidDocument(draft.document, 'draft');
+  // Too costly for a request (CONTRACT §6b): evaluated as a long run instead → 202 {run}.
+  if (needsLongRun(document)) {
+    const run = await startSheetRun({ sheetId, userId: user.id, draftVersion: draft.version });
+    return json({ draftVersion: draft.version, run: { id: run.id, status: run.status, progress: run.progress } }, 202);
+  }
   return json(await evaluateDraft({ sheetId, draftVersion: draft.version, document, userId: user.id }));
 });

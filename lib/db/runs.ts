@@ -1,0 +1,233 @@
+import 'server-only';
+import { randomUUID } from 'node:crypto';
+import { QueryTypes } from 'sequelize';
+import type { SheetDocument, SheetResults } from '@/lib/engine';
+import { notFound } from '@/lib/errors';
+import { db } from './index';
+
+/** CONTRACT §6b: the states of a long run. */
+export type RunStatus = 'queued' | 'running' | 'done' | 'failed' | 'cancelled';
+
+export interface RunRecord {
+  id: string;
+  sheetId: string;
+  requesterId: string;
+  draftVersion: number | null;
+  revisionNumber: number | null;
+  documentHash: string;
+  engineVersion: string;
+  status: RunStatus;
+  progress: number;
+  error: string | null;
+  createdAt: string;
+  startedAt: string | null;
+  finishedAt: string | null;
+}
+
+interface RunRow {
+  id: string;
+  sheet_id: string;
+  requester_id: string;
+  draft_version: number | null;
+  revision_number: number | null;
+  document_hash: string;
+  engine_version: string;
+  status: RunStatus;
+  progress: number;
+  error: string | null;
+  created_at: Date;
+  started_at: Date | null;
+  finished_at: Date | null;
+}
+
+const COLUMNS =
+  'id, sheet_id, requester_id, draft_version, revision_number, document_hash, engine_version, status, progress, error, created_at, started_at, finished_at';
+
+function toRecord(row: RunRow): RunRecord {
+  return {
+    id: row.id,
+    sheetId: row.sheet_id,
+    requesterId: row.requester_id,
+    draftVersion: row.draft_version,
+    revisionNumber: row.revision_number,
+    documentHash: row.document_hash,
+    engineVersion: row.engine_version,
+    status: row.status,
+    progress: Number(row.progress),
+    error: row.error,
+    createdAt: row.created_at.toISOString(),
+    startedAt: row.started_at?.toISOString() ?? null,
+    finishedAt: row.finished_at?.toISOString() ?? null,
+  };
+}
+
+/** Results of an earlier finished run of the same document and engine (the cache by hash). */
+export async function findCachedRunResults({
+  documentHash,
+  engineVersion,
+}: {
+  documentHash: string;
+  engineVersion: string;
+}): Promise<SheetResults | null> {
+  const rows = await db().query<{ results: SheetResults }>(
+    `SELECT results FROM runs WHERE document_hash = :documentHash AND engine_version = :engineVersion AND status = 'done'
+     ORDER BY finished_at DESC LIMIT 1`,
+    { replacements: { documentHash, engineVersion }, type: QueryTypes.SELECT },
+  );
+  return rows[0]?.results ?? null;
+}
+
+/** Inserts a run: queued, or done at once with cached results. */
+export async function insertRun({
+  sheetId,
+  requesterId,
+  draftVersion,
+  revisionNumber,
+  document,
+  documentHash,
+  engineVersion,
+  cachedResults,
+}: {
+  sheetId: string;
+  requesterId: string;
+  draftVersion: number | null;
+  revisionNumber: number | null;
+  document: SheetDocument;
+  documentHash: string;
+  engineVersion: string;
+  cachedResults: SheetResults | null;
+}): Promise<RunRecord> {
+  const done = cachedResults !== null;
+  const rows = await db().query<RunRow>(
+    `INSERT INTO runs (id, sheet_id, requester_id, draft_version, revision_number, document, document_hash, engine_version,
+                       status, progress, results, started_at, finished_at)
+     VALUES (:id, :sheetId, :requesterId, :draftVersion, :revisionNumber, :document, :documentHash, :engineVersion,
+             :status, :progress, :results, ${done ? 'now()' : 'NULL'}, ${done ? 'now()' : 'NULL'})
+     RETURNING ${COLUMNS}`,
+    {
+      replacements: {
+        id: randomUUID(),
+        sheetId,
+        requesterId,
+        draftVersion,
+        revisionNumber,
+        document: JSON.stringify(document),
+        documentHash,
+        engineVersion,
+        status: done ? 'done' : 'queued',
+        progress: done ? 1 : 0,
+        results: done ? JSON.stringify(cachedResults) : null,
+      },
+      type: QueryTypes.SELECT,
+    },
+  );
+  return toRecord(rows[0]!);
+}
+
+/** One run (404 when there is none). */
+export async function getRun({ runId }: { runId: string }): Promise<RunRecord> {
+  const rows = await db().query<RunRow>(`SELECT ${COLUMNS} FROM runs WHERE id = :runId`, {
+    replacements: { runId },
+    type: QueryTypes.SELECT,
+  });
+  if (!rows[0]) throw notFound('Run');
+  return toRecord(rows[0]);
+}
+
+/** The stored results of a finished run, or null. */
+export async function getRunResults({ runId }: { runId: string }): Promise<SheetResults | null> {
+  const rows = await db().query<{ results: SheetResults | null }>(`SELECT results FROM runs WHERE id = :runId`, {
+    replacements: { runId },
+    type: QueryTypes.SELECT,
+  });
+  return rows[0]?.results ?? null;
+}
+
+/** The document a run evaluates (for the job). */
+export async function getRunDocument({ runId }: { runId: string }): Promise<SheetDocument | null> {
+  const rows = await db().query<{ document: SheetDocument }>(`SELECT document FROM runs WHERE id = :runId`, {
+    replacements: { runId },
+    type: QueryTypes.SELECT,
+  });
+  return rows[0]?.document ?? null;
+}
+
+/** queued → running; false when the run is no longer queued (cancelled, or taken by another worker). */
+export async function markRunStarted({ runId }: { runId: string }): Promise<boolean> {
+  const [, count] = await db().query(
+    `UPDATE runs SET status = 'running', started_at = now(), progress = 0 WHERE id = :runId AND status = 'queued'`,
+    { replacements: { runId }, type: QueryTypes.UPDATE },
+  );
+  return count === 1;
+}
+
+/** Records progress of a running run; false when it is no longer running (it was cancelled). */
+export async function recordRunProgress({ runId, progress }: { runId: string; progress: number }): Promise<boolean> {
+  const [, count] = await db().query(
+    `UPDATE runs SET progress = GREATEST(progress, :progress) WHERE id = :runId AND status = 'running'`,
+    { replacements: { runId, progress: Math.min(1, Math.max(0, progress)) }, type: QueryTypes.UPDATE },
+  );
+  return count === 1;
+}
+
+/**
+ * running → done with the results; a run of a revision also stores them on the revision, in the
+ * same transaction (the revision stops showing "evaluating"). False when the run was cancelled.
+ */
+export async function finishRun({ runId, results }: { runId: string; results: SheetResults }): Promise<boolean> {
+  return db().transaction(async (transaction) => {
+    const rows = await db().query<{ sheet_id: string; revision_number: number | null }>(
+      `UPDATE runs SET status = 'done', progress = 1, results = :results, finished_at = now()
+       WHERE id = :runId AND status = 'running' RETURNING sheet_id, revision_number`,
+      { replacements: { runId, results: JSON.stringify(results) }, type: QueryTypes.SELECT, transaction },
+    );
+    const row = rows[0];
+    if (!row) return false;
+    if (row.revision_number !== null) {
+      await db().query(
+        `UPDATE sheet_revisions SET results = :results WHERE sheet_id = :sheetId AND number = :number AND results IS NULL`,
+        {
+          replacements: { results: JSON.stringify(results), sheetId: row.sheet_id, number: row.revision_number },
+          type: QueryTypes.UPDATE,
+          transaction,
+        },
+      );
+    }
+    return true;
+  });
+}
+
+/** running or queued → failed with a message safe to show. */
+export async function failRun({ runId, error }: { runId: string; error: string }): Promise<void> {
+  await db().query(
+    `UPDATE runs SET status = 'failed', error = :error, finished_at = now() WHERE id = :runId AND status IN ('queued', 'running')`,
+    { replacements: { runId, error: error.slice(0, 1000) }, type: QueryTypes.UPDATE },
+  );
+}
+
+/** queued or running → cancelled; the record as it is afterwards (a finished run stays as it was). */
+export async function cancelRun({ runId }: { runId: string }): Promise<RunRecord> {
+  await db().query(
+    `UPDATE runs SET status = 'cancelled', finished_at = now() WHERE id = :runId AND status IN ('queued', 'running')`,
+    { replacements: { runId }, type: QueryTypes.UPDATE },
+  );
+  return getRun({ runId });
+}
+
+/** The newest run of a sheet that is still going (queued or running), if any. */
+export async function findActiveRunBySheet({ sheetId }: { sheetId: string }): Promise<RunRecord | null> {
+  const rows = await db().query<RunRow>(
+    `SELECT ${COLUMNS} FROM runs WHERE sheet_id = :sheetId AND status IN ('queued', 'running') ORDER BY created_at DESC LIMIT 1`,
+    { replacements: { sheetId }, type: QueryTypes.SELECT },
+  );
+  return rows[0] ? toRecord(rows[0]) : null;
+}
+
+/** Runs of one requester still queued or running (each user may have a few at once). */
+export async function countActiveRunsByRequester({ requesterId }: { requesterId: string }): Promise<number> {
+  const rows = await db().query<{ count: string }>(
+    `SELECT count(*) AS count FROM runs WHERE requester_id = :requesterId AND status IN ('queued', 'running')`,
+    { replacements: { requesterId }, type: QueryTypes.SELECT },
+  );
+  return Number(rows[0]?.count ?? 0);
+}

@@ -1,0 +1,166 @@
+import { execFileSync } from 'node:child_process';
+import { existsSync } from 'node:fs';
+import path from 'node:path';
+import PgBoss from 'pg-boss';
+import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+import { evaluateSheet, estimateEvaluationCost, needsLongRun, SYNC_COST_LIMIT, type SheetDocument } from '@/lib/engine';
+import { databaseUrl } from '@/lib/db/config';
+import { getRun } from '@/lib/db/runs';
+import { WORKER_FILE } from '@/lib/evaluation/pool';
+import { JOB_SCHEMA, stopJobQueue } from '@/lib/jobs/boss';
+import { closeRunPool, executeRun, RUN_QUEUE, startRunWorker } from '@/lib/jobs/runs';
+import { cancelSheetRun, readSheetRun, startSheetRun } from '@/lib/runs/service.server';
+import { makeSheet, rejection, sampleDocument, useTeamFixture } from '../support/review-fixtures';
+
+/** A sheet of `count` blocks, each a product of two 250×250 matrices (a fraction of a second each). */
+type FixtureDocument = ReturnType<typeof sampleDocument>;
+
+function slowDocument(count: number, title = `Slow ${Date.now()}-${Math.random()}`): FixtureDocument {
+  return {
+    format: 'denudata-sheet@1',
+    title,
+    blocks: Array.from({ length: count }, (_, i) => ({
+      id: `slow-${i}`,
+      name: `slow${i}`,
+      type: 'formula',
+      inputs: { expr: `sum(ones(250, 250) * ones(250, 250)) + ${i}` },
+    })),
+  } as unknown as FixtureDocument;
+}
+
+const asSheet = (document: FixtureDocument) => document as unknown as SheetDocument;
+
+async function waitFor<T>(read: () => Promise<T>, done: (value: T) => boolean, timeoutMs = 120_000, everyMs = 200): Promise<T> {
+  const started = Date.now();
+  for (;;) {
+    const value = await read();
+    if (done(value)) return value;
+    if (Date.now() - started > timeoutMs) throw new Error(`timed out waiting; last: ${JSON.stringify(value).slice(0, 200)}`);
+    await new Promise((resolve) => setTimeout(resolve, everyMs));
+  }
+}
+
+describe('long runs on the job queue (CONTRACT §6b)', () => {
+  const team = useTeamFixture({ closePool: true });
+
+  beforeAll(async () => {
+    if (!existsSync(WORKER_FILE)) {
+      execFileSync(process.execPath, [path.resolve(__dirname, '../../scripts/build-worker.mjs')], { cwd: path.resolve(__dirname, '../..') });
+    }
+    await startRunWorker();
+  }, 120_000);
+
+  afterAll(async () => {
+    await stopJobQueue();
+    await closeRunPool();
+  }, 60_000);
+
+  it('should estimate cost per block and send sheets over the synchronous limit to runs', () => {
+    expect(estimateEvaluationCost(asSheet(sampleDocument()))).toBeLessThan(SYNC_COST_LIMIT);
+    expect(needsLongRun(asSheet(sampleDocument()))).toBe(false);
+    expect(estimateEvaluationCost(asSheet(slowDocument(12)))).toBe(12);
+    // Monte Carlo: every sample counts (uncertainty settings of CONTRACT §8.2).
+    const uncertain = {
+      format: 'denudata-sheet@1',
+      title: 'Samples',
+      uncertainty: { method: 'monte_carlo', samples: 100_000, seed: 1 },
+      blocks: Array.from({ length: 20 }, (_, i) => ({ id: `u${i}`, name: `u${i}`, type: 'quantities', inputs: { a: 'normal(1 m, 0.1 m)' } })),
+    } as unknown as SheetDocument;
+    expect(needsLongRun(uncertain)).toBe(true);
+  });
+
+  it('should run a draft: queued → running with progress → done, with results equal to a synchronous evaluation', async () => {
+    const document = slowDocument(12);
+    const sheet = await makeSheet(team.teamId, team.people.editor.id, document);
+    const run = await startSheetRun({ sheetId: sheet.id, userId: team.people.editor.id, draftVersion: 1 });
+    expect(['queued', 'running']).toContain(run.status);
+    const seen: number[] = [];
+    const finished = await waitFor(
+      () => getRun({ runId: run.id }),
+      (current) => {
+        if (current.status === 'running') seen.push(current.progress);
+        return current.status === 'done' || current.status === 'failed';
+      },
+    );
+    expect(finished.status).toBe('done');
+    expect(finished.progress).toBe(1);
+    expect(finished.startedAt).not.toBeNull();
+    // Progress was written while it ran, never going back.
+    expect(seen.some((p) => p > 0 && p < 1)).toBe(true);
+    expect(seen).toEqual([...seen].sort((a, b) => a - b));
+    const { run: body, results } = await readSheetRun({ runId: run.id, userId: team.people.viewer.id });
+    expect(body.status).toBe('done');
+    // Stored as jsonb (keys reordered), equal value for value.
+    expect(results).toEqual(evaluateSheet(asSheet(document)));
+    // slow0 = 250 · 250 · 250 (every element of the product is 250).
+    expect(results!.blocks.slow0!.outputs.value!.value).toBe(15_625_000);
+  }, 180_000);
+
+  it('should answer a run of an already evaluated document at once from the cache by hash', async () => {
+    const document = sampleDocument();
+    const sheet = await makeSheet(team.teamId, team.people.owner.id, document);
+    const first = await startSheetRun({ sheetId: sheet.id, userId: team.people.owner.id, draftVersion: 1 });
+    await waitFor(() => getRun({ runId: first.id }), (r) => r.status === 'done');
+    const other = await makeSheet(team.teamId, team.people.editor.id, document);
+    const second = await startSheetRun({ sheetId: other.id, userId: team.people.editor.id, draftVersion: 1 });
+    expect(second.status).toBe('done');
+    expect(second.progress).toBe(1);
+    const a = await readSheetRun({ runId: first.id, userId: team.people.owner.id });
+    const b = await readSheetRun({ runId: second.id, userId: team.people.owner.id });
+    expect(b.results).toEqual(a.results);
+  }, 120_000);
+
+  it('should cancel a running run (requester or owner only) and stop its evaluation', async () => {
+    const sheet = await makeSheet(team.teamId, team.people.editor.id, slowDocument(60));
+    const run = await startSheetRun({ sheetId: sheet.id, userId: team.people.editor.id, draftVersion: 1 });
+    await waitFor(() => getRun({ runId: run.id }), (r) => r.status === 'running');
+    // A reviewer who did not start it may not cancel it; an outsider does not even see it.
+    expect((await rejection(cancelSheetRun({ runId: run.id, userId: team.people.reviewer.id }))).status).toBe(403);
+    expect((await rejection(cancelSheetRun({ runId: run.id, userId: team.outsider.id }))).status).toBe(404);
+    expect((await rejection(readSheetRun({ runId: run.id, userId: team.outsider.id }))).status).toBe(404);
+    const { run: cancelled } = await cancelSheetRun({ runId: run.id, userId: team.people.owner.id });
+    expect(cancelled.status).toBe('cancelled');
+    // It stays cancelled (the evaluation thread is stopped, no results are written) and a second cancel is 409.
+    await new Promise((resolve) => setTimeout(resolve, 1500));
+    const after = await readSheetRun({ runId: run.id, userId: team.people.editor.id });
+    expect(after.run.status).toBe('cancelled');
+    expect(after.results).toBeUndefined();
+    expect((await rejection(cancelSheetRun({ runId: run.id, userId: team.people.editor.id }))).status).toBe(409);
+  }, 180_000);
+
+  it('should refuse a run of a draft version that is no longer current (409) and an unknown revision (404)', async () => {
+    const sheet = await makeSheet(team.teamId, team.people.editor.id, sampleDocument());
+    const stale = await rejection(startSheetRun({ sheetId: sheet.id, userId: team.people.editor.id, draftVersion: 7 }));
+    expect(stale.status).toBe(409);
+    expect(stale.toBody()).toMatchObject({ current: { version: 1 } });
+    expect((await rejection(startSheetRun({ sheetId: sheet.id, userId: team.people.editor.id, revision: 3 }))).status).toBe(404);
+  });
+
+  it('should process every run exactly once with two queue workers (a second instance on the same database)', async () => {
+    const second = new PgBoss({ connectionString: databaseUrl(), schema: JOB_SCHEMA, max: 2 });
+    await second.start();
+    const takenBySecond: string[] = [];
+    await second.work<{ runId: string }>(RUN_QUEUE, { batchSize: 1, pollingIntervalSeconds: 1 }, async (jobs) => {
+      for (const job of jobs) {
+        takenBySecond.push(job.data.runId);
+        await executeRun(job.data.runId);
+      }
+    });
+    try {
+      const runs = [];
+      const roles = ['owner', 'editor', 'reviewer', 'viewer'] as const;
+      for (let i = 0; i < 4; i++) {
+        const person = team.people[roles[i]!];
+        const sheet = await makeSheet(team.teamId, team.people.owner.id, slowDocument(2, `Two workers ${i} ${Date.now()}`));
+        runs.push(await startSheetRun({ sheetId: sheet.id, userId: person.id, draftVersion: 1 }));
+        if (i === 1) await new Promise((resolve) => setTimeout(resolve, 200));
+      }
+      const finished = await Promise.all(runs.map((run) => waitFor(() => getRun({ runId: run.id }), (r) => r.status === 'done' || r.status === 'failed')));
+      expect(finished.map((r) => r.status)).toEqual(['done', 'done', 'done', 'done']);
+      // Each job is delivered to one worker only.
+      expect(new Set(takenBySecond).size).toBe(takenBySecond.length);
+    } finally {
+      await second.stop({ graceful: true, wait: true, timeout: 10_000 });
+    }
+  }, 240_000);
+});
