@@ -13,13 +13,18 @@ import type { SheetDocument } from './document';
 import { getBlockType } from './registry';
 import { DISTRIBUTION_CALL, uncertaintySettings } from './uncertainty/propagate';
 
-/** Units a synchronous evaluation may take (about a second of work on this machine). */
-export const SYNC_COST_LIMIT = 50_000;
+/**
+ * Units a synchronous evaluation may take: one unit is about 0.1 ms here (a 20-block sheet's
+ * nominal pass takes about 2.5 ms, DEVELOPERS.md "Measurements"), so the limit is about 2 s of
+ * work, well inside the app's 5 s.
+ */
+export const SYNC_COST_LIMIT = 20_000;
 /**
  * A sampled pass costs less than a full evaluation (the relations are compiled once and run on
- * plain floats): each sample counts as this fraction of a pass. A first guess; DEVELOPERS.md.
+ * plain floats): measured 0.011–0.028 of a nominal pass per sample (DEVELOPERS.md, Monte Carlo
+ * bench); the upper end, rounded up, is used.
  */
-const SAMPLE_PASS_FRACTION = 0.05;
+const SAMPLE_PASS_FRACTION = 0.03;
 /** Estimates are capped here (any larger number says the same: run it as a job). */
 const MAX_ESTIMATE = 1e12;
 
