@@ -1,12 +1,12 @@
-import { createPasswordReset } from '@/lib/db/password-resets';
 import { json, readJson, route } from '@/lib/http';
-import { notifyPasswordReset } from '@/lib/notifications';
+import { QUEUES, sendJob } from '@/lib/jobs/queue';
 import { requestResetSchema } from './schema';
 
-// Answers 202 whether or not an account has that address, so the answer reveals nothing.
+// Answers 202 whether or not an account has that address, and does the same work either way: it only
+// queues a job (lib/jobs/workers.ts looks the address up and sends), so neither the answer nor its
+// timing reveals whether the address has an account.
 export const POST = route(async (request) => {
   const { email } = await readJson(request, requestResetSchema);
-  const reset = await createPasswordReset({ email });
-  if (reset) await notifyPasswordReset({ to: reset.email, token: reset.token });
+  await sendJob(QUEUES.passwordReset.name, { email });
   return json({ message: 'If an account has that address, a link to set a new password is on its way.' }, 202);
 });

@@ -1,0 +1,11 @@
+// Runs once when a server instance starts: the job workers (mail outbox, password-reset requests) start
+// with it, so every instance works the shared PostgreSQL queue. DENUDATA_JOB_WORKERS=off leaves them out.
+export async function register(): Promise<void> {
+  if (process.env.NEXT_RUNTIME !== 'nodejs' || process.env.DENUDATA_JOB_WORKERS === 'off') return;
+  const { startJobWorkers } = await import('./lib/jobs/workers');
+  try {
+    await startJobWorkers();
+  } catch (error) {
+    console.error('[denudata] job workers did not start:', error instanceof Error ? error.message : 'unknown error');
+  }
+}
