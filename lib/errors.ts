@@ -8,6 +8,7 @@ export type ErrorCode =
   | 'too_large'
   | 'limit_exceeded'
   | 'rate_limited'
+  | 'database_unavailable'
   | 'internal';
 
 const STATUS: Record<ErrorCode, number> = {
@@ -19,6 +20,7 @@ const STATUS: Record<ErrorCode, number> = {
   too_large: 413,
   limit_exceeded: 422,
   rate_limited: 429,
+  database_unavailable: 503,
   internal: 500,
 };
 

@@ -71,12 +71,40 @@ export function readQuery<T>(request: Request, schema: ZodType<T>): T {
   return parseWith(schema, params);
 }
 
+const CONNECTION_ERRORS = new Set([
+  'SequelizeConnectionError',
+  'SequelizeConnectionRefusedError',
+  'SequelizeConnectionTimedOutError',
+  'SequelizeConnectionAcquireTimeoutError',
+  'SequelizeHostNotFoundError',
+  'SequelizeHostNotReachableError',
+]);
+// PostgreSQL's "the server is going away or not yet up" codes: admin_shutdown, crash_shutdown, cannot_connect_now.
+const UNAVAILABLE_CODES = new Set(['57P01', '57P02', '57P03', 'ECONNREFUSED', 'ECONNRESET']);
+
+/** Whether an error says the database could not be reached (rather than that a query was wrong). */
+export function isDatabaseUnavailable(error: unknown): boolean {
+  if (!(error instanceof Error)) return false;
+  if (CONNECTION_ERRORS.has(error.name)) return true;
+  const parent = (error as Error & { parent?: { code?: string }; original?: { code?: string } }).parent ?? (error as { original?: { code?: string } }).original;
+  const code = parent?.code ?? (error as { code?: string }).code;
+  if (code && UNAVAILABLE_CODES.has(code)) return true;
+  return /Connection terminated|connect ECONNREFUSED|the database system is (shutting down|starting up)/i.test(error.message);
+}
+
 /** Turns any error into the contract's JSON error body; unexpected ones are logged, never shown. */
 export function errorResponse(error: unknown): NextResponse {
   if (error instanceof AppError) {
     if (error.status >= 500) console.error('[denudata]', error.code, error.message);
     const headers = error.retryAfter !== undefined ? { 'Retry-After': String(error.retryAfter) } : undefined;
     return json(error.toBody(), error.status, headers);
+  }
+  if (isDatabaseUnavailable(error)) {
+    console.error('[denudata] database unavailable:', error instanceof Error ? error.message : 'unknown');
+    const unavailable = new AppError('database_unavailable', 'The database cannot be reached just now. Nothing was changed; try again in a moment.');
+    const response = json(unavailable.toBody(), unavailable.status);
+    response.headers.set('Retry-After', '5');
+    return response;
   }
   console.error('[denudata] unexpected error:', error instanceof Error ? `${error.name}: ${error.message}` : 'unknown');
   return json({ error: { code: 'internal', message: 'Something went wrong on the server. Try again.' } }, 500);

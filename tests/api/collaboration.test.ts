@@ -194,7 +194,7 @@ describe('export and import', () => {
     const again = await as.editor.get(`/api/sheets/${imported.body.sheet.id}/revisions/1`);
     expect(again.body.hash).toBe(head.body.hash);
     expect((await as.viewer.post('/api/sheets/import', { document: exported.body })).status).toBe(403);
-    const bad = await as.editor.post('/api/sheets/import', { document: { format: 'denudata-sheet@1', title: 'Bad', blocks: [{ id: 'a', name: 'a', type: 'no_such_type', inputs: {} }] } });
+    const bad = await as.editor.post('/api/sheets/import', { document: { format: 'denudata-sheet@1', title: 'Bad', blocks: [{ id: 'a', name: 'blk', type: 'no_such_type', inputs: {} }] } });
     expect(bad.status).toBe(400);
     expect(bad.body.error.message).toMatch(/unknown block type "no_such_type"/);
     expect((await as.viewer.get(`/api/sheets/${DEMO_SHEET}/export?revision=99`)).status).toBe(404);

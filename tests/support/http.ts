@@ -7,6 +7,9 @@ export type ApiResponse<T = any> = { status: number; body: T; headers: Headers }
 export class ApiClient {
   private cookies = new Map<string, string>();
 
+  /** A client of the app at `origin` (default: the test app). */
+  constructor(private readonly origin: string = appUrl()) {}
+
   private cookieHeader() {
     return [...this.cookies.entries()].map(([k, v]) => `${k}=${v}`).join('; ');
   }
@@ -20,7 +23,7 @@ export class ApiClient {
   }
 
   async request<T = any>(method: string, path: string, body?: unknown, init: { raw?: string; headers?: Record<string, string> } = {}): Promise<ApiResponse<T>> {
-    const response = await fetch(`${appUrl()}${path}`, {
+    const response = await fetch(`${this.origin}${path}`, {
       method,
       redirect: 'manual',
       headers: {
@@ -60,7 +63,7 @@ export class ApiClient {
   /** Signs in with e-mail and password; true when next-auth set a session cookie. */
   async signIn(email: string, password: string): Promise<boolean> {
     const csrf = await this.get<{ csrfToken: string }>('/api/auth/csrf');
-    const response = await fetch(`${appUrl()}/api/auth/callback/credentials`, {
+    const response = await fetch(`${this.origin}/api/auth/callback/credentials`, {
       method: 'POST',
       redirect: 'manual',
       headers: { 'content-type': 'application/x-www-form-urlencoded', cookie: this.cookieHeader() },

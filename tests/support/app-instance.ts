@@ -1,0 +1,58 @@
+// Starts a served instance of the built app (the test build) on a port of its own, for the suites that
+// need more than one instance (two instances on one database; a database restart under load).
+import { spawn, type ChildProcess } from 'node:child_process';
+
+export interface AppInstance {
+  origin: string;
+  child: ChildProcess;
+  stop: () => Promise<void>;
+}
+
+export async function waitForApp(origin: string, child: ChildProcess, timeoutMs: number): Promise<void> {
+  const deadline = Date.now() + timeoutMs;
+  while (Date.now() < deadline) {
+    if (child.exitCode !== null) throw new Error(`the app exited with code ${child.exitCode}`);
+    try {
+      const response = await fetch(`${origin}/api/auth/csrf`);
+      if (response.ok) return;
+    } catch {
+      // not up yet
+    }
+    await new Promise((resolve) => setTimeout(resolve, 300));
+  }
+  throw new Error(`the app did not answer on ${origin} within ${timeoutMs / 1000} s`);
+}
+
+/** `next start` of the test build on 127.0.0.1:port with extra environment; stop() ends its process group. */
+export async function startAppInstance({ port, env = {}, quiet = false }: { port: number; env?: Record<string, string>; quiet?: boolean }): Promise<AppInstance> {
+  const origin = `http://127.0.0.1:${port}`;
+  const child = spawn('node_modules/.bin/next', ['start', '-H', '127.0.0.1', '-p', String(port)], {
+    env: {
+      ...process.env,
+      NEXTAUTH_URL: origin,
+      NEXTAUTH_SECRET: process.env.NEXTAUTH_SECRET ?? 'test-secret-not-for-production-0123456789',
+      DENUDATA_DIST_DIR: process.env.DENUDATA_DIST_DIR ?? '.next-test',
+      ...env,
+    },
+    stdio: ['ignore', quiet ? 'ignore' : 'inherit', quiet ? 'ignore' : 'inherit'],
+    detached: true,
+  });
+  const stop = async () => {
+    if (child.pid && child.exitCode === null) {
+      const exited = new Promise((resolve) => child.once('exit', resolve));
+      try {
+        process.kill(-child.pid, 'SIGTERM');
+      } catch {
+        return;
+      }
+      await Promise.race([exited, new Promise((resolve) => setTimeout(resolve, 5000))]);
+    }
+  };
+  try {
+    await waitForApp(origin, child, 90_000);
+  } catch (error) {
+    await stop();
+    throw error;
+  }
+  return { origin, child, stop };
+}
