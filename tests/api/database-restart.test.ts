@@ -50,7 +50,7 @@ describe('a database restart under load', () => {
     const created = await client.post('/api/sheets', { title: 'Restart' });
     const sheetId = created.body.sheet.id as string;
     const document = sampleDocument({ title: 'Restart' });
-    expect((await client.put(`/api/sheets/${sheetId}/draft`, { baseVersion: 0, document })).status).toBe(200);
+    expect((await client.put(`/api/sheets/${sheetId}/draft`, { baseVersion: 1, document })).status).toBe(200);
     expect((await client.post(`/api/sheets/${sheetId}/revisions`, { baseRevision: 0, document, message: 'before' })).status).toBe(201);
 
     // Revision saves and reads in flight while the database stops.

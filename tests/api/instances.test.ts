@@ -28,7 +28,7 @@ describe('two app instances on one database', () => {
     expect(created.status).toBe(201);
     const sheetId = created.body.sheet.id as string;
     const document = { ...sampleDocument({ title: 'Two instances' }) };
-    const saved = await onFirst.put(`/api/sheets/${sheetId}/draft`, { baseVersion: 0, document });
+    const saved = await onFirst.put(`/api/sheets/${sheetId}/draft`, { baseVersion: 1, document });
     expect(saved.status).toBe(200);
 
     const read = await onSecond.get(`/api/sheets/${sheetId}`);
@@ -46,7 +46,7 @@ describe('two app instances on one database', () => {
   it('should answer 409 on one instance for a draft saved from a stale version on the other', async () => {
     const created = await onFirst.post('/api/sheets', { title: 'Conflict across instances' });
     const sheetId = created.body.sheet.id as string;
-    const base = await onFirst.put(`/api/sheets/${sheetId}/draft`, { baseVersion: 0, document: sampleDocument({ title: 'Conflict across instances' }) });
+    const base = await onFirst.put(`/api/sheets/${sheetId}/draft`, { baseVersion: 1, document: sampleDocument({ title: 'Conflict across instances' }) });
     expect(base.status).toBe(200);
     const mine = await onFirst.put(`/api/sheets/${sheetId}/draft`, { baseVersion: base.body.version, document: sampleDocument({ title: 'Conflict across instances', K: '0.005 m^2/yr' }) });
     expect(mine.status).toBe(200);
