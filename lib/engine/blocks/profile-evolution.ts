@@ -2,7 +2,7 @@
  * Implicit evolution of a hillslope or scarp profile by linear or nonlinear diffusion
  * (CONTRACT "Additions" §4.2; FORMULAS §15).
  */
-import { BlockFailure, STANDING_CAUTION, type BlockTypeDefinition, type Series } from '../block-type';
+import { BlockFailure, STANDING_CAUTION, type BlockOutcome, type BlockTypeDefinition, type InputValues, type OtherInputs, type Series } from '../block-type';
 import { EngineError } from '../errors';
 import { evolveProfile, NonlinearFailure, steepestFace } from '../numerics/diffusion-1d';
 import { DATA_INPUT_HELP, SECONDS_PER_YEAR, median, short } from './data-shared';
@@ -10,6 +10,8 @@ import { DATA_INPUT_HELP, SECONDS_PER_YEAR, median, short } from './data-shared'
 export const MAX_NODES = 20001;
 export const MAX_STEPS = 100000;
 export const MAX_NODE_STEPS = 2e8;
+/** Samples × nodes × steps of an uncertain run (CONTRACT §8.3). */
+export const MAX_SAMPLE_NODE_STEPS = 2e9;
 /** Series hold at most this many intervals; longer grids are decimated (§4.2). */
 const SERIES_INTERVALS = 2000;
 const SLOPE_LIMIT = 0.6;
@@ -134,6 +136,7 @@ export const profileEvolution: BlockTypeDefinition = {
     },
     {
       name: 'half_width',
+      certain: true,
       label: 'Half-width W',
       symbol: 'W',
       dimension: 'length',
@@ -144,6 +147,7 @@ export const profileEvolution: BlockTypeDefinition = {
     },
     {
       name: 'dx',
+      certain: true,
       label: 'Node spacing dx',
       dimension: 'length',
       optional: true,
@@ -153,6 +157,7 @@ export const profileEvolution: BlockTypeDefinition = {
     },
     {
       name: 'steps',
+      certain: true,
       label: 'Time steps',
       dimension: 'dimensionless',
       default: '100',
@@ -209,170 +214,199 @@ export const profileEvolution: BlockTypeDefinition = {
   },
   expressionFunction: false,
   evaluate(inputs, other) {
-    const K = inputs.diffusivity!.si;
-    const t = inputs.duration!.si;
-    const kt = K * t;
-    const data = other.data.data;
-    const boundary = other.text.boundary === 'zero_flux' ? 'zero_flux' : 'fixed';
-    const Sc = inputs.critical_slope?.si;
-    const stepsValue = inputs.steps!.si;
-    if (!Number.isInteger(stepsValue) || stepsValue < 1) throw new EngineError(`steps must be an integer ≥ 1, got ${stepsValue}`, { input: 'steps' });
-    const steps = stepsValue;
-    if (steps > MAX_STEPS) throw new EngineError(`steps: at most ${MAX_STEPS} time steps, got ${steps} (limit steps ≤ ${MAX_STEPS})`, { input: 'steps' });
-
-    let x: Float64Array;
-    let z0: Float64Array;
-    let dx: number;
-    let measured: Series | undefined;
-    if (data) {
-      const stepInputs = ['vertical_offset', 'far_field_slope', 'initial_slope', 'half_width'].filter((name) => inputs[name] !== undefined);
-      if (stepInputs.length > 0) {
-        throw new EngineError(`${stepInputs.join(', ')}: not with data (the dataset is the initial profile)`, { input: stepInputs[0] });
-      }
-      const xs = data.columns.distance!;
-      const zs = data.columns.elevation!;
-      const n = data.count;
-      measured = { x: Array.from(xs), y: Array.from(zs), xLabel: X_LABEL, yLabel: `${Y_LABEL} (measured)`, xUnit: 'm', yUnit: 'm' };
-      const length = xs[n - 1]! - xs[0]!;
-      const spacings = new Float64Array(n - 1);
-      for (let i = 0; i < n - 1; i++) spacings[i] = xs[i + 1]! - xs[i]!;
-      const even = length / (n - 1);
-      const evenlySpaced = spacings.every((s) => Math.abs(s - even) <= 1e-9 * even);
-      if (evenlySpaced && inputs.dx === undefined) {
-        checkSize(n, steps);
-        x = Float64Array.from(xs);
-        z0 = Float64Array.from(zs);
-        dx = even;
-      } else {
-        const requested = inputs.dx?.si ?? median(spacings);
-        const M = Math.max(2, Math.round(length / requested));
-        checkSize(M + 1, steps);
-        dx = length / M;
-        x = new Float64Array(M + 1);
-        z0 = new Float64Array(M + 1);
-        let i = 0;
-        for (let j = 0; j <= M; j++) {
-          const xj = j === M ? xs[n - 1]! : xs[0]! + j * dx;
-          while (i < n - 2 && xs[i + 1]! < xj) i++;
-          const w = (xj - xs[i]!) / (xs[i + 1]! - xs[i]!);
-          x[j] = xj;
-          z0[j] = zs[i]! + w * (zs[i + 1]! - zs[i]!);
-        }
-      }
-    } else {
-      if (inputs.vertical_offset === undefined) throw new EngineError('vertical_offset: this input is required without data', { input: 'vertical_offset' });
-      const a = inputs.vertical_offset.si / 2;
-      const b = inputs.far_field_slope?.si ?? 0;
-      const theta0 = inputs.initial_slope?.si;
-      if (Sc !== undefined && theta0 === undefined) {
-        throw new EngineError('nonlinear transport needs initial_slope (a vertical step is infinitely steep; give the slope of the collapsed face, below critical_slope)', {
-          input: 'initial_slope',
-        });
-      }
-      if (theta0 !== undefined && !(theta0 > b)) {
-        throw new EngineError(`initial_slope must exceed far_field_slope (${short(theta0)} ≤ ${short(b)})`, { input: 'initial_slope' });
-      }
-      let kEff = K;
-      if (Sc !== undefined && theta0 !== undefined) {
-        const s = theta0 / Sc;
-        if (!(s * s < 1)) {
-          throw new EngineError(`the initial profile is steeper than critical_slope at x = 0 m (|S| = ${short(theta0)} ≥ S_c = ${short(Sc)})`, { input: 'initial_slope' });
-        }
-        kEff = K / (1 - s * s);
-      }
-      const W = inputs.half_width?.si ?? 6 * Math.sqrt(kEff * t) + (theta0 !== undefined ? a / (theta0 - b) : 0);
-      const requested = inputs.dx?.si ?? Math.sqrt(kt) / 20;
-      const half = Math.round(W / requested);
-      if (half < 1) throw new EngineError(`dx: the spacing ${short(requested)} m is wider than the half-width ${short(W)} m`, { input: 'dx' });
-      const M = 2 * half;
-      checkSize(M + 1, steps);
-      dx = (2 * W) / M;
-      x = new Float64Array(M + 1);
-      z0 = new Float64Array(M + 1);
-      for (let j = 0; j <= M; j++) {
-        const xj = (j - half) * dx;
-        x[j] = xj;
-        z0[j] = theta0 === undefined ? a * Math.sign(xj) + b * xj : Math.min(Math.max(theta0 * xj, b * xj - a), b * xj + a);
-      }
-    }
-
-    const M = x.length - 1;
-    const initial = steepestFace(z0, dx);
-    let zMin = Infinity;
-    let zMax = -Infinity;
-    for (const v of z0) {
-      zMin = Math.min(zMin, v);
-      zMax = Math.max(zMax, v);
-    }
-    const reliefInitial = zMax - zMin;
-    const fail = (message: string): never => {
-      if (measured) throw new BlockFailure(message, { measured });
-      throw new EngineError(message);
-    };
-    if (Sc !== undefined && initial.slope >= Sc) {
-      const at = (x[initial.face]! + x[initial.face + 1]!) / 2;
-      fail(`the initial profile is steeper than critical_slope at x = ${short(at)} m (|S| = ${short(initial.slope)} ≥ S_c = ${short(Sc)})`);
-    }
-
-    const z = Float64Array.from(z0);
-    try {
-      evolveProfile({
-        z,
-        dx,
-        diffusivity: K,
-        criticalSlope: Sc,
-        boundary,
-        duration: t,
-        steps,
-        newtonTolerance: 1e-12 * Math.max(reliefInitial, Number.MIN_VALUE),
-      });
-    } catch (error) {
-      if (error instanceof NonlinearFailure) {
-        fail(`nonlinear solver failed at t = ${short(error.time / SECONDS_PER_YEAR)} yr (Newton did not converge after halving the step 10 times; use more steps or a gentler initial profile)`);
-      }
-      throw error;
-    }
-
-    let fMin = Infinity;
-    let fMax = -Infinity;
-    for (const v of z) {
-      fMin = Math.min(fMin, v);
-      fMax = Math.max(fMax, v);
-    }
-    const final = steepestFace(z, dx);
-    const estimate = errorBound(dx, kt, steps);
-    const warnings: string[] = [];
-    if (data && Sc === undefined && initial.slope >= SLOPE_LIMIT) {
-      warnings.push(`max_slope_initial ${short(initial.slope)} ≥ ${SLOPE_LIMIT} with linear transport: linear diffusion is doubtful this steep; give critical_slope (Roering et al. 1999)`);
-    }
-    if (estimate > 1e-3) {
-      warnings.push(`error_estimate ${short(estimate)} > 1e-3: use a smaller dx or more steps`);
-    }
-    if (boundary === 'fixed' && M >= 2) {
-      const moved = Math.max(Math.abs(z[1]! - z0[1]!), Math.abs(z[M - 1]! - z0[M - 1]!));
-      if (moved > 1e-3 * reliefInitial) {
-        warnings.push(`the fixed ends are too close: the profile next to an end moved by ${short(moved)} m (> 1e-3 of the initial relief); widen the profile (half_width)`);
-      }
-    }
-    const seriesOut: Record<string, Series> = { initial: decimated(x, z0, 'initial'), final: decimated(x, z, 'final') };
-    if (measured) seriesOut.measured = measured;
-    return {
-      outputs: {
-        max_slope: { si: final.slope },
-        relief: { si: fMax - fMin },
-        max_slope_initial: { si: initial.slope },
-        relief_initial: { si: reliefInitial },
-        volume_change: { si: volume(z, dx) - volume(z0, dx) },
-        kt: { si: kt },
-        nodes: { si: M + 1 },
-        dx: { si: dx },
-        error_estimate: { si: estimate },
-      },
-      series: seriesOut,
-      warnings,
-    };
+    return evolve(inputs, other).outcome;
+  },
+  // Uncertainty (CONTRACT §8.3): the grid (dx, half-width, nodes, steps) is fixed at the nominal
+  // values in every sample, and samples × nodes × steps is bounded.
+  sampleRelation(nominal, other) {
+    const { grid } = evolve(nominal, other);
+    return (inputs, sampleOther) => evolve(inputs, sampleOther, grid).outcome;
+  },
+  sampleCost(nominal, _other, outcome) {
+    const nodes = 'si' in outcome.outputs.nodes! ? outcome.outputs.nodes.si : 0;
+    return { cost: nodes * nominal.steps!.si, limit: MAX_SAMPLE_NODE_STEPS, what: 'nodes × steps' };
   },
 };
+
+/** The grid of a run, kept fixed across uncertainty samples. */
+type FixedGrid = { kind: 'step'; half: number; dx: number } | { kind: 'data'; x: Float64Array; z0: Float64Array; dx: number };
+
+function evolve(inputs: InputValues, other: OtherInputs, fixed?: FixedGrid): { outcome: BlockOutcome; grid: FixedGrid } {
+  const K = inputs.diffusivity!.si;
+  const t = inputs.duration!.si;
+  const kt = K * t;
+  const data = other.data.data;
+  const boundary = other.text.boundary === 'zero_flux' ? 'zero_flux' : 'fixed';
+  const Sc = inputs.critical_slope?.si;
+  const stepsValue = inputs.steps!.si;
+  if (!Number.isInteger(stepsValue) || stepsValue < 1) throw new EngineError(`steps must be an integer ≥ 1, got ${stepsValue}`, { input: 'steps' });
+  const steps = stepsValue;
+  if (steps > MAX_STEPS) throw new EngineError(`steps: at most ${MAX_STEPS} time steps, got ${steps} (limit steps ≤ ${MAX_STEPS})`, { input: 'steps' });
+
+  let x: Float64Array;
+  let z0: Float64Array;
+  let dx: number;
+  let measured: Series | undefined;
+  if (data) {
+    const stepInputs = ['vertical_offset', 'far_field_slope', 'initial_slope', 'half_width'].filter((name) => inputs[name] !== undefined);
+    if (stepInputs.length > 0) {
+      throw new EngineError(`${stepInputs.join(', ')}: not with data (the dataset is the initial profile)`, { input: stepInputs[0] });
+    }
+    const xs = data.columns.distance!;
+    const zs = data.columns.elevation!;
+    const n = data.count;
+    measured = { x: Array.from(xs), y: Array.from(zs), xLabel: X_LABEL, yLabel: `${Y_LABEL} (measured)`, xUnit: 'm', yUnit: 'm' };
+    const length = xs[n - 1]! - xs[0]!;
+    const spacings = new Float64Array(n - 1);
+    for (let i = 0; i < n - 1; i++) spacings[i] = xs[i + 1]! - xs[i]!;
+    const even = length / (n - 1);
+    const evenlySpaced = spacings.every((s) => Math.abs(s - even) <= 1e-9 * even);
+    if (fixed?.kind === 'data') {
+      x = fixed.x;
+      z0 = fixed.z0;
+      dx = fixed.dx;
+    } else if (evenlySpaced && inputs.dx === undefined) {
+      checkSize(n, steps);
+      x = Float64Array.from(xs);
+      z0 = Float64Array.from(zs);
+      dx = even;
+    } else {
+      const requested = inputs.dx?.si ?? median(spacings);
+      const M = Math.max(2, Math.round(length / requested));
+      checkSize(M + 1, steps);
+      dx = length / M;
+      x = new Float64Array(M + 1);
+      z0 = new Float64Array(M + 1);
+      let i = 0;
+      for (let j = 0; j <= M; j++) {
+        const xj = j === M ? xs[n - 1]! : xs[0]! + j * dx;
+        while (i < n - 2 && xs[i + 1]! < xj) i++;
+        const w = (xj - xs[i]!) / (xs[i + 1]! - xs[i]!);
+        x[j] = xj;
+        z0[j] = zs[i]! + w * (zs[i + 1]! - zs[i]!);
+      }
+    }
+  } else {
+    if (inputs.vertical_offset === undefined) throw new EngineError('vertical_offset: this input is required without data', { input: 'vertical_offset' });
+    const a = inputs.vertical_offset.si / 2;
+    const b = inputs.far_field_slope?.si ?? 0;
+    const theta0 = inputs.initial_slope?.si;
+    if (Sc !== undefined && theta0 === undefined) {
+      throw new EngineError('nonlinear transport needs initial_slope (a vertical step is infinitely steep; give the slope of the collapsed face, below critical_slope)', {
+        input: 'initial_slope',
+      });
+    }
+    if (theta0 !== undefined && !(theta0 > b)) {
+      throw new EngineError(`initial_slope must exceed far_field_slope (${short(theta0)} ≤ ${short(b)})`, { input: 'initial_slope' });
+    }
+    let kEff = K;
+    if (Sc !== undefined && theta0 !== undefined) {
+      const s = theta0 / Sc;
+      if (!(s * s < 1)) {
+        throw new EngineError(`the initial profile is steeper than critical_slope at x = 0 m (|S| = ${short(theta0)} ≥ S_c = ${short(Sc)})`, { input: 'initial_slope' });
+      }
+      kEff = K / (1 - s * s);
+    }
+    let half: number;
+    if (fixed?.kind === 'step') {
+      half = fixed.half;
+      dx = fixed.dx;
+    } else {
+      const W = inputs.half_width?.si ?? 6 * Math.sqrt(kEff * t) + (theta0 !== undefined ? a / (theta0 - b) : 0);
+      const requested = inputs.dx?.si ?? Math.sqrt(kt) / 20;
+      half = Math.round(W / requested);
+      if (half < 1) throw new EngineError(`dx: the spacing ${short(requested)} m is wider than the half-width ${short(W)} m`, { input: 'dx' });
+      checkSize(2 * half + 1, steps);
+      dx = (2 * W) / (2 * half);
+    }
+    const M = 2 * half;
+    x = new Float64Array(M + 1);
+    z0 = new Float64Array(M + 1);
+    for (let j = 0; j <= M; j++) {
+      const xj = (j - half) * dx;
+      x[j] = xj;
+      z0[j] = theta0 === undefined ? a * Math.sign(xj) + b * xj : Math.min(Math.max(theta0 * xj, b * xj - a), b * xj + a);
+    }
+  }
+
+  const M = x.length - 1;
+  const initial = steepestFace(z0, dx);
+  let zMin = Infinity;
+  let zMax = -Infinity;
+  for (const v of z0) {
+    zMin = Math.min(zMin, v);
+    zMax = Math.max(zMax, v);
+  }
+  const reliefInitial = zMax - zMin;
+  const fail = (message: string): never => {
+    if (measured) throw new BlockFailure(message, { measured });
+    throw new EngineError(message);
+  };
+  if (Sc !== undefined && initial.slope >= Sc) {
+    const at = (x[initial.face]! + x[initial.face + 1]!) / 2;
+    fail(`the initial profile is steeper than critical_slope at x = ${short(at)} m (|S| = ${short(initial.slope)} ≥ S_c = ${short(Sc)})`);
+  }
+
+  const z = Float64Array.from(z0);
+  try {
+    evolveProfile({
+      z,
+      dx,
+      diffusivity: K,
+      criticalSlope: Sc,
+      boundary,
+      duration: t,
+      steps,
+      newtonTolerance: 1e-12 * Math.max(reliefInitial, Number.MIN_VALUE),
+    });
+  } catch (error) {
+    if (error instanceof NonlinearFailure) {
+      fail(`nonlinear solver failed at t = ${short(error.time / SECONDS_PER_YEAR)} yr (Newton did not converge after halving the step 10 times; use more steps or a gentler initial profile)`);
+    }
+    throw error;
+  }
+
+  let fMin = Infinity;
+  let fMax = -Infinity;
+  for (const v of z) {
+    fMin = Math.min(fMin, v);
+    fMax = Math.max(fMax, v);
+  }
+  const final = steepestFace(z, dx);
+  const estimate = errorBound(dx, kt, steps);
+  const warnings: string[] = [];
+  if (data && Sc === undefined && initial.slope >= SLOPE_LIMIT) {
+    warnings.push(`max_slope_initial ${short(initial.slope)} ≥ ${SLOPE_LIMIT} with linear transport: linear diffusion is doubtful this steep; give critical_slope (Roering et al. 1999)`);
+  }
+  if (estimate > 1e-3) {
+    warnings.push(`error_estimate ${short(estimate)} > 1e-3: use a smaller dx or more steps`);
+  }
+  if (boundary === 'fixed' && M >= 2) {
+    const moved = Math.max(Math.abs(z[1]! - z0[1]!), Math.abs(z[M - 1]! - z0[M - 1]!));
+    if (moved > 1e-3 * reliefInitial) {
+      warnings.push(`the fixed ends are too close: the profile next to an end moved by ${short(moved)} m (> 1e-3 of the initial relief); widen the profile (half_width)`);
+    }
+  }
+  const seriesOut: Record<string, Series> = { initial: decimated(x, z0, 'initial'), final: decimated(x, z, 'final') };
+  if (measured) seriesOut.measured = measured;
+  const grid: FixedGrid = data ? { kind: 'data', x, z0, dx } : { kind: 'step', half: M / 2, dx };
+  const outcome: BlockOutcome = {
+    outputs: {
+      max_slope: { si: final.slope },
+      relief: { si: fMax - fMin },
+      max_slope_initial: { si: initial.slope },
+      relief_initial: { si: reliefInitial },
+      volume_change: { si: volume(z, dx) - volume(z0, dx) },
+      kt: { si: kt },
+      nodes: { si: M + 1 },
+      dx: { si: dx },
+      error_estimate: { si: estimate },
+    },
+    series: seriesOut,
+    warnings,
+  };
+  return { outcome, grid };
+}
 
 function checkSize(nodes: number, steps: number): void {
   if (nodes > MAX_NODES) {

@@ -3,12 +3,18 @@
  * 95 % interval on Kt (CONTRACT "Additions" §4.1; FORMULAS §14).
  */
 import tQuantile from '@stdlib/stats-base-dists-t-quantile';
-import { BlockFailure, STANDING_CAUTION, type BlockTypeDefinition, type OutputValue, type Series } from '../block-type';
+import { BlockFailure, STANDING_CAUTION, type BlockOutcome, type BlockTypeDefinition, type OutputValue, type Series } from '../block-type';
 import { erfModel, fitErfScarp } from '../numerics/erf-fit';
 import { DATA_INPUT_HELP, median, short } from './data-shared';
 import { SCARP_SOURCES, SLOPE_LIMIT, YEARS_PER_KYR_SECONDS } from './scarp-shared';
 
 const FITTED_POINTS = 201;
+const YOUNG_AGE = 'age < 1 kyr (Kogan & Bendick 2011): the model ignores the early gravity-controlled phase';
+
+function siOf(outcome: BlockOutcome, name: string): number {
+  const output = outcome.outputs[name];
+  return output && 'si' in output ? output.si : NaN;
+}
 const X_LABEL = 'Distance';
 
 function labelled(x: ArrayLike<number>, y: ArrayLike<number>, yLabel: string): Series {
@@ -51,6 +57,7 @@ export const scarpFit: BlockTypeDefinition = {
     },
     {
       name: 'x0',
+      certain: true,
       label: 'Scarp centre x0',
       symbol: 'x0',
       dimension: 'length',
@@ -240,9 +247,7 @@ export const scarpFit: BlockTypeDefinition = {
     if (Math.abs(maxSlope) >= SLOPE_LIMIT) {
       warnings.push(`max_slope ${short(maxSlope)} ≥ ${SLOPE_LIMIT}: linear diffusion is doubtful this steep (Roering et al. 1999)`);
     }
-    if (K !== undefined && fit.kt / K < YEARS_PER_KYR_SECONDS) {
-      warnings.push('age < 1 kyr (Kogan & Bendick 2011): the model ignores the early gravity-controlled phase');
-    }
+    if (K !== undefined && fit.kt / K < YEARS_PER_KYR_SECONDS) warnings.push(YOUNG_AGE);
     if (weighted && s2 > 3) warnings.push(`reduced chi-square > 3: the scatter exceeds the stated elevation uncertainties (s² = ${short(s2)})`);
 
     const fx = new Float64Array(FITTED_POINTS);
@@ -260,6 +265,21 @@ export const scarpFit: BlockTypeDefinition = {
         residual: labelled(x, residual, 'Residual'),
       },
       warnings,
+    };
+  },
+  // Uncertainty (CONTRACT §8.3): the fit does not depend on the diffusivity, so it is done once;
+  // each sample only rescales the age outputs (and re-checks the young-age warning).
+  sampleRelation(_nominal, _other, outcome) {
+    const kt = siOf(outcome, 'kt');
+    const ktSe = siOf(outcome, 'kt_se');
+    const lo = siOf(outcome, 'kt_lo95');
+    const hi = siOf(outcome, 'kt_hi95');
+    const warnings = outcome.warnings.filter((w) => w !== YOUNG_AGE);
+    return (inputs) => {
+      const K = inputs.diffusivity?.si;
+      if (K === undefined) return outcome;
+      const outputs = { ...outcome.outputs, age: { si: kt / K }, age_se: { si: ktSe / K }, age_lo95: { si: lo / K }, age_hi95: { si: hi / K } };
+      return { outputs, series: outcome.series, warnings: kt / K < YEARS_PER_KYR_SECONDS ? [...warnings, YOUNG_AGE] : warnings };
     };
   },
 };
