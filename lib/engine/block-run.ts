@@ -21,9 +21,35 @@ function inRange(spec: InputSpec, quantity: Quantity): boolean {
   return true;
 }
 
+/** The words a text input accepts, for messages: "thrust" (or "reverse") or "normal". */
+export function describeChoices(spec: InputSpec): string {
+  const aliases = Object.entries(spec.choiceAliases ?? {});
+  const words = (spec.choices ?? []).map((word) => {
+    const others = aliases.filter(([, target]) => target === word).map(([alias]) => `"${alias}"`);
+    return `"${word}"${others.length ? ` (or ${others.join(', ')})` : ''}`;
+  });
+  if (spec.numberAlternative) words.push(spec.numberAlternative);
+  return words.join(' or ');
+}
+
+/** Dimension check with the input's own hints (a plain-number-only input, the at/g trap). */
+function coerceWithHints(spec: InputSpec, value: unknown): Quantity {
+  if (spec.plainNumberOnly && typeof value === 'object' && value !== null && !Array.isArray(value) && 'units' in value) {
+    throw new EngineError(`${spec.name}: ${spec.plainNumberOnly}; got ${describeValue(value)}`, { input: spec.name, given: describeValue(value) });
+  }
+  try {
+    return coerceInput(spec.name, spec.numberAlternative ? 'dimensionless' : spec.dimension, value);
+  } catch (error) {
+    if (spec.mismatchHint && error instanceof EngineError && error.expected !== undefined) {
+      throw new EngineError(`${error.message}. ${spec.mismatchHint}`, { input: spec.name, expected: error.expected, given: error.given });
+    }
+    throw error;
+  }
+}
+
 /** Coerces one evaluated input value against its declaration (dimension and range). */
 export function coerceBlockInput(spec: InputSpec, value: unknown): Quantity {
-  const quantity = coerceInput(spec.name, spec.dimension, value);
+  const quantity = coerceWithHints(spec, value);
   if (!inRange(spec, quantity)) {
     throw new EngineError(`${spec.name}: must be ${spec.range!.text}, got ${describeValue(value)}`, {
       input: spec.name,
@@ -76,13 +102,14 @@ const NOT_QUANTITY = new Set(['text', 'boolean', 'dataset']);
 function coerceOther(spec: InputSpec, value: unknown, other: OtherInputs, options: RunOptions): void {
   if (spec.dimension === 'text') {
     if (typeof value !== 'string') {
-      throw new EngineError(`${spec.name}: expected a word in double quotes (${(spec.choices ?? []).map((c) => `"${c}"`).join(' or ')}), got ${describeValue(value)}`, {
+      throw new EngineError(`${spec.name}: expected a word in double quotes (${describeChoices(spec)}), got ${describeValue(value)}`, {
         input: spec.name,
       });
     }
-    const word = value.trim().toLowerCase();
+    const typed = value.trim().toLowerCase();
+    const word = spec.choiceAliases?.[typed] ?? typed;
     if (spec.choices && !spec.choices.includes(word)) {
-      throw new EngineError(`${spec.name} must be ${spec.choices.map((c) => `"${c}"`).join(' or ')}, got ${JSON.stringify(value)}`, { input: spec.name });
+      throw new EngineError(`${spec.name} must be ${describeChoices(spec)}, got ${JSON.stringify(value)}`, { input: spec.name });
     }
     other.text[spec.name] = word;
   } else if (spec.dimension === 'boolean') {
@@ -117,17 +144,21 @@ export function coerceBlockInputs(
   options: RunOptions = {},
 ): { coerced: InputValues; other: OtherInputs; plausibility: string[] } {
   const coerced: InputValues = {};
-  const other: OtherInputs = { text: {}, flags: {}, data: {} };
+  const givenInputs = new Set<string>();
+  const other: OtherInputs = { text: {}, flags: {}, data: {}, given: givenInputs };
   const plausibility: string[] = [];
   for (const spec of type.inputs) {
     let value = values[spec.name];
     const given = value !== undefined;
+    if (given) givenInputs.add(spec.name);
     if (value === undefined && spec.default !== undefined) value = defaultValue(spec);
     if (value === undefined) {
       if (spec.optional) continue;
       throw new EngineError(`${spec.name}: this input is required`, { input: spec.name });
     }
-    if (NOT_QUANTITY.has(spec.dimension)) {
+    // A text input that also takes a number (faulting's β) holds the number as a quantity.
+    const numberInstead = spec.numberAlternative !== undefined && typeof value !== 'string';
+    if (NOT_QUANTITY.has(spec.dimension) && !numberInstead) {
       coerceOther(spec, value, other, options);
       continue;
     }

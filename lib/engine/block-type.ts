@@ -33,6 +33,17 @@ export interface InputSpec {
   unitHint?: string;
   /** The allowed words of a text input (dimension "text"), lower case. */
   choices?: readonly string[];
+  /** Other spellings of the words of a text input, lower case: alias → word ("reverse" → "thrust"). */
+  choiceAliases?: Readonly<Record<string, string>>;
+  /**
+   * A text input that also takes a plain number (checked against `range`), with its meaning in
+   * words; the number is then a quantity in `inputs`, the word in `other.text`.
+   */
+  numberAlternative?: string;
+  /** A dimensionless input that must be a plain number: a quantity with units is refused with this message. */
+  plainNumberOnly?: string;
+  /** Added to the message when the value has the wrong dimension (e.g. the `at/g` trap). */
+  mismatchHint?: string;
   /** The dataset kind a data input (dimension "dataset") takes. */
   datasetKind?: DatasetKind;
   help: string;
@@ -110,6 +121,8 @@ export interface OtherInputs {
   text: Record<string, string | undefined>;
   flags: Record<string, boolean | undefined>;
   data: Record<string, ResolvedDataset | undefined>;
+  /** The inputs given in the block or call (not filled in from a default). */
+  given?: ReadonlySet<string>;
 }
 
 export interface BlockTypeDefinition {

@@ -11,6 +11,7 @@ import { EngineError, toSafeMessage } from './errors';
 import { checkExpression, NESTED_DISTRIBUTION_MESSAGE, type CheckedExpression, type OutputReference } from './expression';
 import { buildDependencyGraph, type DependencyGraph, type GraphNode } from './graph';
 import { getBlockType } from './registry';
+import { quoteAdvice, withQuoteAdvice } from './text-words';
 import { formatValue, valueFromFormatted, type FormattedOutput } from './units';
 import { isDistributionName, makeDistribution, valueOf, type Distribution } from './uncertainty/distributions';
 import {
@@ -155,7 +156,7 @@ function prepare(document: SheetDocument): Prepared {
       try {
         checked = checkExpression(text);
       } catch (error) {
-        problem ??= blockMessage(block.name, `${input}: ${toSafeMessage(error)}`);
+        problem ??= blockMessage(block.name, `${input}: ${withQuoteAdvice(toSafeMessage(error), spec?.dimension === 'text')}`);
         continue;
       }
       prepared.inputs.set(input, { name: input, text, checked });
@@ -168,10 +169,10 @@ function prepare(document: SheetDocument): Prepared {
       if (problem === undefined && checked.freeSymbols.length > 0) {
         const symbol = checked.freeSymbols[0]!;
         const message = spec?.dimension === 'text' && !byName.has(symbol)
-          ? `write the word in double quotes, such as "${spec.choices?.[0] ?? symbol}" (a bare ${symbol} is read as a name)`
+          ? `write the word in double quotes, such as "${quoteAdvice(symbol) ? symbol : (spec.choices?.[0] ?? symbol)}" (a bare ${symbol} is read as a name)`
           : byName.has(symbol) || notes.has(symbol)
           ? `"${symbol}" is a block; refer to one of its outputs as ${symbol}.<output>`
-          : `unknown name "${symbol}" (not a block, unit, constant or function)`;
+          : `unknown name "${symbol}" (not a block, unit, constant or function)${quoteAdvice(symbol)}`;
         problem = blockMessage(block.name, `${input}: ${message}`);
       }
       for (const reference of checked.references) {

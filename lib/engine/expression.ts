@@ -30,6 +30,9 @@ math.createUnit('yr', { definition: '365.25 day', aliases: ['yrs'] });
 math.createUnit('kyr', { definition: '1000 yr', aliases: ['kyrs', 'ka'] });
 math.createUnit('Myr', { definition: '1e6 yr', aliases: ['Myrs', 'Ma'] });
 math.createUnit('Gyr', { definition: '1e9 yr', aliases: ['Gyrs', 'Ga'] });
+// A count of atoms, dimensionless (CONTRACT §4b): 2.4e5 atoms/g is 2.4e5 per gram. ("at" is the
+// attotonne in mathjs, so 2.4e5 at/g is a plain number; the cosmogenic type refuses it.)
+math.createUnit('atoms', { definition: '1', aliases: ['atom'] });
 // The annus on its own (1 mm/a), the trade's usual unit beside ka, Ma and Ga (CONTRACT §3).
 math.createUnit('a', { definition: '1 yr' });
 

@@ -14,6 +14,7 @@ import {
 import { collectCallWarnings } from './block-run';
 import { checkExpression } from './expression';
 import { BLOCK_TYPES } from './registry';
+import { quoteAdvice, withQuoteAdvice } from './text-words';
 import { typicalRange } from './typical-ranges';
 import { DIMENSIONS, formatValue, type DimensionInfo, type FormattedOutput } from './units';
 
@@ -87,12 +88,13 @@ export function evaluateQuick(expr: string): QuickResult {
       throw new EngineError(`a quick calculation cannot refer to a block (${first.block}.${first.output})`);
     }
     if (checked.freeSymbols.length > 0) {
-      throw new EngineError(`unknown name "${checked.freeSymbols[0]}" (not a unit, constant or function)`);
+      const symbol = checked.freeSymbols[0]!;
+      throw new EngineError(`unknown name "${symbol}" (not a unit, constant or function)${quoteAdvice(symbol)}`);
     }
     const { value, warnings } = collectCallWarnings(() => checked.evaluate(new Map()));
     return { ...formatValue(value, undefined), warnings };
   } catch (error) {
-    if (error instanceof EngineError) throw error;
+    if (error instanceof EngineError) throw new EngineError(withQuoteAdvice(error.message), error);
     throw new EngineError(toSafeMessage(error));
   }
 }

@@ -3,6 +3,12 @@
  */
 import type { BlockTypeDefinition } from './block-type';
 import { advectiveGeotherm } from './blocks/advective-geotherm';
+import { closureExhumation } from './blocks/closure-exhumation';
+import { cosmogenicDenudation } from './blocks/cosmogenic-denudation';
+import { orogenFluxBalance } from './blocks/orogen-flux-balance';
+import { plateFlexure } from './blocks/plate-flexure';
+import { radiogenicGeotherm } from './blocks/radiogenic-geotherm';
+import { strengthEnvelope } from './blocks/strength-envelope';
 import { channelMarch } from './blocks/channel-march';
 import { denudationConversion } from './blocks/denudation-conversion';
 import { formula } from './blocks/formula';
@@ -40,6 +46,13 @@ export const BLOCK_TYPES: readonly BlockTypeDefinition[] = [
   scarpFit,
   profileEvolution,
   channelMarch,
+  // Tectonic and field-method types (CONTRACT §4b).
+  radiogenicGeotherm,
+  strengthEnvelope,
+  orogenFluxBalance,
+  plateFlexure,
+  cosmogenicDenudation,
+  closureExhumation,
 ];
 
 const byId = new Map(BLOCK_TYPES.map((type) => [type.id, type]));

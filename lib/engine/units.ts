@@ -22,7 +22,19 @@ export type DimensionKey =
   | 'variable'
   | 'text'
   | 'boolean'
-  | 'dataset';
+  | 'dataset'
+  // Tectonic and field-method types (CONTRACT §4b).
+  | 'rate'
+  | 'temperature_gradient'
+  | 'heat_flow'
+  | 'heat_production'
+  | 'conductivity'
+  | 'molar_energy'
+  | 'force_per_length'
+  | 'pressure'
+  | 'mass_per_area'
+  | 'per_mass'
+  | 'per_mass_time';
 
 export interface DimensionInfo {
   key: DimensionKey;
@@ -49,6 +61,17 @@ export const DIMENSIONS: Record<DimensionKey, DimensionInfo> = {
   text: { key: 'text', symbol: 'text', noun: 'a word in double quotes', reference: null },
   boolean: { key: 'boolean', symbol: 'true/false', noun: 'true or false', reference: null },
   dataset: { key: 'dataset', symbol: 'dataset', noun: 'a dataset reference, dataset("<sha256>")', reference: null },
+  rate: { key: 'rate', symbol: '1/T', noun: 'a rate (per time)', reference: 's^-1' },
+  temperature_gradient: { key: 'temperature_gradient', symbol: 'Θ/L', noun: 'a temperature gradient', reference: 'K/m' },
+  heat_flow: { key: 'heat_flow', symbol: 'M/T^3', noun: 'a heat flow (power per area)', reference: 'W/m^2' },
+  heat_production: { key: 'heat_production', symbol: 'M/(L T^3)', noun: 'a heat production (power per volume)', reference: 'W/m^3' },
+  conductivity: { key: 'conductivity', symbol: 'M L/(T^3 Θ)', noun: 'a thermal conductivity', reference: 'W/(m K)' },
+  molar_energy: { key: 'molar_energy', symbol: 'M L^2/(T^2 N)', noun: 'an energy per amount (J/mol)', reference: 'J/mol' },
+  force_per_length: { key: 'force_per_length', symbol: 'M/T^2', noun: 'a force per length (N/m)', reference: 'N/m' },
+  pressure: { key: 'pressure', symbol: 'M/(L T^2)', noun: 'a pressure or modulus', reference: 'Pa' },
+  mass_per_area: { key: 'mass_per_area', symbol: 'M/L^2', noun: 'a mass per area', reference: 'kg/m^2' },
+  per_mass: { key: 'per_mass', symbol: '1/M', noun: 'a concentration per mass (such as atoms/g)', reference: 'kg^-1' },
+  per_mass_time: { key: 'per_mass_time', symbol: '1/(M T)', noun: 'a rate per mass (such as atoms/(g yr))', reference: 'kg^-1 s^-1' },
 };
 
 /** A coerced input: its SI value (K for temperatures, a gradient for slopes) and dimensions. */

@@ -15,6 +15,9 @@ describe('registry', () => {
         'quantities', 'formula', 'note', 'hillslope_diffusion', 'hilltop_erosion', 'scarp_forward', 'scarp_age',
         'transport_capacity', 'net_change', 'peclet_number', 'advective_geotherm', 'stream_power',
         'steady_state_channel', 'isostatic_response', 'denudation_conversion', 'channel_march', 'profile_evolution', 'scarp_fit',
+        // CONTRACT §4b
+        'radiogenic_geotherm', 'strength_envelope', 'orogen_flux_balance', 'plate_flexure', 'cosmogenic_denudation',
+        'closure_exhumation',
       ].sort(),
     );
   });
