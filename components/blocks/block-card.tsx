@@ -397,6 +397,7 @@ function InputRow({
         ) : null}
       </div>
       <div className="min-w-0">
+        {input.choices?.length && canEdit ? <WordChoice block={block} input={input} value={value} actions={actions} /> : null}
         <ExpressionField
           id={fieldId}
           labelId={labelId}
@@ -424,6 +425,28 @@ function InputRow({
         ) : null}
       </div>
     </div>
+  );
+}
+
+/** A text input's words as a choice list that writes the quoted word into the expression. */
+function WordChoice({ block, input, value, actions }: { block: SheetBlock; input: CatalogInput; value: string; actions: BlockCardActions }) {
+  const quoted = /^\s*"([^"]*)"\s*$/.exec(value)?.[1]?.trim().toLowerCase();
+  const current = quoted !== undefined && input.choices!.includes(quoted) ? quoted : '';
+  return (
+    <select
+      aria-label={`${input.label} of ${block.name}: choose a word`}
+      value={current}
+      onChange={(e) => e.target.value && actions.setInput(block.id, input.name, `"${e.target.value}"`)}
+      className="num mb-1 h-7 rounded-[3px] border border-rule bg-chalk px-1 text-[13px]"
+      data-testid="word-choice"
+    >
+      <option value="">{current ? 'choose…' : value.trim() ? 'an expression' : input.default ? `default ${input.default}` : 'choose…'}</option>
+      {input.choices!.map((word) => (
+        <option key={word} value={word}>
+          {word}
+        </option>
+      ))}
+    </select>
   );
 }
 

@@ -88,6 +88,74 @@ export function profilePlot(series: SeriesData, size: PlotSize): SeriesPlot {
   };
 }
 
+/** The index of the largest (sign 1) or smallest (sign −1) y. */
+function extremeIndex(values: number[], sign: 1 | -1): number {
+  let best = 0;
+  for (let i = 1; i < values.length; i++) if (sign * values[i]! > sign * values[best]!) best = i;
+  return best;
+}
+
+const MARK_COLOUR = 'var(--ochre)';
+
+/**
+ * A strength envelope: differential stress across, depth down. The brittle–ductile transition
+ * is the peak of the envelope (the series point of greatest stress), marked with a dashed rule.
+ */
+export function strengthPlot(series: SeriesData, size: PlotSize): SeriesPlot {
+  const data = points(series).map((p) => ({ depth: p.x, stress: p.y }));
+  const peak = data[extremeIndex(series.y, 1)] ?? { depth: 0, stress: 0 };
+  const [d0, d1] = extent(series.x);
+  return {
+    title: 'Strength envelope',
+    description: `Differential stress over depths ${d0} to ${d1} ${series.xUnit}, depth increasing downward; peak ${peak.stress.toFixed(0)} ${series.yUnit} at about ${peak.depth.toFixed(1)} ${series.xUnit}, the brittle–ductile transition.`,
+    options: {
+      width: size.width,
+      height: size.height ?? Math.round(Math.min(420, Math.max(260, size.width * 0.6))),
+      marginLeft: 56,
+      marginBottom: 42,
+      style: { fontSize: '12px', background: 'transparent', overflow: 'visible' },
+      x: { label: axisLabel(series.yLabel || 'Differential stress', series.yUnit), grid: true, labelAnchor: 'center', labelArrow: 'none' },
+      y: { label: axisLabel(series.xLabel || 'Depth', series.xUnit), reverse: true, grid: true, labelAnchor: 'center', labelArrow: 'none' },
+      marks: [
+        Plot.frame({ stroke: 'currentColor', strokeOpacity: 0.25 }),
+        Plot.ruleY([peak.depth], { stroke: MARK_COLOUR, strokeDasharray: '4,3' }),
+        Plot.text([peak], { x: 'stress', y: 'depth', text: () => 'brittle–ductile transition', dy: -8, textAnchor: 'end', fill: 'currentColor' }),
+        Plot.line(data, { x: 'stress', y: 'depth', stroke: LINE_COLOUR, strokeWidth: 2, sort: { channel: 'y' } }),
+      ],
+    },
+  };
+}
+
+/**
+ * A flexure profile: distance from the load across, deflection positive down (so the axis points
+ * down and the basin looks like a basin); the forebulge crest (the most negative w) is marked.
+ */
+export function deflectionPlot(series: SeriesData, size: PlotSize): SeriesPlot {
+  const data = points(series).map((p) => ({ distance: p.x, deflection: p.y }));
+  const crest = data[extremeIndex(series.y, -1)] ?? { distance: 0, deflection: 0 };
+  const [w0, w1] = extent(series.y);
+  return {
+    title: 'Flexure profile',
+    description: `Deflection from ${w0.toFixed(1)} to ${w1.toFixed(1)} ${series.yUnit} (positive down) over ${series.x.length} points from the load; forebulge crest at about ${crest.distance.toFixed(0)} ${series.xUnit}.`,
+    options: {
+      width: size.width,
+      height: size.height ?? Math.round(Math.min(360, Math.max(220, size.width * 0.45))),
+      marginLeft: 56,
+      marginBottom: 42,
+      style: { fontSize: '12px', background: 'transparent', overflow: 'visible' },
+      x: { label: axisLabel(series.xLabel || 'Distance from the load', series.xUnit), grid: true, labelAnchor: 'center', labelArrow: 'none' },
+      y: { label: axisLabel(`${series.yLabel || 'Deflection'}, down`, series.yUnit), reverse: true, grid: true, labelAnchor: 'center', labelArrow: 'none' },
+      marks: [
+        Plot.frame({ stroke: 'currentColor', strokeOpacity: 0.25 }),
+        Plot.ruleY([0], { stroke: 'currentColor', strokeOpacity: 0.35, strokeDasharray: '3,3' }),
+        Plot.ruleX([crest.distance], { stroke: MARK_COLOUR, strokeDasharray: '4,3' }),
+        Plot.text([crest], { x: 'distance', y: 'deflection', text: () => 'forebulge', dy: -10, fill: 'currentColor' }),
+        Plot.line(data, { x: 'distance', y: 'deflection', stroke: LINE_COLOUR, strokeWidth: 2 }),
+      ],
+    },
+  };
+}
+
 /** Any other series: x across, y up. */
 export function genericSeriesPlot(series: SeriesData, size: PlotSize, title: string): SeriesPlot {
   return {
@@ -110,5 +178,7 @@ export function genericSeriesPlot(series: SeriesData, size: PlotSize, title: str
 export function plotForSeries(seriesName: string, series: SeriesData, size: PlotSize): SeriesPlot {
   if (seriesName === 'geotherm') return geothermPlot(series, size);
   if (seriesName === 'profile') return profilePlot(series, size);
+  if (seriesName === 'strength') return strengthPlot(series, size);
+  if (seriesName === 'deflection') return deflectionPlot(series, size);
   return genericSeriesPlot(series, size, seriesName);
 }

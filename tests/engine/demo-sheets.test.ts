@@ -9,6 +9,7 @@ describe('demo sheets', () => {
       'Quillan Hill slope',
       'Sorrel River reach',
       'Marrow Range exhumation',
+      'Tarnholt Massif crustal budget',
     ]);
   });
 
@@ -27,5 +28,16 @@ describe('demo sheets', () => {
     expect(scarp.blocks.slope_check!.outputs.value!.value).toBeCloseTo(17, 9);
     const thermal = evaluateSheet(DEMO_SHEETS[3]!.document);
     expect(thermal.blocks.geotherm!.series!.geotherm!.x).toHaveLength(101);
+  });
+
+  it('should chain the tectonic blocks: the advected geotherm at the closure depth gives the closure temperature', () => {
+    const demo = DEMO_SHEETS.find((s) => s.key === 'tarnholt-massif-budget')!;
+    const results = evaluateSheet(demo.document);
+    expect(results.blocks.advected!.outputs.temperature_at_depth!.value).toBeCloseTo(110, 8);
+    expect(results.blocks.envelope!.series!.strength!.x).toHaveLength(201);
+    expect(results.blocks.foreland!.series!.deflection!.x).toHaveLength(201);
+    expect(results.blocks.crust!.series!.geotherm!.x).toHaveLength(101);
+    expect(results.blocks.rate_ratio!.outputs.value!.value).toBeGreaterThan(0.5);
+    expect(results.blocks.rate_ratio!.outputs.value!.value).toBeLessThan(2);
   });
 });
