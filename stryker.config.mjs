@@ -10,6 +10,9 @@ const config = {
   plugins: ['@stryker-mutator/vitest-runner'],
   mutate: [
     'lib/engine/blocks/{quantities,formula,note,hillslope-diffusion,hilltop-erosion,scarp-forward,scarp-age,scarp-shared,transport-capacity,net-change,peclet-number,advective-geotherm,stream-power,stream-power-shared,steady-state-channel,isostatic-response,denudation-conversion}.ts',
+    // The tectonic and field-method types (CONTRACT §4b) and their numerical routines.
+    'lib/engine/blocks/{radiogenic-geotherm,strength-envelope,orogen-flux-balance,plate-flexure,cosmogenic-denudation,closure-exhumation}.ts',
+    'lib/engine/numerics.ts',
   ],
   coverageAnalysis: 'perTest',
   concurrency: 2,
