@@ -262,7 +262,7 @@ function BlockCardInner(props: BlockCardProps) {
           {result?.series
             ? Object.entries(result.series).map(([name, series]) => (
                 <div key={name} className={stale ? 'opacity-80' : undefined}>
-                  <SeriesFigure blockName={block.name} seriesName={name} series={series} />
+                  <SeriesFigure blockName={block.name} seriesName={name} series={series} outputs={result.outputs} />
                 </div>
               ))
             : null}

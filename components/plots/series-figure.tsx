@@ -3,7 +3,7 @@
 import * as Plot from '@observablehq/plot';
 import { useEffect, useRef, useState } from 'react';
 import { plotForSeries } from '@/lib/plot/series-plot';
-import type { SeriesData } from '@/lib/sheet/types';
+import type { OutputValue, SeriesData } from '@/lib/sheet/types';
 
 /** Replaces CSS variables and currentColor with the computed colours, so a download looks the same. */
 function standaloneSvg(svg: SVGSVGElement): string {
@@ -30,7 +30,18 @@ function download(name: string, blob: Blob) {
 }
 
 /** A block's series drawn with Observable Plot (rendered in an effect, removed on cleanup). */
-export default function SeriesFigure({ blockName, seriesName, series }: { blockName: string; seriesName: string; series: SeriesData }) {
+export default function SeriesFigure({
+  blockName,
+  seriesName,
+  series,
+  outputs,
+}: {
+  blockName: string;
+  seriesName: string;
+  series: SeriesData;
+  /** The block's outputs, for marks at exact values (the transition, the forebulge). */
+  outputs?: Record<string, OutputValue>;
+}) {
   const holder = useRef<HTMLDivElement>(null);
   const [width, setWidth] = useState(640);
   const [caption, setCaption] = useState('');
@@ -49,7 +60,7 @@ export default function SeriesFigure({ blockName, seriesName, series }: { blockN
   useEffect(() => {
     const element = holder.current;
     if (!element) return;
-    const spec = plotForSeries(seriesName, series, { width: Math.max(280, Math.min(width, 900)) });
+    const spec = plotForSeries(seriesName, series, { width: Math.max(280, Math.min(width, 900)) }, outputs);
     const figure = Plot.plot(spec.options);
     // The figure is one image for assistive technology: the marks' own labels are dropped.
     figure.querySelectorAll('[aria-label], [aria-description]').forEach((node) => {
@@ -61,7 +72,7 @@ export default function SeriesFigure({ blockName, seriesName, series }: { blockN
     element.append(figure);
     setCaption(spec.description);
     return () => figure.remove();
-  }, [blockName, seriesName, series, width]);
+  }, [blockName, seriesName, series, width, outputs]);
 
   const svgElement = () => holder.current?.querySelector('svg') ?? null;
   const fileName = `${blockName}-${seriesName}`;

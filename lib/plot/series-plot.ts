@@ -3,7 +3,15 @@
  * hands the options to Plot.plot; the tests read them as data.
  */
 import * as Plot from '@observablehq/plot';
-import type { SeriesData } from '@/lib/sheet/types';
+import type { OutputValue, SeriesData } from '@/lib/sheet/types';
+
+/** A block's outputs, for marks placed at exact values (SI values are read, so display units do not matter). */
+export type PlotOutputs = Record<string, OutputValue> | undefined;
+
+function siOf(outputs: PlotOutputs, name: string): number | undefined {
+  const si = outputs?.[name]?.si;
+  return typeof si === 'number' && Number.isFinite(si) ? si : undefined;
+}
 
 export interface PlotSize {
   width: number;
@@ -101,9 +109,15 @@ const MARK_COLOUR = 'var(--ochre)';
  * A strength envelope: differential stress across, depth down. The brittle–ductile transition
  * is the peak of the envelope (the series point of greatest stress), marked with a dashed rule.
  */
-export function strengthPlot(series: SeriesData, size: PlotSize): SeriesPlot {
+export function strengthPlot(series: SeriesData, size: PlotSize, outputs?: PlotOutputs): SeriesPlot {
   const data = points(series).map((p) => ({ depth: p.x, stress: p.y }));
-  const peak = data[extremeIndex(series.y, 1)] ?? { depth: 0, stress: 0 };
+  const depth = siOf(outputs, 'brittle_ductile_depth');
+  const stress = siOf(outputs, 'transition_strength');
+  // The exact transition when the block's outputs are at hand (series in km and MPa), else the series peak.
+  const peak =
+    depth !== undefined && stress !== undefined && series.xUnit === 'km' && series.yUnit === 'MPa'
+      ? { depth: depth / 1000, stress: stress / 1e6 }
+      : (data[extremeIndex(series.y, 1)] ?? { depth: 0, stress: 0 });
   const [d0, d1] = extent(series.x);
   return {
     title: 'Strength envelope',
@@ -130,9 +144,15 @@ export function strengthPlot(series: SeriesData, size: PlotSize): SeriesPlot {
  * A flexure profile: distance from the load across, deflection positive down (so the axis points
  * down and the basin looks like a basin); the forebulge crest (the most negative w) is marked.
  */
-export function deflectionPlot(series: SeriesData, size: PlotSize): SeriesPlot {
+export function deflectionPlot(series: SeriesData, size: PlotSize, outputs?: PlotOutputs): SeriesPlot {
   const data = points(series).map((p) => ({ distance: p.x, deflection: p.y }));
-  const crest = data[extremeIndex(series.y, -1)] ?? { distance: 0, deflection: 0 };
+  const distance = siOf(outputs, 'forebulge_distance');
+  const height = siOf(outputs, 'forebulge_height');
+  // The exact crest from the outputs (w is positive down, the height positive up), else the series minimum.
+  const crest =
+    distance !== undefined && height !== undefined && series.xUnit === 'km' && series.yUnit === 'm'
+      ? { distance: distance / 1000, deflection: -height }
+      : (data[extremeIndex(series.y, -1)] ?? { distance: 0, deflection: 0 });
   const [w0, w1] = extent(series.y);
   return {
     title: 'Flexure profile',
@@ -175,10 +195,10 @@ export function genericSeriesPlot(series: SeriesData, size: PlotSize, title: str
 }
 
 /** The builder for a named series of a block result. */
-export function plotForSeries(seriesName: string, series: SeriesData, size: PlotSize): SeriesPlot {
+export function plotForSeries(seriesName: string, series: SeriesData, size: PlotSize, outputs?: PlotOutputs): SeriesPlot {
   if (seriesName === 'geotherm') return geothermPlot(series, size);
   if (seriesName === 'profile') return profilePlot(series, size);
-  if (seriesName === 'strength') return strengthPlot(series, size);
-  if (seriesName === 'deflection') return deflectionPlot(series, size);
+  if (seriesName === 'strength') return strengthPlot(series, size, outputs);
+  if (seriesName === 'deflection') return deflectionPlot(series, size, outputs);
   return genericSeriesPlot(series, size, seriesName);
 }

@@ -7,7 +7,7 @@ type MarkWithData = { data?: unknown[] };
 
 // Series from the engine for reference cases P25 (Sibson 1974; Gleason & Tullis 1995) and P30
 // (Turcotte & Schubert 2002 §3-16), drawn by the pure builders.
-const strength = runBlock('strength_envelope', {
+const strengthResult = runBlock('strength_envelope', {
   surface_temperature: '10 degC',
   geothermal_gradient: '25 K/km',
   strain_rate: '1e-14/s',
@@ -16,8 +16,14 @@ const strength = runBlock('strength_envelope', {
   activation_energy: '223 kJ/mol',
   faulting: '"thrust"',
   max_depth: '30 km',
-}).series!.strength! as SeriesData;
-const deflection = runBlock('plate_flexure', { line_load: '2e12 N/m', elastic_thickness: '34 km', infill_density: '1000 kg/m^3' }).series!.deflection! as SeriesData;
+});
+const strength = strengthResult.series!.strength! as SeriesData;
+const flexureResult = runBlock('plate_flexure', { line_load: '2e12 N/m', elastic_thickness: '34 km', infill_density: '1000 kg/m^3' });
+const deflection = flexureResult.series!.deflection! as SeriesData;
+
+type RuleData = MarkWithData & { data?: unknown[] };
+const ruleValues = (marks: unknown) =>
+  (marks as RuleData[]).filter((m) => Array.isArray(m.data) && m.data.length === 1 && typeof m.data[0] === 'number').map((m) => m.data![0] as number);
 
 describe('strengthPlot', () => {
   it('should put depth on a downward axis and stress across, labelled with units', () => {
@@ -37,6 +43,23 @@ describe('strengthPlot', () => {
 
   it('should be chosen for a series named strength', () => {
     expect(plotForSeries('strength', strength, { width: 400 }).title).toBe('Strength envelope');
+  });
+});
+
+describe('marks at the exact outputs', () => {
+  it('should mark the P25 transition at 10.8323578151 km when the outputs are given, whatever their display unit', () => {
+    const plot = strengthPlot(strength, { width: 600 }, strengthResult.outputs);
+    expect(ruleValues(plot.options.marks)[0]).toBeCloseTo(10.8323578151, 9);
+    const inMetres = runBlock('strength_envelope', {
+      surface_temperature: '10 degC', geothermal_gradient: '25 K/km', strain_rate: '1e-14/s', flow_prefactor: '1.1e-4',
+      stress_exponent: '4', activation_energy: '223 kJ/mol', faulting: '"thrust"', max_depth: '30 km',
+    }, { brittle_ductile_depth: 'm' });
+    expect(ruleValues(strengthPlot(strength, { width: 600 }, inMetres.outputs).options.marks)[0]).toBeCloseTo(10.8323578151, 9);
+  });
+
+  it('should mark the P30 forebulge crest at πα = 254.946063018 km when the outputs are given', () => {
+    const plot = plotForSeries('deflection', deflection, { width: 600 }, flexureResult.outputs);
+    expect(ruleValues(plot.options.marks).find((v) => v !== 0)).toBeCloseTo(254.946063018, 8);
   });
 });
 
