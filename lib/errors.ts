@@ -6,10 +6,16 @@ export type ErrorCode =
   | 'not_found'
   | 'conflict'
   | 'too_large'
+  | 'unsupported_media_type'
   | 'limit_exceeded'
   | 'rate_limited'
   | 'database_unavailable'
-  | 'internal';
+  | 'internal'
+  // Datasets (CONTRACT §6 additions, §7)
+  | 'invalid_dataset'
+  | 'unknown_dataset'
+  | 'dataset_in_use'
+  | 'quota_exceeded';
 
 const STATUS: Record<ErrorCode, number> = {
   validation: 400,
@@ -18,10 +24,15 @@ const STATUS: Record<ErrorCode, number> = {
   not_found: 404,
   conflict: 409,
   too_large: 413,
+  unsupported_media_type: 415,
   limit_exceeded: 422,
   rate_limited: 429,
   database_unavailable: 503,
   internal: 500,
+  invalid_dataset: 400,
+  unknown_dataset: 400,
+  dataset_in_use: 409,
+  quota_exceeded: 409,
 };
 
 export class AppError extends Error {

@@ -100,16 +100,26 @@ export class Comment extends Model<InferAttributes<Comment>, InferCreationAttrib
   declare updatedAt: CreationOptional<Date>;
 }
 
+/** An immutable, team-owned table of measurements (CONTRACT §7), identified by its canonical SHA-256. */
 export class Dataset extends Model<InferAttributes<Dataset>, InferCreationAttributes<Dataset>> {
   declare id: CreationOptional<string>;
   declare teamId: ForeignKey<Team['id']>;
-  declare sheetId: string | null;
-  declare filename: string;
-  declare contentType: string;
-  declare sizeBytes: number;
   declare sha256: string;
-  declare content: Buffer;
-  declare uploadedBy: ForeignKey<User['id']>;
+  declare kind: 'slope_profile' | 'long_profile';
+  declare name: string;
+  declare description: string;
+  declare columns: { name: string; unit: string }[];
+  /** The RFC 8785 text of the canonical form (the bytes that are hashed). */
+  declare canonical: string;
+  declare canonicalBytes: number;
+  declare rowCount: number;
+  /** The uploaded file as it came. */
+  declare original: Buffer;
+  declare originalSha256: string;
+  declare originalFilename: string | null;
+  /** Size of the uploaded file in bytes. */
+  declare byteSize: number;
+  declare createdBy: string | null;
   declare createdAt: CreationOptional<Date>;
 }
 
@@ -282,13 +292,19 @@ export function initModels(sequelize: Sequelize): void {
     {
       id: uuidPk,
       teamId: { type: DataTypes.UUID, allowNull: false },
-      sheetId: DataTypes.UUID,
-      filename: { type: DataTypes.TEXT, allowNull: false },
-      contentType: { type: DataTypes.TEXT, allowNull: false },
-      sizeBytes: { type: DataTypes.BIGINT, allowNull: false },
       sha256: { type: DataTypes.CHAR(64), allowNull: false },
-      content: { type: DataTypes.BLOB, allowNull: false },
-      uploadedBy: { type: DataTypes.UUID, allowNull: false },
+      kind: { type: DataTypes.TEXT, allowNull: false },
+      name: { type: DataTypes.TEXT, allowNull: false },
+      description: { type: DataTypes.TEXT, allowNull: false, defaultValue: '' },
+      columns: { type: DataTypes.JSONB, allowNull: false },
+      canonical: { type: DataTypes.TEXT, allowNull: false },
+      canonicalBytes: { type: DataTypes.INTEGER, allowNull: false },
+      rowCount: { type: DataTypes.INTEGER, allowNull: false },
+      original: { type: DataTypes.BLOB, allowNull: false },
+      originalSha256: { type: DataTypes.CHAR(64), allowNull: false },
+      originalFilename: { type: DataTypes.TEXT, allowNull: true },
+      byteSize: { type: DataTypes.INTEGER, allowNull: false },
+      createdBy: { type: DataTypes.UUID, allowNull: true },
       createdAt: created,
     },
     opts('datasets', 'created'),

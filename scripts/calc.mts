@@ -1,7 +1,9 @@
-// Command-line runner: evaluates a sheet document and prints its results as JSON.
-//   npm run --silent calc -- <sheet.json> [--time-limit S]
+// Command-line runner: evaluates a sheet document (or a bundle with its datasets) and prints its results as JSON.
+//   npm run --silent calc -- <sheet.json | bundle.json> [--datasets DIR] [--time-limit S]
+// DIR holds canonical datasets as <sha256>.json (the bytes of GET /api/datasets/{sha256}?format=canonical);
+// a bundle's datasets and the folder's files must hash to their sha256 (else exit 2).
 // Exit codes: 0 every block ok; 1 any block error or blocked (a value over a size cap is a block
-// error); 2 unreadable or invalid document; 3 the whole run was stopped by its time limit
+// error); 2 unreadable or invalid document or dataset; 3 the whole run was stopped by its time limit
 // (--time-limit S, default 120 s, counted from when the evaluation starts) or its memory limit
 // (DENUDATA_CALC_MEMORY_MB, default 2048), with the reason on stderr.
 //
@@ -28,9 +30,12 @@ function fail(reason: string, code = 2): never {
   process.exit(code);
 }
 
-function parseArgs(argv: string[]): { file: string; timeLimitS: number } {
+const USAGE = 'usage: npm run --silent calc -- <sheet.json | bundle.json> [--datasets DIR] [--time-limit S]';
+
+function parseArgs(argv: string[]): { file: string; timeLimitS: number; datasetsDir: string | null } {
   const positional: string[] = [];
   let timeLimitS = DEFAULT_TIME_LIMIT_S;
+  let datasetsDir: string | null = null;
   for (let i = 0; i < argv.length; i++) {
     const arg = argv[i]!;
     if (arg === '--') continue;
@@ -41,12 +46,16 @@ function parseArgs(argv: string[]): { file: string; timeLimitS: number } {
         fail(`--time-limit takes a number of seconds greater than 0 (got ${text ?? 'nothing'})`);
       }
       timeLimitS = value;
+    } else if (arg === '--datasets' || arg.startsWith('--datasets=')) {
+      const text = arg.includes('=') ? arg.slice(arg.indexOf('=') + 1) : argv[++i];
+      if (!text) fail(`--datasets takes a folder of <sha256>.json files; ${USAGE}`);
+      datasetsDir = text;
     } else if (arg.startsWith('--')) {
-      fail(`unknown option ${arg}; usage: npm run --silent calc -- <sheet.json> [--time-limit S]`);
+      fail(`unknown option ${arg}; ${USAGE}`);
     } else positional.push(arg);
   }
-  if (positional.length !== 1) fail('usage: npm run --silent calc -- <sheet.json> [--time-limit S]');
-  return { file: positional[0]!, timeLimitS };
+  if (positional.length !== 1) fail(USAGE);
+  return { file: positional[0]!, timeLimitS, datasetsDir };
 }
 
 function memoryLimitMb(): number {
@@ -58,13 +67,13 @@ function memoryLimitMb(): number {
  * Validates and evaluates in a worker thread under the time and memory limits. The main thread
  * never loads the engine (one engine start-up, not two); an invalid document ends with exit 2.
  */
-function evaluateWithLimits(json: unknown, timeLimitS: number): Promise<SheetResults> {
+function evaluateWithLimits(json: unknown, timeLimitS: number, datasetsDir: string | null): Promise<SheetResults> {
   // Node 20 worker threads do not inherit tsx's loader: register it in the worker first.
   const source = `require('tsx/cjs/api').register();
 import('tsx/esm/api').then(({ register }) => { register(); return import(${JSON.stringify(import.meta.url)}); });`;
   const worker = new Worker(source, {
     eval: true,
-    workerData: { json },
+    workerData: { json, datasetsDir },
     execArgv: ['--conditions=react-server'],
     resourceLimits: { maxOldGenerationSizeMb: memoryLimitMb() },
     stderr: false,
@@ -105,9 +114,10 @@ import('tsx/esm/api').then(({ register }) => { register(); return import(${JSON.
 }
 
 async function main(): Promise<void> {
-  const { file: given, timeLimitS } = parseArgs(process.argv.slice(2));
+  const { file: given, timeLimitS, datasetsDir } = parseArgs(process.argv.slice(2));
   const base = process.env.INIT_CWD ?? process.cwd();
   const file = path.resolve(base, given);
+  const folder = datasetsDir === null ? null : path.resolve(base, datasetsDir);
   let text: string;
   try {
     text = await readFile(file, 'utf8');
@@ -122,7 +132,7 @@ async function main(): Promise<void> {
   }
   let results: SheetResults;
   try {
-    results = await evaluateWithLimits(json, timeLimitS);
+    results = await evaluateWithLimits(json, timeLimitS, folder);
   } catch (error) {
     const code = (error as { exitCode?: number }).exitCode ?? 2;
     fail(error instanceof Error ? error.message : String(error), code);
@@ -141,12 +151,17 @@ if (isMainThread) {
   const port = parentPort!;
   try {
     const { evaluateSheet, parseSheetDocument } = await import('../lib/engine');
-    const parsed = parseSheetDocument((workerData as { json: unknown }).json);
-    if (!parsed.ok) {
-      port.postMessage({ type: 'invalid', message: `invalid document: ${parsed.path ? `${parsed.path}: ` : ''}${parsed.message}` } satisfies WorkerReply);
+    const { readRunnerInput } = await import('../lib/datasets/runner-input');
+    const { json, datasetsDir } = workerData as { json: unknown; datasetsDir: string | null };
+    const input = await readRunnerInput(json, datasetsDir);
+    const parsed = input.ok ? parseSheetDocument(input.document) : null;
+    if (!input.ok) {
+      port.postMessage({ type: 'invalid', message: input.message } satisfies WorkerReply);
+    } else if (!parsed!.ok) {
+      port.postMessage({ type: 'invalid', message: `invalid document: ${parsed!.path ? `${parsed!.path}: ` : ''}${parsed!.message}` } satisfies WorkerReply);
     } else {
       port.postMessage({ type: 'started' } satisfies WorkerReply);
-      const results = evaluateSheet(parsed.document);
+      const results = evaluateSheet(parsed!.document, { datasets: input.datasets });
       port.postMessage({ type: 'done', results } satisfies WorkerReply);
     }
   } catch (error) {

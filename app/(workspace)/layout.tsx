@@ -22,6 +22,9 @@ export default async function WorkspaceLayout({ children }: { children: ReactNod
             <Link href="/sheets" className="text-slate hover:text-basalt">
               Sheets
             </Link>
+            <Link href="/datasets" className="text-slate hover:text-basalt">
+              Datasets
+            </Link>
             <Link href="/team" className="text-slate hover:text-basalt">
               Team
             </Link>

@@ -10,6 +10,7 @@ import type { BlockResult, CatalogInput, CatalogType, SheetBlock } from '@/lib/s
 import type { CompletionData } from './expression-language';
 import { NoteMarkdown } from './note-markdown';
 import { ErrorText } from '@/components/ui/error-text';
+import { DatasetPicker } from '@/components/datasets/dataset-picker';
 
 // CodeMirror and Plot load only on pages that show fields and plots.
 const ExpressionField = dynamic(() => import('./expression-field'), {
@@ -411,6 +412,9 @@ function InputRow({
           functions={functions}
           onChange={(next) => actions.setInput(block.id, input.name, next)}
         />
+        {input.dimension === 'dataset' ? (
+          <DatasetPicker kind={input.datasetKind} value={value} readOnly={!canEdit} labelId={labelId} onPick={(next) => actions.setInput(block.id, input.name, next)} />
+        ) : null}
         {error ? (
           <p id={errorId} className="mt-0.5 text-[12px] text-oxide" data-testid="input-error">
             <span aria-hidden="true">✕ </span>

@@ -1,13 +1,15 @@
 import 'server-only';
 import { badRequest, notFound } from '@/lib/errors';
 import { Sheet, SheetRevision } from '@/models';
+import { copyDatasetsToTeam } from './datasets';
 import { db } from './index';
 import { insertSheet, toSheetRecord, type SheetRecord, type SiteInput } from './sheets';
 
 /**
  * Forks a sheet (for a new site, typically) into a team: the new sheet's draft is the chosen revision's
  * document (default: the head revision, or the source's draft when it has none) with the new title and
- * site. It records where it came from; it has no revision of its own yet.
+ * site. It records where it came from; it has no revision of its own yet. A fork into another team copies
+ * the datasets the document refers to.
  */
 export async function forkSheet({
   sourceSheetId,
@@ -37,6 +39,9 @@ export async function forkSheet({
     } else {
       document = source.draftDocument as Record<string, unknown>;
     }
+    // Into another team: the datasets the document refers to come along (same sha256, name and
+    // description); the team quota applies, and a 409 leaves nothing forked.
+    await copyDatasetsToTeam({ fromTeamId: source.teamId, toTeamId: teamId, document, userId }, transaction);
     const keptSite = site === undefined ? (document.site as SiteInput | undefined) : site ?? undefined;
     const { site: _dropped, ...rest } = document;
     void _dropped;

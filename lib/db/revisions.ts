@@ -4,8 +4,11 @@ import { AppError, conflict, notFound } from '@/lib/errors';
 import { EngineError, hashSheetDocument, type SheetDocument, type SheetResults } from '@/lib/engine';
 import { requireValidDocument } from '@/lib/sheet/evaluation.server';
 import { runEvaluate } from '@/lib/evaluation/pool';
-import { Sheet, SheetRevision, User, type ReviewStatus } from '@/models';
+import type { DatasetLookup } from '@/lib/engine/dataset';
+import { datasetReferences } from '@/lib/datasets/references';
+import { Dataset, Sheet, SheetRevision, Team, User, type ReviewStatus } from '@/models';
 import { recordAudit } from './audit';
+import { checkBundleDatasets, insertBundleDatasets, requireKnownDatasets, resolveDocumentDatasets } from './datasets';
 import { db } from './index';
 import { insertSheet, toSheetRecord, type SheetRecord } from './sheets';
 import { toPublicUser, type PublicUser } from './users';
@@ -108,12 +111,15 @@ export async function getReviewSummary({ sheetId, number }: { sheetId: string; n
 
 type Evaluated = { document: SheetDocument; hash: string; results: SheetResults; engineVersion: string };
 
-/** Validates and evaluates a document through the worker pool (outside any transaction). */
-export async function evaluateForRevision(input: unknown, userId?: string): Promise<Evaluated> {
+/**
+ * Validates and evaluates a document through the worker pool (outside any transaction), with the
+ * datasets it refers to.
+ */
+export async function evaluateForRevision(input: unknown, userId?: string, datasets?: DatasetLookup): Promise<Evaluated> {
   const document = requireValidDocument(input);
   let results: SheetResults;
   try {
-    results = await runEvaluate(document, userId ? { userId } : undefined);
+    results = await runEvaluate(document, userId ? { userId } : undefined, datasets);
   } catch (error) {
     if (error instanceof EngineError) {
       throw new AppError(/longer than|too much memory/.test(error.message) ? 'limit_exceeded' : 'validation', `document: ${error.message}`);
@@ -122,6 +128,20 @@ export async function evaluateForRevision(input: unknown, userId?: string): Prom
   }
   const hash = hashSheetDocument(document);
   return { document, hash, results, engineVersion: results.engine };
+}
+
+/**
+ * Inside a revision's transaction: holds the team's row in share mode (a dataset delete takes it for
+ * update, so the two are ordered) and checks that the team still holds every dataset the document refers
+ * to: 400 unknown_dataset otherwise, since a revision must be reproducible.
+ */
+async function requireTeamDatasets({ teamId, document }: { teamId: string; document: unknown }, transaction: Transaction): Promise<void> {
+  const hashes = datasetReferences(document);
+  if (!hashes.length) return;
+  await Team.findByPk(teamId, { transaction, lock: transaction.LOCK.SHARE, attributes: ['id'] });
+  const held = await Dataset.findAll({ where: { teamId, sha256: hashes }, attributes: ['sha256'], transaction });
+  const present = new Set(held.map((d) => d.sha256));
+  requireKnownDatasets(hashes.filter((h) => !present.has(h)));
 }
 
 /** Writes revision n+1 inside a transaction that holds the sheet's row lock. */
@@ -196,10 +216,16 @@ export async function saveRevision({
   document: unknown;
   message: string;
 }): Promise<{ number: number; hash: string }> {
-  const evaluated = await evaluateForRevision(document, userId);
+  const owner = await Sheet.findByPk(sheetId, { attributes: ['id', 'teamId'] });
+  if (!owner) throw notFound('Sheet');
+  const valid = requireValidDocument(document);
+  const { lookup, missing } = await resolveDocumentDatasets({ teamId: owner.teamId, document: valid });
+  requireKnownDatasets(missing);
+  const evaluated = await evaluateForRevision(valid, userId, lookup);
   const sequelize = db();
   try {
     return await sequelize.transaction(async (transaction) => {
+      await requireTeamDatasets({ teamId: owner.teamId, document: evaluated.document }, transaction);
       const sheet = await Sheet.findByPk(sheetId, { transaction, lock: transaction.LOCK.UPDATE });
       if (!sheet) throw notFound('Sheet');
       return insertRevision({ sheet, userId, baseRevision, evaluated, message }, transaction);
@@ -213,19 +239,34 @@ export async function saveRevision({
   }
 }
 
-/** A new sheet in the team whose draft and revision 1 hold the document exactly as imported. */
+/**
+ * A new sheet in the team whose draft and revision 1 hold the document exactly as imported. A bundle's
+ * datasets (checked and re-hashed first) are created in the team in the same transaction (idempotent);
+ * every dataset the document refers to must then be held by the team (400 unknown_dataset otherwise).
+ */
 export async function importSheet({
   teamId,
   userId,
   document,
+  datasets = [],
 }: {
   teamId: string;
   userId: string;
   document: unknown;
+  datasets?: { sha256: string; name: string; description?: string; kind: string; canonical: unknown }[];
 }): Promise<{ sheet: SheetRecord; revision: { number: number; hash: string } }> {
-  const evaluated = await evaluateForRevision(document, userId);
+  const valid = requireValidDocument(document);
+  // The bundle's datasets are checked and re-hashed before anything runs (400 naming datasets[i]).
+  const items = checkBundleDatasets(datasets);
+  const { lookup: held } = await resolveDocumentDatasets({ teamId, document: valid });
+  const lookup = new Map(held);
+  for (const item of items) if (!lookup.has(item.sha256)) lookup.set(item.sha256, item.dataset);
+  requireKnownDatasets(datasetReferences(valid).filter((h) => !lookup.has(h)));
+  const evaluated = await evaluateForRevision(valid, userId, lookup);
   const sequelize = db();
   return sequelize.transaction(async (transaction) => {
+    await insertBundleDatasets({ teamId, userId, items }, transaction);
+    await requireTeamDatasets({ teamId, document: evaluated.document }, transaction);
     const sheet = await insertSheet(
       { teamId, userId, document: evaluated.document, audit: { action: 'sheet.imported' } },
       transaction,

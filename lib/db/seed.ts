@@ -1,6 +1,10 @@
 import 'server-only';
 import type { Transaction } from 'sequelize';
-import { Membership, Sheet, SheetRevision, Team, User, type TeamRole } from '@/models';
+import { createHash } from 'node:crypto';
+import { Dataset, Membership, Sheet, SheetRevision, Team, User, type TeamRole } from '@/models';
+import type { DatasetCanonical } from '@/lib/engine/dataset';
+import { DEMO_DATASETS, demoDataset } from '@/lib/demo/datasets';
+import { datasetReferences } from '@/lib/datasets/references';
 import { ENGINE_VERSION, evaluateSheet, hashSheetDocument, parseSheetDocument } from '@/lib/engine';
 import { DEMO_SHEETS } from '@/lib/demo/sheets';
 import { db } from './index';
@@ -54,6 +58,7 @@ export async function seedDemo(): Promise<{ users: number; sheets: number }> {
       });
     }
     const users = demoAuthors(byRole);
+    const lookup = await seedDemoDatasets({ teamId: team.id, uploader: users.editor }, transaction);
     for (const [index, demo] of DEMO_SHEETS.entries()) {
       await Sheet.findOrCreate({
         where: { id: demoSheetId(index) },
@@ -71,10 +76,48 @@ export async function seedDemo(): Promise<{ users: number; sheets: number }> {
         },
         transaction,
       });
-      await seedDemoRevision({ index, document: demo.document, users }, transaction);
+      await seedDemoRevision({ index, document: demo.document, users, lookup }, transaction);
     }
     return { users: DEMO_ACCOUNTS.length, sheets: DEMO_SHEETS.length };
   });
+}
+
+/**
+ * The demo datasets (an invented scarp survey and river long profile), uploaded by the editor; idempotent.
+ * Demo sheets refer to them, and their revisions are evaluated with them.
+ */
+async function seedDemoDatasets(
+  { teamId, uploader }: { teamId: string; uploader: User },
+  transaction: Transaction,
+): Promise<Map<string, DatasetCanonical>> {
+  const lookup = new Map<string, DatasetCanonical>();
+  for (const entry of DEMO_DATASETS) {
+    const dataset = demoDataset(entry.key);
+    const original = Buffer.from(entry.csv, 'utf8');
+    await Dataset.findOrCreate({
+      where: { teamId, sha256: dataset.sha256 },
+      defaults: {
+        teamId,
+        sha256: dataset.sha256,
+        kind: entry.kind,
+        name: entry.name,
+        description: entry.description,
+        columns: dataset.canonical.columns,
+        canonical: dataset.canonicalJson,
+        canonicalBytes: Buffer.byteLength(dataset.canonicalJson, 'utf8'),
+        rowCount: dataset.rowCount,
+        original,
+        originalSha256: createHash('sha256').update(original).digest('hex'),
+        originalFilename: entry.filename,
+        byteSize: original.byteLength,
+        createdBy: uploader.id,
+        createdAt: new Date(Date.UTC(2026, 10, 2, 16, 0)),
+      },
+      transaction,
+    });
+    lookup.set(dataset.sha256, dataset.canonical);
+  }
+  return lookup;
 }
 
 /** The demo sheet that shows a review in progress (revision 1 awaiting its check). */
@@ -85,7 +128,7 @@ export const DEMO_IN_REVIEW_INDEX = 1;
  * revision 1 is left alone). One sheet's revision is sent to the reviewer, so a review shows in progress.
  */
 async function seedDemoRevision(
-  { index, document: raw, users }: { index: number; document: unknown; users: DemoAuthors },
+  { index, document: raw, users, lookup }: { index: number; document: unknown; users: DemoAuthors; lookup: Map<string, DatasetCanonical> },
   transaction: Transaction,
 ): Promise<void> {
   const sheetId = demoSheetId(index);
@@ -93,7 +136,9 @@ async function seedDemoRevision(
   if (existing) return;
   const parsed = parseSheetDocument(raw);
   if (!parsed.ok) throw new Error(`demo sheet ${index} is not a valid document: ${parsed.path} ${parsed.message}`);
-  const results = evaluateSheet(parsed.document);
+  const missing = datasetReferences(parsed.document).filter((sha) => !lookup.has(sha));
+  if (missing.length) throw new Error(`demo sheet ${index} refers to datasets the demo does not hold: ${missing.join(', ')}`);
+  const results = evaluateSheet(parsed.document, { datasets: lookup });
   const inReview = index === DEMO_IN_REVIEW_INDEX;
   const madeAt = new Date(Date.UTC(2026, 10, 3 + index, 9, 30));
   await SheetRevision.create(

@@ -159,3 +159,5 @@ export function blockCatalog(): BlockTypeInfo[] {
   catalog ??= BLOCK_TYPES.map(describe);
   return JSON.parse(JSON.stringify(catalog)) as BlockTypeInfo[];
 }
+export { checkUnitDimension } from './dataset-units';
+export type { DatasetColumnDimension, UnitDimensionCheck } from './dataset-units';

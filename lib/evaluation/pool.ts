@@ -17,6 +17,7 @@ import { Piscina } from 'piscina';
 import { EngineError } from '../engine/errors';
 import type { QuickResult, SheetDocument, SheetResults } from '../engine';
 import { FairScheduler, type EvaluationOwner } from './scheduler';
+import type { DatasetLookup } from '../engine/dataset';
 import type { EvaluationReply, EvaluationTask, WorkerMessage } from './worker';
 
 export type { EvaluationOwner } from './scheduler';
@@ -142,8 +143,8 @@ function runTask<T>(task: EvaluationTask, owner: EvaluationOwner): Promise<T> {
 }
 
 /** Full evaluation of a sheet in a worker (throws EngineError on timeout or an invalid document). */
-export function runEvaluate(document: SheetDocument, owner: EvaluationOwner = SYSTEM_OWNER): Promise<SheetResults> {
-  return runTask<SheetResults>({ kind: 'evaluate', document }, owner);
+export function runEvaluate(document: SheetDocument, owner: EvaluationOwner = SYSTEM_OWNER, datasets?: DatasetLookup): Promise<SheetResults> {
+  return runTask<SheetResults>({ kind: 'evaluate', document, ...(datasets?.size ? { datasets } : {}) }, owner);
 }
 
 /** Incremental evaluation in a worker. */
@@ -152,8 +153,9 @@ export function runEvaluateIncremental(
   previous: SheetResults | null,
   changedBlockIds: string[],
   owner: EvaluationOwner = SYSTEM_OWNER,
+  datasets?: DatasetLookup,
 ): Promise<{ results: SheetResults; evaluatedBlockIds: string[] }> {
-  return runTask({ kind: 'incremental', document, previous, changedBlockIds }, owner);
+  return runTask({ kind: 'incremental', document, previous, changedBlockIds, ...(datasets?.size ? { datasets } : {}) }, owner);
 }
 
 /** A quick calculation in a worker (throws EngineError with a user-safe message). */

@@ -8,10 +8,12 @@
 import type { MessagePort } from 'node:worker_threads';
 import { EngineError, evaluateQuick, evaluateSheet, evaluateSheetIncremental } from '../engine';
 import type { SheetDocument, SheetResults } from '../engine';
+import type { DatasetLookup } from '../engine/dataset';
 
+// `datasets` crosses to the worker thread by structured clone (a Map of plain canonical objects).
 export type EvaluationTask =
-  | { kind: 'evaluate'; document: SheetDocument }
-  | { kind: 'incremental'; document: SheetDocument; previous: SheetResults | null; changedBlockIds: string[] }
+  | { kind: 'evaluate'; document: SheetDocument; datasets?: DatasetLookup }
+  | { kind: 'incremental'; document: SheetDocument; previous: SheetResults | null; changedBlockIds: string[]; datasets?: DatasetLookup }
   | { kind: 'quick'; expr: string };
 
 export type EvaluationReply = { ok: true; value: unknown } | { ok: false; message: string; position?: number };
@@ -35,9 +37,9 @@ export default function runEvaluationTask(task: EvaluationTask & { port?: Messag
   try {
     switch (task.kind) {
       case 'evaluate':
-        return { ok: true, value: evaluateSheet(task.document, { onProgress }) };
+        return { ok: true, value: evaluateSheet(task.document, { onProgress, datasets: task.datasets }) };
       case 'incremental':
-        return { ok: true, value: evaluateSheetIncremental(task.document, task.previous, task.changedBlockIds, { onProgress }) };
+        return { ok: true, value: evaluateSheetIncremental(task.document, task.previous, task.changedBlockIds, { onProgress, datasets: task.datasets }) };
       case 'quick':
         return { ok: true, value: evaluateQuick(task.expr) };
       default:

@@ -27,15 +27,18 @@ export function parseWith<T>(schema: ZodType<T>, input: unknown): T {
   return parsed.data;
 }
 
-const tooLarge = () => new AppError('too_large', `The request body is larger than ${MAX_BODY_BYTES / 1_000_000} MB.`);
+/** The largest JSON body of the routes that carry datasets (bundles, evaluations with datasets). */
+export const MAX_DATASET_BODY_BYTES = 8_000_000;
+
+const tooLarge = (limit = MAX_BODY_BYTES) => new AppError('too_large', `The request body is larger than ${limit / 1_000_000} MB.`);
 
 /**
  * The body as text, at most MAX_BODY_BYTES: 413 as soon as the declared length or the bytes read so far
  * pass the limit, so an oversized body is never buffered whole.
  */
-export async function readBodyText(request: Request): Promise<string> {
+export async function readBodyText(request: Request, maxBytes = MAX_BODY_BYTES): Promise<string> {
   const declared = Number(request.headers.get('content-length') ?? '');
-  if (Number.isFinite(declared) && declared > MAX_BODY_BYTES) throw tooLarge();
+  if (Number.isFinite(declared) && declared > maxBytes) throw tooLarge(maxBytes);
   if (!request.body) return '';
   const reader = request.body.getReader();
   const chunks: Uint8Array[] = [];
@@ -44,9 +47,9 @@ export async function readBodyText(request: Request): Promise<string> {
     const { done, value } = await reader.read();
     if (done) break;
     size += value.byteLength;
-    if (size > MAX_BODY_BYTES) {
+    if (size > maxBytes) {
       await reader.cancel().catch(() => undefined);
-      throw tooLarge();
+      throw tooLarge(maxBytes);
     }
     chunks.push(value);
   }
@@ -54,8 +57,8 @@ export async function readBodyText(request: Request): Promise<string> {
 }
 
 /** Reads a JSON body (at most MAX_BODY_BYTES) and parses it with the schema: 400 or 413 otherwise. */
-export async function readJson<T>(request: Request, schema: ZodType<T>): Promise<T> {
-  const text = await readBodyText(request);
+export async function readJson<T>(request: Request, schema: ZodType<T>, maxBytes = MAX_BODY_BYTES): Promise<T> {
+  const text = await readBodyText(request, maxBytes);
   let body: unknown;
   try {
     body = text.length ? JSON.parse(text) : undefined;

@@ -13,6 +13,8 @@ import {
   type RunRecord,
 } from '@/lib/db/runs';
 import { createEvaluationPool } from '@/lib/evaluation/pool';
+import { resolveDocumentDatasets } from '@/lib/db/datasets';
+import { Sheet } from '@/models';
 import { getJobQueue } from './boss';
 
 /**
@@ -46,6 +48,10 @@ export async function executeRun(runId: string): Promise<void> {
   if (!(await markRunStarted({ runId }))) return; // cancelled before it started, or taken elsewhere
   const document = await getRunDocument({ runId });
   if (!document) return;
+  // Data inputs resolve from the sheet's team, as for a request (CONTRACT §7.6).
+  const { sheetId } = await getRun({ runId });
+  const sheet = await Sheet.findByPk(sheetId, { attributes: ['id', 'teamId'] });
+  const datasets = sheet ? (await resolveDocumentDatasets({ teamId: sheet.teamId, document })).lookup : new Map();
   const controller = new AbortController();
   let latest = 0;
   let writing: Promise<void> = Promise.resolve();
@@ -58,7 +64,7 @@ export async function executeRun(runId: string): Promise<void> {
   const timer = setInterval(write, PROGRESS_WRITE_MS);
   try {
     const results = await runPool().run<SheetResults>(
-      { kind: 'evaluate', document },
+      { kind: 'evaluate', document, ...(datasets.size ? { datasets } : {}) },
       {
         onProgress: (fraction) => {
           latest = fraction;

@@ -1,6 +1,7 @@
 import 'server-only';
 import { AppError, badRequest } from '@/lib/errors';
 import { parseSheetDocument, type SheetDocument, type SheetResults } from '@/lib/engine';
+import type { DatasetLookup } from '@/lib/engine/dataset';
 import { runEvaluate, runEvaluateIncremental } from '@/lib/evaluation/pool';
 import { changedBlockIds } from './document-edits';
 import { ResultsCache } from './results-cache.server';
@@ -32,35 +33,43 @@ export function asEvaluationError(error: unknown): Error {
 const globalCache = globalThis as unknown as { __denudataResults?: ResultsCache<SheetDocument, SheetResults> };
 const cache = (globalCache.__denudataResults ??= new ResultsCache<SheetDocument, SheetResults>(200));
 
+/** Which of the document's datasets were available: results depend on it besides the draft version. */
+const datasetKeyOf = (datasets: DatasetLookup | undefined) => (datasets ? [...datasets.keys()].sort().join(',') : '');
+
 /**
  * Results of a sheet's stored draft, recomputing only what changed since the last evaluation of
- * that sheet in this process (by block id), or nothing when the draft version is the same.
+ * that sheet in this process (by block id), or nothing when the draft version and the datasets it
+ * could resolve are the same. `datasets` holds the team's datasets the document refers to.
  */
 export async function evaluateDraft({
   sheetId,
   draftVersion,
   document,
   userId,
+  datasets,
 }: {
   sheetId: string;
   draftVersion: number;
   document: SheetDocument;
   /** Who asks (the pool's per-user limits; a newer evaluation of the sheet replaces a queued one). */
   userId: string;
+  /** The team's datasets the document refers to. */
+  datasets?: DatasetLookup;
 }): Promise<{ draftVersion: number; results: SheetResults; evaluatedBlockIds: string[] }> {
   const previous = cache.get(sheetId);
+  const datasetKey = datasetKeyOf(datasets);
   try {
-    if (previous && previous.draftVersion === draftVersion) {
+    if (previous && previous.draftVersion === draftVersion && (previous.datasetKey ?? '') === datasetKey) {
       return { draftVersion, results: previous.results, evaluatedBlockIds: [] };
     }
     if (previous) {
       const changed = changedBlockIds(previous.document as ClientDocument, document as ClientDocument);
-      const { results, evaluatedBlockIds } = await runEvaluateIncremental(document, previous.results, changed, { userId, key: sheetId });
-      cache.set(sheetId, { draftVersion, document, results });
+      const { results, evaluatedBlockIds } = await runEvaluateIncremental(document, previous.results, changed, { userId, key: sheetId }, datasets);
+      cache.set(sheetId, { draftVersion, document, results, datasetKey });
       return { draftVersion, results, evaluatedBlockIds };
     }
-    const results = await runEvaluate(document, { userId, key: sheetId });
-    cache.set(sheetId, { draftVersion, document, results });
+    const results = await runEvaluate(document, { userId, key: sheetId }, datasets);
+    cache.set(sheetId, { draftVersion, document, results, datasetKey });
     return { draftVersion, results, evaluatedBlockIds: document.blocks.filter((b) => b.type !== 'note').map((b) => b.id) };
   } catch (error) {
     throw asEvaluationError(error);

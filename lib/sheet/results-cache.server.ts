@@ -11,6 +11,8 @@ export interface CachedEvaluation<Doc, Results> {
   draftVersion: number;
   document: Doc;
   results: Results;
+  /** The datasets the evaluation could resolve (sorted hashes), when it used any. */
+  datasetKey?: string;
 }
 
 /** Default byte bound of the process's results cache. */

@@ -44,6 +44,31 @@ export class ApiClient {
     return { status: response.status, body: parsed as T, headers: response.headers };
   }
 
+  /** A multipart/form-data request (uploads); fetch sets the boundary. */
+  async multipart<T = any>(path: string, form: FormData, method = 'POST'): Promise<ApiResponse<T>> {
+    const response = await fetch(`${appUrl()}${path}`, {
+      method,
+      redirect: 'manual',
+      headers: this.cookies.size ? { cookie: this.cookieHeader() } : {},
+      body: form,
+    });
+    this.keepCookies(response);
+    const text = await response.text();
+    let parsed: unknown = text;
+    try {
+      parsed = text ? JSON.parse(text) : null;
+    } catch {
+      // not JSON: keep the text
+    }
+    return { status: response.status, body: parsed as T, headers: response.headers };
+  }
+
+  /** The raw bytes of a GET (downloads). */
+  async bytes(path: string): Promise<{ status: number; bytes: Buffer; headers: Headers }> {
+    const response = await fetch(`${appUrl()}${path}`, { headers: this.cookies.size ? { cookie: this.cookieHeader() } : {} });
+    return { status: response.status, bytes: Buffer.from(await response.arrayBuffer()), headers: response.headers };
+  }
+
   get<T = any>(path: string) {
     return this.request<T>('GET', path);
   }

@@ -1,17 +1,47 @@
 import { requireUser } from '@/lib/auth/guard';
-import { json, readJson, route } from '@/lib/http';
+import { MAX_DATASET_BODY_BYTES, json, parseWith, readJson, route } from '@/lib/http';
+import { badRequest } from '@/lib/errors';
 import { runEvaluate } from '@/lib/evaluation/pool';
 import { asEvaluationError, requireValidDocument } from '@/lib/sheet/evaluation.server';
+import { checkCanonicalDataset } from '@/lib/datasets/canonical';
+import { datasetReferences } from '@/lib/datasets/references';
+import { BUNDLE_FORMAT, bundleSchema } from '@/lib/datasets/schema';
+import { checkBundleDatasets, loadDatasetLookup } from '@/lib/db/datasets';
+import { getCurrentTeam } from '@/lib/db/teams';
+import type { DatasetCanonical } from '@/lib/engine/dataset';
 import { evaluateBodySchema } from './schema';
 
-/** Full evaluation of a posted document; nothing is stored. Any signed-in user. */
+/**
+ * Full evaluation of a posted document; nothing is stored. Any signed-in user. A data input resolves
+ * from the datasets in the body first, then from the user's current team (CONTRACT §7.6).
+ */
 export const POST = route(async (request) => {
   const user = await requireUser();
-  const body = await readJson(request, evaluateBodySchema);
-  const isEnvelope = 'document' in body && !('format' in body);
-  const document = isEnvelope ? requireValidDocument(body.document, 'document') : requireValidDocument(body, 'document');
+  const body = await readJson(request, evaluateBodySchema, MAX_DATASET_BODY_BYTES);
+  const lookup = new Map<string, DatasetCanonical>();
+  let raw: unknown;
+  if ('document' in body && !('format' in body)) {
+    raw = body.document;
+    (body.datasets ?? []).forEach((entry, index) => {
+      const checked = checkCanonicalDataset(entry);
+      if (!checked.ok) throw badRequest(`datasets[${index}]: ${checked.message}`, `datasets[${index}]`);
+      lookup.set(checked.sha256, checked.dataset);
+    });
+  } else if (body.format === BUNDLE_FORMAT) {
+    const bundle = parseWith(bundleSchema, body);
+    raw = bundle.document;
+    for (const item of checkBundleDatasets(bundle.datasets)) lookup.set(item.sha256, item.dataset);
+  } else {
+    raw = body;
+  }
+  const document = requireValidDocument(raw, 'document');
+  const missing = datasetReferences(document).filter((h) => !lookup.has(h));
+  if (missing.length) {
+    const team = await getCurrentTeam({ userId: user.id });
+    if (team) for (const [sha, dataset] of await loadDatasetLookup({ teamId: team.id, sha256s: missing })) lookup.set(sha, dataset);
+  }
   try {
-    return json(await runEvaluate(document, { userId: user.id }));
+    return json(await runEvaluate(document, { userId: user.id }, lookup));
   } catch (error) {
     throw asEvaluationError(error);
   }

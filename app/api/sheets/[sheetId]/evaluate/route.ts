@@ -1,4 +1,5 @@
 import { requireSheetRole, requireUser } from '@/lib/auth/guard';
+import { resolveDocumentDatasets } from '@/lib/db/datasets';
 import { getSheetDraft } from '@/lib/db/sheets';
 import { json, parseWith, readBodyText, route } from '@/lib/http';
 import { badRequest } from '@/lib/errors';
@@ -13,7 +14,7 @@ type Context = { params: Promise<{ sheetId: string }> };
 export const POST = route(async (request, { params }: Context) => {
   const user = await requireUser();
   const { sheetId } = await params;
-  await requireSheetRole({ userId: user.id, sheetId, action: 'read' });
+  const { sheet } = await requireSheetRole({ userId: user.id, sheetId, action: 'read' });
   const text = await readBodyText(request);
   if (text.trim()) {
     let body: unknown;
@@ -31,5 +32,7 @@ export const POST = route(async (request, { params }: Context) => {
     const run = await startSheetRun({ sheetId, userId: user.id, draftVersion: draft.version });
     return json({ draftVersion: draft.version, run: { id: run.id, status: run.status, progress: run.progress } }, 202);
   }
-  return json(await evaluateDraft({ sheetId, draftVersion: draft.version, document, userId: user.id }));
+  // Data inputs resolve from the sheet's team; an unknown hash is a block error in a draft.
+  const { lookup } = await resolveDocumentDatasets({ teamId: sheet.teamId, document });
+  return json(await evaluateDraft({ sheetId, draftVersion: draft.version, document, userId: user.id, datasets: lookup }));
 });

@@ -1,5 +1,6 @@
 import { z } from 'zod';
 import { requireSheetRole, requireUser } from '@/lib/auth/guard';
+import { bundleDatasets } from '@/lib/db/datasets';
 import { getRevision } from '@/lib/db/revisions';
 import { notFound } from '@/lib/errors';
 import { readQuery, route } from '@/lib/http';
@@ -7,7 +8,11 @@ import { revisionNumberSchema } from '../revisions/schema';
 
 type Context = { params: Promise<{ sheetId: string }> };
 
-const exportQuerySchema = z.strictObject({ revision: revisionNumberSchema.optional() });
+const exportQuerySchema = z.strictObject({
+  revision: revisionNumberSchema.optional(),
+  // `bundle=1`: the document with every dataset it refers to (CONTRACT §6 additions).
+  bundle: z.enum(['0', '1'], { error: 'bundle must be 1 (or 0)' }).optional(),
+});
 
 /** A file name from the title: lower-case words joined by hyphens, ASCII only. */
 const slug = (title: string) =>
@@ -21,8 +26,12 @@ export const GET = route(async (request, { params }: Context) => {
   const number = query.revision ?? sheet.headRevision;
   if (number === 0) throw notFound('A saved revision of this sheet (save one first)');
   const revision = await getRevision({ sheetId, number });
-  const filename = `${slug(revision.document.title)}-r${number}.denudata.json`;
-  return new Response(`${JSON.stringify(revision.document, null, 2)}\n`, {
+  const bundle = query.bundle === '1';
+  const filename = `${slug(revision.document.title)}-r${number}${bundle ? '.bundle' : ''}.denudata.json`;
+  const body = bundle
+    ? { format: 'denudata-bundle@1', document: revision.document, datasets: await bundleDatasets({ teamId: sheet.teamId, document: revision.document }) }
+    : revision.document;
+  return new Response(`${JSON.stringify(body, null, 2)}\n`, {
     status: 200,
     headers: {
       'content-type': 'application/json; charset=utf-8',
