@@ -187,4 +187,30 @@ describe('dataset routes (CONTRACT §6 additions, §7)', () => {
     expect(bad.status).toBe(400);
     expect(bad.body.error.field).toBe('datasets[0]');
   });
+
+  // Reference case P46 (Beaumont, Fullsack & Hamilton 1992; Kooi & Beaumont 1994: P10 as a dataset): the
+  // explicit march over five reaches gives an outgoing flux of 1.4111328125 m^2/yr.
+  it('should resolve a data input from the body, from the current team and from the sheet\'s team (P46: outgoing flux 1.4111328125 m^2/yr)', async () => {
+    const p46 = cases.cases.find((c) => c.id === 'P46')!;
+    const sha = Object.keys(p46.datasets as Record<string, unknown>)[0]!;
+    const sheet = p46.sheet as { blocks: unknown[] };
+    const { client } = await newAccount('datasets-p46');
+    // Not held yet: a block error in a posted document, not a failed request.
+    const before = await client.post('/api/evaluate', { document: sheet });
+    expect(before.status).toBe(200);
+    expect(before.body.blocks.march.status).toBe('error');
+    const uploaded = await client.multipart('/api/datasets', form(fixture('p46-p10-long-profile.csv'), { kind: 'long_profile' }));
+    expect(uploaded.body.dataset.sha256).toBe(sha);
+    const fromTeam = await client.post('/api/evaluate', { document: sheet });
+    expect(fromTeam.body.blocks.march.status).toBe('ok');
+    expect(Math.abs(fromTeam.body.blocks.march.outputs.outgoing_flux.value - 1.4111328125)).toBeLessThanOrEqual(1e-9 * 1.4111328125);
+    const sheetId = await sheetWithDraft(client, sheet);
+    const draft = await client.post(`/api/sheets/${sheetId}/evaluate`);
+    expect(draft.status).toBe(200);
+    expect(draft.body.results.blocks.march.outputs.outgoing_flux.value).toBeCloseTo(1.4111328125, 9);
+    const revision = await client.post(`/api/sheets/${sheetId}/revisions`, { baseRevision: 0, document: sheet, message: 'P46' });
+    expect(revision.status).toBe(201);
+    const stored = await client.get(`/api/sheets/${sheetId}/revisions/1`);
+    expect(stored.body.results.blocks.march.outputs.outgoing_flux.value).toBeCloseTo(1.4111328125, 9);
+  });
 });

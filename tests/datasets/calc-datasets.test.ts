@@ -4,6 +4,7 @@ import { tmpdir } from 'node:os';
 import path from 'node:path';
 import { describe, expect, it } from 'vitest';
 import { parseDatasetFile } from '@/lib/datasets/parse';
+import cases from '../fixtures/datasets/cases.json';
 
 // The runner's dataset inputs (CONTRACT §6 additions: a bundle, or --datasets DIR of <sha256>.json canonical
 // files; a file whose hash does not match is an invalid input, exit 2). Data: the public case P40 file
@@ -57,4 +58,19 @@ describe('calc runner with datasets', () => {
     expect(bad.stderr).toMatch(/invalid dataset/);
     expect(calc('sheet.json', '--datasets').code).toBe(2);
   }, 360_000);
+
+  // Reference case P46 (Beaumont, Fullsack & Hamilton 1992; Kooi & Beaumont 1994; P10 as a dataset).
+  it('should evaluate P46 from a --datasets folder to an outgoing flux of 1.4111328125 m^2/yr (exit 0)', () => {
+    const p46 = cases.cases.find((c) => c.id === 'P46')!;
+    const csv = readFileSync(path.join(__dirname, '../fixtures/datasets/p46-p10-long-profile.csv'));
+    const parsed = parseDatasetFile(csv, 'long_profile');
+    if (!parsed.ok) throw new Error(parsed.message);
+    mkdirSync(path.join(dir, 'p46'), { recursive: true });
+    writeFileSync(path.join(dir, 'p46', `${parsed.sha256}.json`), parsed.canonicalJson);
+    writeFileSync(path.join(dir, 'p46.json'), JSON.stringify(p46.sheet));
+    const run = calc('p46.json', '--datasets', 'p46');
+    expect(run.code).toBe(0);
+    const flux = JSON.parse(run.stdout).blocks.march.outputs.outgoing_flux.value as number;
+    expect(Math.abs(flux - 1.4111328125)).toBeLessThanOrEqual(1e-9 * 1.4111328125);
+  }, 240_000);
 });
