@@ -6,9 +6,11 @@ import { useQuery, useQueryClient } from '@tanstack/react-query';
 import { useCallback, useEffect, useMemo, useRef, useState, type ReactNode } from 'react';
 import { toggleTheme } from '@/lib/ui/theme';
 import { formatNumber } from '@/lib/sheet/format';
+import { Button } from '@/components/ui/button';
 import type { QuickAnswer, QuickRecord } from '@/lib/sheet/types';
 import { RegistryProvider, useCommandRegistry, useRegistrySnapshot, type PaletteCommand } from './command-registry';
 import { FIXED_SHORTCUTS, isTypingTarget } from './shortcuts';
+import { isRiskyCommand, needsConfirmation, riskyCommandScore } from './command-safety';
 
 const LOOKS_LIKE_EXPRESSION = /[0-9(]/;
 
@@ -157,7 +159,18 @@ function Palette({
     });
   }, [commands]);
 
+  // A destructive command waits here for an explicit confirmation.
+  const [pending, setPending] = useState<PaletteCommand | null>(null);
+  useEffect(() => {
+    if (!open) setPending(null);
+  }, [open]);
+
   const runCommand = (command: PaletteCommand) => {
+    if (needsConfirmation(command.id) && pending?.id !== command.id) {
+      setPending(command);
+      return;
+    }
+    setPending(null);
     setOpen(false);
     // Let the dialog close before the command moves focus.
     setTimeout(() => command.run(), 0);
@@ -187,8 +200,17 @@ function Palette({
   useEffect(() => {
     if (showQuick) setSelected('__quick');
   }, [showQuick, trimmed]);
-  const filter = (value: string, search: string, keywords?: string[]) =>
-    value === '__quick' ? 1 : defaultScore(value, search, keywords);
+  const riskyTitles = useMemo(() => {
+    const titles = new Map<string, string>();
+    for (const command of commands) if (isRiskyCommand(command.id)) titles.set(commandValue(command), command.title);
+    return titles;
+  }, [commands]);
+  const filter = (value: string, search: string, keywords?: string[]) => {
+    if (value === '__quick') return 1;
+    const score = defaultScore(value, search, keywords);
+    const riskyTitle = riskyTitles.get(value);
+    return riskyTitle === undefined ? score : riskyCommandScore(riskyTitle, search, score);
+  };
 
   return (
     <Command.Dialog
@@ -249,13 +271,27 @@ function Palette({
             {notice}
           </p>
         ) : null}
+        {pending ? (
+          <div role="alertdialog" aria-labelledby="palette-confirm-title" className="m-1 rounded-[4px] border border-oxide/60 p-3" data-testid="palette-confirm">
+            <p id="palette-confirm-title" className="text-[13px] font-medium">
+              {pending.title}?
+            </p>
+            <p className="mt-1 text-[12px] text-slate">Confirm to go ahead, or press Escape to keep things as they are.</p>
+            <div className="mt-2 flex gap-2">
+              <Button variant="danger" autoFocus onClick={() => runCommand(pending)}>
+                {pending.title}
+              </Button>
+              <Button onClick={() => setPending(null)}>Cancel</Button>
+            </div>
+          </div>
+        ) : null}
         <Command.Empty className="px-2 py-3 text-[13px] text-slate">No command matches. Type a number or a bracket to calculate.</Command.Empty>
         {groups.map(([group, list]) => (
           <Command.Group key={group} heading={group} className="palette-group">
             {list.map((command) => (
               <Command.Item
                 key={command.id}
-                value={`${command.group}: ${command.title} ${command.id}`}
+                value={commandValue(command)}
                 keywords={command.keywords}
                 onSelect={() => runCommand(command)}
                 className="palette-item"
@@ -282,6 +318,11 @@ function Palette({
       </Command.List>
     </Command.Dialog>
   );
+}
+
+/** The text cmdk matches and scores an entry by. */
+function commandValue(command: PaletteCommand): string {
+  return `${command.group}: ${command.title} ${command.id}`;
 }
 
 // cmdk's own scoring, kept for every entry but the quick result.

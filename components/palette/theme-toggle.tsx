@@ -32,10 +32,11 @@ export function PaletteButton() {
     <button
       type="button"
       onClick={() => open()}
-      className="hidden h-8 items-center gap-2 rounded-[3px] border border-rule bg-chalk px-2 text-[12px] text-slate hover:text-basalt sm:flex"
+      aria-label="Commands (Ctrl K)"
+      className="flex h-8 items-center gap-2 rounded-[3px] border border-rule bg-chalk px-2 text-[12px] text-slate hover:text-basalt"
     >
       Commands
-      <kbd className="palette-kbd">Ctrl K</kbd>
+      <kbd className="palette-kbd hidden sm:inline">Ctrl K</kbd>
     </button>
   );
 }
