@@ -13,10 +13,10 @@ export default async function WorkspaceLayout({ children }: { children: ReactNod
     <PaletteProvider>
     <div className="min-h-screen">
       <header className="sticky top-0 z-20 border-b border-rule bg-paper/95 backdrop-blur">
-        <div className="mx-auto flex h-12 max-w-[1400px] items-center gap-4 px-4">
-          <Link href="/sheets" className="flex items-center gap-2 font-semibold tracking-tight">
+        <div className="mx-auto flex h-12 max-w-[1400px] items-center gap-2 px-3 sm:gap-4 sm:px-4">
+          <Link href="/sheets" aria-label="Denudata: sheets" className="flex items-center gap-2 font-semibold tracking-tight">
             <BrandMark />
-            <span>Denudata</span>
+            <span className="hidden sm:inline">Denudata</span>
           </Link>
           <nav aria-label="Main" className="flex items-center gap-3 text-[13px]">
             <Link href="/sheets" className="text-slate hover:text-basalt">
@@ -29,7 +29,7 @@ export default async function WorkspaceLayout({ children }: { children: ReactNod
               Team
             </Link>
           </nav>
-          <div className="ml-auto flex items-center gap-3">
+          <div className="ml-auto flex items-center gap-2 sm:gap-3">
             <PaletteButton />
             <ThemeToggle />
             <TeamSwitcher teams={teams} />
@@ -37,7 +37,7 @@ export default async function WorkspaceLayout({ children }: { children: ReactNod
           </div>
         </div>
       </header>
-      <main id="main" className="mx-auto max-w-[1400px] px-4 py-5">
+      <main id="main" className="mx-auto max-w-[1400px] px-3 py-5 sm:px-4">
         {children}
       </main>
     </div>

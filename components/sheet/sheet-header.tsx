@@ -93,7 +93,7 @@ export function SheetHeader({
   return (
     <header className="flex flex-col gap-2 border-b border-rule pb-3">
       <div className="flex flex-wrap items-start justify-between gap-3">
-        <div className="min-w-0 flex-1">
+        <div className="min-w-0 flex-[1_1_18rem]">
           {editor ?? (
             <>
               <div className="flex flex-wrap items-baseline gap-2">

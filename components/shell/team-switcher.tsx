@@ -11,7 +11,7 @@ export function TeamSwitcher({ teams }: { teams: Team[] }) {
   const [pending, setPending] = useState(false);
   const current = teams.find((t) => t.current);
   if (teams.length < 2) {
-    return current ? <span className="text-[13px] text-slate">{current.name}</span> : null;
+    return current ? <span className="hidden text-[13px] text-slate md:inline">{current.name}</span> : null;
   }
   return (
     <label className="flex items-center gap-1.5 text-[13px]">
