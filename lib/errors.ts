@@ -1,6 +1,7 @@
 // One error type for everything the web layer may show a user, mapped to HTTP in one place.
 export type ErrorCode =
   | 'validation'
+  | 'hash_mismatch'
   | 'unauthenticated'
   | 'forbidden'
   | 'not_found'
@@ -19,6 +20,7 @@ export type ErrorCode =
 
 const STATUS: Record<ErrorCode, number> = {
   validation: 400,
+  hash_mismatch: 400,
   unauthenticated: 401,
   forbidden: 403,
   not_found: 404,

@@ -3,6 +3,7 @@ import { badRequest, conflict, forbidden, notFound } from '@/lib/errors';
 import { roleAllows } from '@/lib/auth/permissions';
 import { Membership, Sheet, SheetRevision, User, type ReviewStatus } from '@/models';
 import { recordAudit } from './audit';
+import { recordReviewEvent } from './review-events';
 import { db } from './index';
 import { toPublicUser, type PublicUser } from './users';
 
@@ -126,6 +127,10 @@ export async function applyReviewAction({
       if (row.checkedBy) recipients.push(row.checkedBy);
     }
 
+    await recordReviewEvent(
+      { sheetId, revision, action, actorId, reviewerId: action === 'request' ? reviewerId : null, message },
+      transaction,
+    );
     await recordAudit(
       {
         teamId: sheet.teamId,

@@ -249,12 +249,14 @@ export async function importSheet({
   userId,
   document,
   datasets = [],
+  message = 'Imported from a file',
 }: {
   teamId: string;
   userId: string;
   document: unknown;
   datasets?: { sha256: string; name: string; description?: string; kind: string; canonical: unknown }[];
-}): Promise<{ sheet: SheetRecord; revision: { number: number; hash: string } }> {
+  message?: string;
+}): Promise<{ sheet: SheetRecord; revision: { number: number; hash: string }; results: SheetResults }> {
   const valid = requireValidDocument(document);
   // The bundle's datasets are checked and re-hashed before anything runs (400 naming datasets[i]).
   const items = checkBundleDatasets(datasets);
@@ -272,9 +274,9 @@ export async function importSheet({
       transaction,
     );
     const revision = await insertRevision(
-      { sheet, userId, baseRevision: 0, evaluated, message: 'Imported from a file' },
+      { sheet, userId, baseRevision: 0, evaluated, message },
       transaction,
     );
-    return { sheet: toSheetRecord(sheet), revision };
+    return { sheet: toSheetRecord(sheet), revision, results: evaluated.results };
   });
 }

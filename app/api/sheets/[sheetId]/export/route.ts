@@ -2,6 +2,8 @@ import { z } from 'zod';
 import { requireSheetRole, requireUser } from '@/lib/auth/guard';
 import { bundleDatasets } from '@/lib/db/datasets';
 import { getRevision } from '@/lib/db/revisions';
+import { listReviewEvents } from '@/lib/db/review-events';
+import { buildRecord } from '@/lib/report/record';
 import { notFound } from '@/lib/errors';
 import { readQuery, route } from '@/lib/http';
 import { revisionNumberSchema } from '../revisions/schema';
@@ -12,6 +14,7 @@ const exportQuerySchema = z.strictObject({
   revision: revisionNumberSchema.optional(),
   // `bundle=1`: the document with every dataset it refers to (CONTRACT §6 additions).
   bundle: z.enum(['0', '1'], { error: 'bundle must be 1 (or 0)' }).optional(),
+  format: z.enum(['document', 'record'], { message: 'must be document or record' }).optional(),
 });
 
 /** A file name from the title: lower-case words joined by hyphens, ASCII only. */
@@ -27,10 +30,29 @@ export const GET = route(async (request, { params }: Context) => {
   if (number === 0) throw notFound('A saved revision of this sheet (save one first)');
   const revision = await getRevision({ sheetId, number });
   const bundle = query.bundle === '1';
-  const filename = `${slug(revision.document.title)}-r${number}${bundle ? '.bundle' : ''}.denudata.json`;
-  const body = bundle
-    ? { format: 'denudata-bundle@1', document: revision.document, datasets: await bundleDatasets({ teamId: sheet.teamId, document: revision.document }) }
-    : revision.document;
+  const record = query.format === 'record';
+  const datasets = bundle || record ? await bundleDatasets({ teamId: sheet.teamId, document: revision.document }) : [];
+  const filename = `${slug(revision.document.title)}-r${number}${record ? '.record' : bundle ? '.bundle' : ''}.denudata.json`;
+  const body = record
+    ? {
+        ...buildRecord({
+          document: revision.document,
+          results: revision.results,
+          hash: revision.hash,
+          engineVersion: revision.engineVersion,
+          number,
+          message: revision.message,
+          author: revision.author,
+          createdAt: revision.createdAt,
+          review: (await listReviewEvents({ sheetId, revision: number })).map((e) => ({ action: e.action, by: e.by, at: e.at, message: e.message })),
+          exportedAt: new Date().toISOString(),
+        }),
+        // The canonical datasets the document refers to, as a bundle carries them (CONTRACT §6b).
+        ...(datasets.length ? { datasets } : {}),
+      }
+    : bundle
+      ? { format: 'denudata-bundle@1', document: revision.document, datasets }
+      : revision.document;
   return new Response(`${JSON.stringify(body, null, 2)}\n`, {
     status: 200,
     headers: {

@@ -49,6 +49,12 @@ export default async function RevisionPage({ params }: { params: Promise<{ sheet
               Changes since r{number - 1}
             </Link>
           ) : null}
+          <Link className="text-river hover:underline" href={`/sheets/${sheetId}/revisions/${number}/report`}>
+            Calculation report
+          </Link>
+          <a className="text-river hover:underline" href={`/api/sheets/${sheetId}/revisions/${number}/report.pdf`}>
+            PDF
+          </a>
           <a className="text-river hover:underline" href={`/api/sheets/${sheetId}/export?revision=${number}`}>
             Export this revision
           </a>

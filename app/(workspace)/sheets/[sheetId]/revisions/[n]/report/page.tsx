@@ -1,0 +1,46 @@
+import type { Metadata } from 'next';
+import Link from 'next/link';
+import { notFound } from 'next/navigation';
+import { PrintButton } from '@/components/report/print-button';
+import { PrintPageStyle } from '@/components/report/print-page-style';
+import { ReportView } from '@/components/report/report-view';
+import { loadReport } from '@/lib/report/load.server';
+import { requireSheetPage } from '@/lib/sheet/page-access';
+
+export const metadata: Metadata = { title: 'Calculation report' };
+
+// The calculation report of a revision, print-ready (every reader role); the PDF has the same content.
+export default async function ReportPage({ params }: { params: Promise<{ sheetId: string; n: string }> }) {
+  const { sheetId, n } = await params;
+  const { sheet } = await requireSheetPage(sheetId);
+  if (!/^[1-9][0-9]{0,8}$/.test(n)) notFound();
+  const number = Number(n);
+  const loaded = await loadReport({ sheetId, teamId: sheet.teamId, number }).catch(() => null);
+  if (!loaded) notFound();
+  const { model } = loaded;
+  const api = `/api/sheets/${sheetId}/revisions/${number}`;
+  return (
+    <div className="flex flex-col gap-4">
+      <PrintPageStyle title={model.title} revision={number} shortHash={model.revision.shortHash} banner={model.banner} />
+      <nav aria-label="Report tools" className="flex flex-wrap items-center gap-3 text-[13px] print:hidden">
+        <Link href={`/sheets/${sheetId}/revisions/${number}`} className="text-river hover:underline">
+          ← Revision r{number}
+        </Link>
+        <a href={`${api}/report.pdf`} className="text-river hover:underline" data-download="pdf">
+          Download PDF
+        </a>
+        <a href={`${api}/results.csv`} className="text-river hover:underline">
+          Results (CSV)
+        </a>
+        <a href={`/api/sheets/${sheetId}/export?revision=${number}&format=record`} className="text-river hover:underline">
+          Record (JSON)
+        </a>
+        <Link href="/verification" className="text-river hover:underline">
+          Method checks
+        </Link>
+        <PrintButton />
+      </nav>
+      <ReportView model={model} />
+    </div>
+  );
+}
