@@ -5,6 +5,8 @@ import { useCallback, useState } from 'react';
 import { Button } from '@/components/ui/button';
 import { StatusTag, type SheetStatus } from '@/components/ui/status';
 import { ErrorText } from '@/components/ui/error-text';
+import { Dialog } from '@/components/ui/dialog';
+import { ReviewNotes, type ReviewNote } from './review-notes';
 
 type Person = { id: string; name: string; email: string };
 type Role = 'owner' | 'editor' | 'reviewer' | 'viewer';
@@ -37,7 +39,7 @@ export function allowedReviewActions({ role, userId, review, isHead }: { role: R
   return actions;
 }
 
-const LABELS: Record<ReviewAction, string> = { request: 'Ask for a check', check: 'Mark checked', return: 'Return for changes', approve: 'Approve' };
+export const LABELS: Record<ReviewAction, string> = { request: 'Ask for a check', check: 'Mark checked', return: 'Return for changes', approve: 'Approve' };
 
 /**
  * Runs review actions on one revision: the server decides (independent checking is enforced there);
@@ -47,6 +49,13 @@ export function useReviewActions({ sheetId, revision, onChanged }: { sheetId: st
   const router = useRouter();
   const [pending, setPending] = useState<ReviewAction | null>(null);
   const [error, setError] = useState<string | null>(null);
+  // The confirm step with a note: every entry point (the bar's buttons, the palette) asks first.
+  const [confirming, setConfirming] = useState<{ action: ReviewAction; reviewerId?: string } | null>(null);
+  const ask = useCallback((action: ReviewAction, options: { reviewerId?: string } = {}) => {
+    setError(null);
+    setConfirming({ action, ...(options.reviewerId ? { reviewerId: options.reviewerId } : {}) });
+  }, []);
+  const cancel = useCallback(() => setConfirming(null), []);
   const act = useCallback(
     async (action: ReviewAction, options: { reviewerId?: string; message?: string } = {}): Promise<boolean> => {
       setPending(action);
@@ -79,7 +88,7 @@ export function useReviewActions({ sheetId, revision, onChanged }: { sheetId: st
     },
     [onChanged, revision, router, sheetId],
   );
-  return { act, pending, error, setError };
+  return { act, pending, error, setError, confirming, ask, cancel };
 }
 
 export type ReviewController = ReturnType<typeof useReviewActions>;
@@ -95,6 +104,8 @@ export function ReviewBar({
   checkers,
   onChanged,
   controller,
+  notes = [],
+  draftDiffers = false,
 }: {
   sheetId: string;
   revision: number;
@@ -107,17 +118,17 @@ export function ReviewBar({
   onChanged?: () => void;
   /** Shared with other entry points (the palette) so their errors show here; the bar makes its own otherwise. */
   controller?: ReviewController;
+  /** The review actions on this revision with their notes, oldest first. */
+  notes?: ReviewNote[];
+  /** Shown on the sheet page when the draft beside the bar is not this revision. */
+  draftDiffers?: boolean;
 }) {
   const own = useReviewActions({ sheetId, revision, onChanged });
-  const { act: run, pending, error } = controller ?? own;
-  const [note, setNote] = useState('');
+  const controls = controller ?? own;
+  const { pending, error, confirming, ask, cancel } = controls;
   const eligible = checkers.filter((p) => p.id !== review.preparedBy?.id);
   const [reviewerId, setReviewerId] = useState(eligible[0]?.id ?? '');
   const actions = allowedReviewActions({ role, userId, review, isHead });
-
-  async function act(action: ReviewAction) {
-    if (await run(action, { reviewerId, message: note })) setNote('');
-  }
 
   return (
     <section aria-label="Review sign-off" className="flex flex-col gap-2 rounded-[4px] border border-rule bg-chalk px-3 py-2 text-[13px]" data-review-status={review.status}>
@@ -154,6 +165,12 @@ export function ReviewBar({
           </span>
         ) : null}
       </div>
+      {draftDiffers ? (
+        <p className="text-[12px] text-clay" data-testid="sign-off-scope">
+          This sign-off is of r{revision} only: the draft shown below differs from r{revision}, and its outputs are not signed off.
+        </p>
+      ) : null}
+      <ReviewNotes notes={notes} />
       {!isHead ? <p className="text-[12px] text-slate">Only the newest revision can be reviewed.</p> : null}
       {actions.length ? (
         <div className="flex flex-wrap items-end gap-2">
@@ -169,12 +186,8 @@ export function ReviewBar({
               </select>
             </div>
           ) : null}
-          <label className="flex min-w-56 flex-1 flex-col gap-0.5">
-            <span className="text-[12px] text-slate">Note (optional)</span>
-            <input value={note} onChange={(e) => setNote(e.target.value)} maxLength={2000} className="h-8 rounded-[3px] border border-rule bg-chalk px-2" aria-label="Review note" />
-          </label>
           {actions.map((a) => (
-            <Button key={a} variant={a === 'return' ? 'danger' : 'primary'} disabled={pending !== null || (a === 'request' && !reviewerId)} onClick={() => act(a)}>
+            <Button key={a} variant={a === 'return' ? 'danger' : 'primary'} disabled={pending !== null || (a === 'request' && !reviewerId)} onClick={() => ask(a, { reviewerId })}>
               {pending === a ? '…' : LABELS[a]}
             </Button>
           ))}
@@ -183,6 +196,94 @@ export function ReviewBar({
       {error ? (
         <ErrorText size="inherit">{error}</ErrorText>
       ) : null}
+      {confirming ? (
+        <ReviewConfirm
+          key={`${confirming.action}-${confirming.reviewerId ?? ''}`}
+          revision={revision}
+          action={confirming.action}
+          checkers={eligible}
+          reviewerId={confirming.reviewerId ?? reviewerId}
+          onCancel={cancel}
+          onConfirm={(options) => {
+            cancel();
+            void controls.act(confirming.action, options);
+          }}
+        />
+      ) : null}
     </section>
+  );
+}
+
+const NOTE_LABELS: Record<ReviewAction, string> = {
+  request: 'Note to the checker (optional)',
+  check: 'Check note (optional)',
+  return: 'Reason for returning (shown to the author)',
+  approve: 'Approval note (optional)',
+};
+
+/** The confirm step of a review action, with a note: the same for the bar's buttons and the palette. */
+function ReviewConfirm({
+  revision,
+  action,
+  checkers,
+  reviewerId: initialReviewer,
+  onCancel,
+  onConfirm,
+}: {
+  revision: number;
+  action: ReviewAction;
+  checkers: Person[];
+  reviewerId: string;
+  onCancel: () => void;
+  onConfirm: (options: { reviewerId?: string; message?: string }) => void;
+}) {
+  const [note, setNote] = useState('');
+  const [reviewerId, setReviewerId] = useState(initialReviewer || checkers[0]?.id || '');
+  const needsReason = action === 'return';
+  return (
+    <Dialog open onClose={onCancel} title={`Confirm: ${LABELS[action]} (r${revision})`}>
+      <form
+        className="flex flex-col gap-3 text-[13px]"
+        onSubmit={(event) => {
+          event.preventDefault();
+          if (needsReason && !note.trim()) return;
+          onConfirm({ ...(action === 'request' ? { reviewerId } : {}), message: note });
+        }}
+      >
+        {action === 'request' ? (
+          <label className="flex flex-col gap-0.5">
+            <span className="text-[12px] text-slate">Checker for this revision</span>
+            <select value={reviewerId} onChange={(e) => setReviewerId(e.target.value)} className="h-8 rounded-[3px] border border-rule bg-chalk px-2">
+              {checkers.map((p) => (
+                <option key={p.id} value={p.id}>
+                  {p.name}
+                </option>
+              ))}
+            </select>
+          </label>
+        ) : null}
+        <label className="flex flex-col gap-0.5">
+          <span className="text-[12px] text-slate">{NOTE_LABELS[action]}</span>
+          <textarea
+            value={note}
+            onChange={(e) => setNote(e.target.value)}
+            maxLength={2000}
+            rows={3}
+            required={needsReason}
+            autoFocus
+            className="rounded-[3px] border border-rule bg-chalk px-2 py-1"
+          />
+        </label>
+        <p className="text-[12px] text-slate">The note is kept with the revision&apos;s review trail and shown in its report.</p>
+        <div className="flex justify-end gap-2">
+          <Button type="button" variant="quiet" onClick={onCancel}>
+            Cancel
+          </Button>
+          <Button type="submit" variant={action === 'return' ? 'danger' : 'primary'} disabled={(action === 'request' && !reviewerId) || (needsReason && !note.trim())}>
+            {LABELS[action]}
+          </Button>
+        </div>
+      </form>
+    </Dialog>
   );
 }

@@ -6,6 +6,9 @@ import { useCallback, useEffect, useMemo, useRef, useState, type ChangeEvent } f
 import { BlockCard, type BlockCardActions } from '@/components/blocks/block-card';
 import { CommentsPanel, useSheetComments } from '@/components/comments/comments-panel';
 import { ReviewBar, allowedReviewActions, useReviewActions, type ReviewState } from '@/components/review/review-bar';
+import type { ReviewNote } from '@/components/review/review-notes';
+import { DraftStandingNote } from '@/components/sheet/draft-standing';
+import type { DraftStanding } from '@/lib/sheet/draft-standing.server';
 import type { CompletionData } from '@/components/blocks/expression-language';
 import { useQuickInsert, useRegisterCommands, useCommandRegistry, type PaletteCommand } from '@/components/palette/command-registry';
 import { isTypingTarget } from '@/components/palette/shortcuts';
@@ -50,6 +53,10 @@ export interface SheetWorkspaceProps {
   head: { number: number; hash: string; status: SheetStatus } | null;
   /** Sign-off of the head revision (null while the sheet has no revision). */
   review: ReviewState | null;
+  /** Review actions on the head revision with their notes. */
+  reviewNotes?: ReviewNote[];
+  /** Whether the stored draft differs from the head and the last approved revision. */
+  draftStanding?: DraftStanding;
   forkedFrom: ForkOrigin | null;
   forks: ForkItem[];
   catalog: BlockCatalogData;
@@ -98,6 +105,8 @@ export function SheetWorkspace({
   draft: initial,
   head,
   review,
+  reviewNotes = [],
+  draftStanding,
   forkedFrom,
   forks,
   catalog,
@@ -129,7 +138,8 @@ export function SheetWorkspace({
   const headNumber = Math.max(head?.number ?? 0, savedHead);
   const comments = useSheetComments(sheetId, { poll: true });
   const reviewActions = useReviewActions({ sheetId, revision: head?.number ?? 0 });
-  const reviewAct = reviewActions.act;
+  // Palette review commands open the review bar's confirm step (with a note), never act at once.
+  const reviewAct = reviewActions.ask;
   const selectedRef = useRef(selectedId);
   selectedRef.current = selectedId;
 
@@ -448,6 +458,12 @@ export function SheetWorkspace({
         list.push({ id: 'review-approve', title: `Approve r${head.number}`, group: 'Review', keywords: ['approve', 'sign-off', 'review'], run: () => void reviewAct('approve') });
       }
     }
+    if (head) {
+      list.push(
+        { id: 'report-open', title: `Open the calculation report of r${head.number}`, group: 'Review', keywords: ['report', 'print', 'sign-off', 'pdf'], run: () => router.push(`/sheets/${sheetId}/revisions/${head.number}/report`) },
+        { id: 'report-pdf', title: `Download the PDF report of r${head.number}`, group: 'Review', keywords: ['report', 'pdf', 'print', 'export'], run: () => window.location.assign(`/api/sheets/${sheetId}/revisions/${head.number}/report.pdf`) },
+      );
+    }
     if (selectedBlock) {
       list.push({
         id: 'comments',
@@ -711,6 +727,7 @@ export function SheetWorkspace({
             You are a {role} in this team: fields are read-only. You can evaluate{canComment ? ', comment' : ''} and read everything.
           </p>
         ) : null}
+        {draftStanding ? <DraftStandingNote sheetId={sheetId} standing={draftStanding} /> : null}
         {head && review ? (
           <ReviewBar
             key={head.number}
@@ -722,6 +739,8 @@ export function SheetWorkspace({
             userId={user.id}
             checkers={checkers}
             controller={reviewActions}
+            notes={reviewNotes}
+            draftDiffers={draftStanding?.head?.differs ?? false}
           />
         ) : (
           <p className="text-[12px] text-slate">

@@ -48,7 +48,8 @@ function runExample(type: ReturnType<typeof blockCatalog>[number]): Verification
     expected: { ...example.expected },
   };
   try {
-    const result = evaluateSheet(document).blocks.example;
+    const datasets = new Map(Object.entries(example.datasets ?? {}));
+    const result = evaluateSheet(document, { datasets }).blocks.example;
     const output = result?.outputs[example.output];
     if (!result || result.status !== 'ok' || !output || typeof output.value !== 'number') {
       return { ...base, computed: null, relativeError: null, pass: false, error: result?.error ?? `no numeric output ${example.output}` };

@@ -13,7 +13,11 @@ describe('comments, forks and review on the sheet page', () => {
   it('should let a reviewer comment on a block; the editor sees the open count on the block, replies and resolves it', async () => {
     const id = await sheetWithRevision('Browser comment sheet');
     const reviewer = await pageAs('reviewer');
+    // A reviewer with nothing to check opens the newest revision by default; ?draft=1 opens the draft.
     await reviewer.goto(`${appUrl()}/sheets/${id}`);
+    await reviewer.waitForURL(`**/sheets/${id}/revisions/1`);
+    await reviewer.getByTestId('open-draft').click();
+    await reviewer.waitForURL(`**/sheets/${id}?draft=1`);
     await card(reviewer, 'hill').locator('h2').click();
     // A reviewer reads and comments but does not edit, save or fork.
     expect(await reviewer.getByRole('button', { name: 'Save revision…' }).count()).toBe(0);
@@ -107,7 +111,12 @@ describe('comments, forks and review on the sheet page', () => {
     expect(await editorBar.getByRole('button', { name: 'Mark checked' }).count()).toBe(0);
     await editorBar.getByLabel('Checker', { exact: true }).selectOption(reviewerId);
     await editorBar.getByRole('button', { name: 'Ask for a check' }).click();
+    // The confirm step takes a note for the checker.
+    const ask = editor.getByRole('dialog', { name: 'Confirm: Ask for a check (r1)' });
+    await ask.getByLabel('Note to the checker (optional)').fill('Please check the curvature survey');
+    await ask.getByRole('button', { name: 'Ask for a check' }).click();
     await editor.locator('[data-review-status="in_review"]').waitFor();
+    await editorBar.getByText('Please check the curvature survey').waitFor();
 
     // The owner opens the sheet while it awaits the check.
     const owner = await pageAs('owner');
@@ -122,16 +131,23 @@ describe('comments, forks and review on the sheet page', () => {
     await reviewerBar.getByRole('button', { name: 'Mark checked' }).waitFor();
     expect(await reviewerBar.getByRole('button', { name: 'Approve' }).count()).toBe(0);
     await runCommand(reviewer, 'checked', 'Mark r1 checked');
+    // The palette opens the same confirm step with a note as the bar.
+    const confirmCheck = reviewer.getByRole('dialog', { name: 'Confirm: Mark checked (r1)' });
+    await confirmCheck.getByLabel('Check note (optional)').fill('Survey traced to the field book');
+    await confirmCheck.getByRole('button', { name: 'Mark checked' }).click();
     await reviewer.locator('[data-review-status="checked"]').waitFor();
+    await reviewerBar.getByText('Survey traced to the field book').waitFor();
 
     // The owner's page is out of date: the server refuses a second check (409) and the bar says why.
     await ownerBar.getByRole('button', { name: 'Mark checked' }).click();
+    await owner.getByRole('dialog', { name: 'Confirm: Mark checked (r1)' }).getByRole('button', { name: 'Mark checked' }).click();
     const refusal = ownerBar.getByRole('alert');
     await refusal.waitFor();
     expect(await refusal.innerText()).toContain('This revision cannot be checked now: revision 1 is checked.');
 
     await owner.reload();
     await owner.getByRole('region', { name: 'Review sign-off' }).getByRole('button', { name: 'Approve' }).click();
+    await owner.getByRole('dialog', { name: 'Confirm: Approve (r1)' }).getByRole('button', { name: 'Approve' }).click();
     const bar = owner.locator('[data-review-status="approved"]');
     await bar.waitFor();
     const text = await bar.innerText();

@@ -259,7 +259,10 @@ describe('the sheet workspace for a viewer', () => {
     const context = await browser.newContext();
     const page = await context.newPage();
     await signInThroughForm(page, 'viewer@demo.test');
+    // A viewer opens the newest (or latest approved) revision by default; ?draft=1 opens the draft.
     await page.goto(`${appUrl()}/sheets/${DEMO_THERMAL}`);
+    await page.waitForURL(`**/sheets/${DEMO_THERMAL}/revisions/1`);
+    await page.goto(`${appUrl()}/sheets/${DEMO_THERMAL}?draft=1`);
     const geotherm = block(page, 'geotherm');
     await geotherm.waitFor();
     const field = geotherm.getByRole('textbox', { name: /thickness/i });

@@ -1,5 +1,5 @@
 import type { Metadata } from 'next';
-import { notFound } from 'next/navigation';
+import { notFound, redirect } from 'next/navigation';
 import { cache } from 'react';
 import { SheetWorkspace } from '@/components/sheet/sheet-workspace';
 import { requireSheetRole } from '@/lib/auth/guard';
@@ -7,12 +7,14 @@ import { requirePageUser } from '@/lib/auth/page';
 import { roleAllows } from '@/lib/auth/permissions';
 import { listMembersByTeam } from '@/lib/db/members';
 import { getReviewSummary } from '@/lib/db/revisions';
+import { listReviewEvents } from '@/lib/db/review-events';
+import { getDraftStanding, latestApprovedRevision } from '@/lib/sheet/draft-standing.server';
 import { getSheetDetail, listSheetsByTeam } from '@/lib/db/sheets';
 import { AppError } from '@/lib/errors';
 import { clientCatalog } from '@/lib/sheet/catalog.server';
 import type { SheetDocument } from '@/lib/sheet/types';
 
-type Params = { params: Promise<{ sheetId: string }> };
+type Params = { params: Promise<{ sheetId: string }>; searchParams?: Promise<Record<string, string | string[] | undefined>> };
 
 // One load per request, shared by generateMetadata and the page.
 const loadSheet = cache(async (sheetId: string) => {
@@ -33,13 +35,22 @@ export async function generateMetadata({ params }: Params): Promise<Metadata> {
   return { title: detail.sheet.title };
 }
 
-export default async function SheetPage({ params }: Params) {
+export default async function SheetPage({ params, searchParams }: Params) {
   const { sheetId } = await params;
+  const query = (await searchParams) ?? {};
   const { user, teams, sheet, role, detail } = await loadSheet(sheetId);
-  const [others, members, review] = await Promise.all([
+  // Viewers (and reviewers with nothing awaiting their check) open the latest approved revision, or the
+  // newest one, so a draft's numbers are never read as signed ones; ?draft=1 opens the working draft.
+  if (detail.head && query.draft !== '1' && (role === 'viewer' || (role === 'reviewer' && !['in_review', 'checked'].includes(detail.head.status)))) {
+    const approved = await latestApprovedRevision({ sheetId });
+    redirect(`/sheets/${sheetId}/revisions/${approved ?? detail.head.number}`);
+  }
+  const [others, members, review, notes, standing] = await Promise.all([
     listSheetsByTeam({ teamId: sheet.teamId }),
     listMembersByTeam({ teamId: sheet.teamId }),
     detail.head ? getReviewSummary({ sheetId, number: detail.head.number }) : Promise.resolve(null),
+    detail.head ? listReviewEvents({ sheetId, revision: detail.head.number }) : Promise.resolve([]),
+    getDraftStanding({ sheetId, draftDocument: detail.draft.document, head: detail.head }),
   ]);
   // Teams the user may fork into (editor or owner there), this sheet's team first.
   const forkTeams = teams
@@ -54,6 +65,8 @@ export default async function SheetPage({ params }: Params) {
       draft={{ version: detail.draft.version, document: detail.draft.document as SheetDocument }}
       head={detail.head}
       review={review}
+      reviewNotes={notes.map((n) => ({ ...n, by: n.by ? { id: n.by.id, name: n.by.name } : null, reviewer: n.reviewer ? { id: n.reviewer.id, name: n.reviewer.name } : null }))}
+      draftStanding={standing}
       forkedFrom={detail.forkedFrom ?? null}
       forks={detail.forks}
       catalog={clientCatalog()}

@@ -1,6 +1,9 @@
 import type { Metadata } from 'next';
 import Link from 'next/link';
 import { getRevision } from '@/lib/db/revisions';
+import { getSheetDraft } from '@/lib/db/sheets';
+import { runEvaluate } from '@/lib/evaluation/pool';
+import { parseSheetDocument } from '@/lib/engine';
 import { findSheetRecord } from '@/lib/db/sheets';
 import { compareSheets, type OutputValue } from '@/lib/sheet/compare';
 import { requireSheetPage } from '@/lib/sheet/page-access';
@@ -24,7 +27,9 @@ export default async function ComparePage({ params, searchParams }: { params: Pr
   const query = await searchParams;
   const { sheet, visibleTeamIds } = await requireSheetPage(sheetId);
   const from = side(query.from, sheetId);
-  const to = side(query.to, sheetId);
+  // `to=draft`: the sheet's stored draft, evaluated now (the draft is not a revision and has no hash).
+  const toDraft = query.to === 'draft';
+  const to = toDraft ? { sheetId, number: 0 } : side(query.to, sheetId);
   const problem = !from || !to ? 'Choose two revisions to compare.' : null;
   let body: React.ReactNode = null;
   if (from && to) {
@@ -33,7 +38,14 @@ export default async function ComparePage({ params, searchParams }: { params: Pr
       if (!record || !visibleTeamIds.includes(record.teamId)) return null;
       return getRevision(s).catch(() => null);
     };
-    const [before, after] = await Promise.all([readable(from), readable(to)]);
+    const draftSide = async () => {
+      const draft = await getSheetDraft({ sheetId });
+      const parsed = parseSheetDocument(draft.document);
+      if (!parsed.ok) return null;
+      const results = await runEvaluate(parsed.document).catch(() => null);
+      return results ? { number: 0, hash: 'draft', document: parsed.document, results } : null;
+    };
+    const [before, after] = await Promise.all([readable(from), toDraft ? draftSide() : readable(to)]);
     if (!before || !after) {
       body = <p className="text-[13px] text-oxide">One of those revisions does not exist or is not visible to you.</p>;
     } else {
@@ -41,7 +53,7 @@ export default async function ComparePage({ params, searchParams }: { params: Pr
       body = (
         <div className="flex flex-col gap-4">
           <p className="text-[13px] text-slate">
-            r{before.number} <span className="num">{before.hash.slice(0, 10)}</span> → r{after.number} <span className="num">{after.hash.slice(0, 10)}</span>
+            r{before.number} <span className="num">{before.hash.slice(0, 10)}</span> → {after.number === 0 ? 'the draft' : <>r{after.number} <span className="num">{after.hash.slice(0, 10)}</span></>}
             {c.siteBefore !== c.siteAfter ? ` · site ${c.siteBefore ?? '—'} → ${c.siteAfter ?? '—'}` : ''}
             {c.titleBefore !== c.titleAfter ? ` · title “${c.titleBefore}” → “${c.titleAfter}”` : ''}
           </p>

@@ -2,6 +2,8 @@ import type { Metadata } from 'next';
 import Link from 'next/link';
 import { StatusTag } from '@/components/ui/status';
 import { listRevisionsBySheet } from '@/lib/db/revisions';
+import { listReviewEvents } from '@/lib/db/review-events';
+import { ReviewNotes } from '@/components/review/review-notes';
 import { requireSheetPage } from '@/lib/sheet/page-access';
 
 export const metadata: Metadata = { title: 'Revisions' };
@@ -9,7 +11,8 @@ export const metadata: Metadata = { title: 'Revisions' };
 export default async function RevisionsPage({ params }: { params: Promise<{ sheetId: string }> }) {
   const { sheetId } = await params;
   const { sheet } = await requireSheetPage(sheetId);
-  const { items, total } = await listRevisionsBySheet({ sheetId });
+  const [{ items, total }, events] = await Promise.all([listRevisionsBySheet({ sheetId }), listReviewEvents({ sheetId })]);
+  const notesOf = (n: number) => events.filter((e) => e.revision === n).map((e) => ({ ...e, by: e.by ? { id: e.by.id, name: e.by.name } : null, reviewer: e.reviewer ? { id: e.reviewer.id, name: e.reviewer.name } : null }));
   // Newest first: the latest number, and the number saved just before the i-th row (none for the oldest).
   const latest = items[0]?.number ?? 1;
   const previous = (i: number): number | undefined => items[i + 1]?.number;
@@ -66,13 +69,17 @@ export default async function RevisionsPage({ params }: { params: Promise<{ shee
                     <td className="px-3 py-2">{r.message || <span className="text-slate">—</span>}</td>
                     <td className="px-3 py-2">{r.author?.name ?? '—'}</td>
                     <td className="num px-3 py-2 whitespace-nowrap"><time dateTime={r.createdAt}>{r.createdAt.slice(0, 16).replace('T', ' ')} UTC</time></td>
-                    <td className="px-3 py-2"><StatusTag status={r.review.status} /></td>
+                    <td className="px-3 py-2">
+                      <StatusTag status={r.review.status} />
+                      <div className="mt-1"><ReviewNotes notes={notesOf(r.number)} /></div>
+                    </td>
                     <td className="num px-3 py-2 text-slate" title={r.hash}>{r.hash.slice(0, 10)}</td>
                     <td className="px-3 py-2 whitespace-nowrap text-[12px]">
                       {previous(i) ? (
                         <Link href={`/sheets/${sheetId}/compare?from=${previous(i)}&to=${r.number}`} className="text-river hover:underline">changes</Link>
                       ) : null}{' '}
-                      <a href={`/api/sheets/${sheetId}/export?revision=${r.number}`} className="text-river hover:underline">export</a>
+                      <a href={`/api/sheets/${sheetId}/export?revision=${r.number}`} className="text-river hover:underline">export</a>{' '}
+                      <Link href={`/sheets/${sheetId}/revisions/${r.number}/report`} className="text-river hover:underline">report</Link>
                     </td>
                   </tr>
                 ))}

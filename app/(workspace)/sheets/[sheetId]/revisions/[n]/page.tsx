@@ -8,6 +8,8 @@ import { roleAllows } from '@/lib/auth/permissions';
 import { listCommentsBySheet } from '@/lib/db/comments';
 import { listMembersByTeam } from '@/lib/db/members';
 import { getRevision } from '@/lib/db/revisions';
+import { listReviewEvents } from '@/lib/db/review-events';
+import { latestApprovedRevision } from '@/lib/sheet/draft-standing.server';
 import { requireSheetPage } from '@/lib/sheet/page-access';
 
 export const metadata: Metadata = { title: 'Revision' };
@@ -19,7 +21,13 @@ export default async function RevisionPage({ params }: { params: Promise<{ sheet
   if (!Number.isInteger(number) || number < 1) notFound();
   const revision = await getRevision({ sheetId, number }).catch(() => null);
   if (!revision) notFound();
-  const [members, comments] = await Promise.all([listMembersByTeam({ teamId: sheet.teamId }), listCommentsBySheet({ sheetId })]);
+  const [members, comments, events, approved] = await Promise.all([
+    listMembersByTeam({ teamId: sheet.teamId }),
+    listCommentsBySheet({ sheetId }),
+    listReviewEvents({ sheetId, revision: number }),
+    latestApprovedRevision({ sheetId }),
+  ]);
+  const notes = events.map((e) => ({ ...e, by: e.by ? { id: e.by.id, name: e.by.name } : null, reviewer: e.reviewer ? { id: e.reviewer.id, name: e.reviewer.name } : null }));
   const checkers = members.items.filter((m) => roleAllows(m.role, 'check')).map((m) => m.user);
   const isHead = number === sheet.headRevision;
   const document = revision.document;
@@ -43,6 +51,15 @@ export default async function RevisionPage({ params }: { params: Promise<{ sheet
           </span>
         </p>
         {revision.message ? <p className="text-[14px]">“{revision.message}”</p> : null}
+        <p className="text-[13px]" data-testid="revision-standing">
+          {revision.review.status === 'approved'
+            ? approved === number
+              ? `r${number} is the latest approved revision of this sheet.`
+              : `r${number} was approved; r${approved} is the latest approved revision.`
+            : approved !== null
+              ? `r${number} is not approved; the latest approved revision is r${approved}.`
+              : `r${number} is not approved; no revision of this sheet is approved yet.`}
+        </p>
         <p className="flex flex-wrap gap-3 text-[13px]">
           {number > 1 ? (
             <Link className="text-river hover:underline" href={`/sheets/${sheetId}/compare?from=${number - 1}&to=${number}`}>
@@ -63,9 +80,17 @@ export default async function RevisionPage({ params }: { params: Promise<{ sheet
               Newest revision (r{sheet.headRevision})
             </Link>
           ) : null}
+          {approved !== null && approved !== number ? (
+            <Link className="text-river hover:underline" href={`/sheets/${sheetId}/revisions/${approved}`}>
+              Latest approved (r{approved})
+            </Link>
+          ) : null}
+          <Link className="text-river hover:underline" href={`/sheets/${sheetId}?draft=1`} data-testid="open-draft">
+            Open the working draft
+          </Link>
         </p>
       </header>
-      <ReviewBar sheetId={sheetId} revision={number} isHead={isHead} review={revision.review} role={role} userId={user.id} checkers={checkers} />
+      <ReviewBar sheetId={sheetId} revision={number} isHead={isHead} review={revision.review} role={role} userId={user.id} checkers={checkers} notes={notes} />
       <ResultCautions />
       <RevisionBlocks blocks={document.blocks} results={revision.results} openCounts={comments.openByBlock} />
     </div>
