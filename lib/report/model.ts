@@ -4,6 +4,7 @@
  * and the CSV files). Pure: the caller loads and evaluates; this only arranges.
  */
 import type { BlockTypeInfo, SheetDocument, SheetResults } from '@/lib/engine';
+import { STANDING_CAUTION } from '@/lib/engine/block-type';
 import { formatNumber } from '@/lib/sheet/format';
 import { buildFigure, type FigureModel } from './figure';
 import type { EvaluatedInput } from './inputs';
@@ -129,9 +130,9 @@ export interface ReportModel {
 export const NOT_APPROVED_BANNER = 'Not approved: for checking only';
 
 export const GENERAL_CAUTION =
-  'The results in this report are estimates from published, simplified methods under their stated assumptions and validity limits. ' +
-  'They are not a substitute for site investigation or engineering judgement. Check them against site data, and defer to local codes ' +
-  'and licensed professional practice before using them in hazard or design decisions.';
+  'The results in this report are estimates from published, simplified methods under their stated assumptions and validity limits, ' +
+  'which are listed with each block. They are not a substitute for site investigation or engineering judgement. ' +
+  STANDING_CAUTION;
 
 export const STATUS_WORDS: Record<ReviewStatusName, string> = {
   unsigned: 'Not yet sent for review',
@@ -297,7 +298,8 @@ export function buildReport({
       error: result?.error ?? (result ? null : 'no stored result for this block'),
       warnings: result?.warnings ?? [],
       validity: type?.validity ?? [],
-      cautions: type?.cautions ?? [],
+      // The standing caution every type carries is printed once, on the cover (GENERAL_CAUTION says the same).
+      cautions: (type?.cautions ?? []).filter((c) => c !== STANDING_CAUTION),
       sources: citeType(type),
       verification: verificationLine(verification, block.type),
       figures,

@@ -1,6 +1,6 @@
 import { beforeAll, describe, expect, it } from 'vitest';
 import Papa from 'papaparse';
-import { ApiClient, newAccount, signedInAs } from '../support/http';
+import { type ApiClient, newAccount, signedInAs } from '../support/http';
 
 // The demo team and its Marrow Range sheet (invented scenario, seeded by the test run).
 const DEMO_TEAM = '6b1f3c2e-8d4a-4c1e-9f3b-2a7d5e0c9a11';
