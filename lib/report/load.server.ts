@@ -16,13 +16,13 @@ const MAX_CACHED = 100;
 const holder = globalThis as unknown as { __denudataReportEvaluations?: Map<string, Current> };
 const evaluations = (holder.__denudataReportEvaluations ??= new Map<string, Current>());
 
-async function currentEvaluation(hash: string, document: SheetDocument, stored: SheetResults): Promise<Current> {
+async function currentEvaluation(hash: string, document: SheetDocument, stored: SheetResults, userId?: string): Promise<Current> {
   const key = `${ENGINE_VERSION}:${hash}`;
   const cached = evaluations.get(key);
   if (cached) return cached;
   let results: SheetResults;
   try {
-    results = await runEvaluate(document);
+    results = await runEvaluate(document, userId ? { userId } : undefined);
   } catch (error) {
     // A document the current engine refuses (or that runs out of time): the recorded results stand,
     // every block is marked as not recalculated, and the cover says so.
@@ -50,16 +50,19 @@ export async function loadReport({
   sheetId,
   teamId,
   number,
+  userId,
 }: {
   sheetId: string;
   teamId: string;
   number: number;
+  /** Whose evaluation it is (the pool bounds evaluations in flight per person). */
+  userId?: string;
 }): Promise<{ model: ReportModel; revision: RevisionDetail; events: ReviewEvent[] }> {
   const revision = await getRevision({ sheetId, number });
   const [team, events, current] = await Promise.all([
     Team.findByPk(teamId, { attributes: ['name'] }),
     listReviewEvents({ sheetId, revision: number }),
-    currentEvaluation(revision.hash, revision.document, revision.results),
+    currentEvaluation(revision.hash, revision.document, revision.results, userId),
   ]);
   const model = buildReport({
     sheetId,

@@ -10,7 +10,7 @@ const waiting: (() => void)[] = [];
 
 export async function withRenderSlot<T>(work: () => Promise<T>): Promise<T> {
   if (running >= MAX_RUNNING) {
-    if (waiting.length >= MAX_WAITING) throw new AppError('timeout', 'Too many reports are being made right now; try again in a few seconds.');
+    if (waiting.length >= MAX_WAITING) throw new AppError('rate_limited', 'Too many reports are being made right now; try again in a few seconds.', { retryAfter: 5 });
     await new Promise<void>((resolve) => waiting.push(resolve));
   }
   running += 1;

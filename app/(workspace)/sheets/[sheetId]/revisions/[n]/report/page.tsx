@@ -12,10 +12,10 @@ export const metadata: Metadata = { title: 'Calculation report' };
 // The calculation report of a revision, print-ready (every reader role); the PDF has the same content.
 export default async function ReportPage({ params }: { params: Promise<{ sheetId: string; n: string }> }) {
   const { sheetId, n } = await params;
-  const { sheet } = await requireSheetPage(sheetId);
+  const { user, sheet } = await requireSheetPage(sheetId);
   if (!/^[1-9][0-9]{0,8}$/.test(n)) notFound();
   const number = Number(n);
-  const loaded = await loadReport({ sheetId, teamId: sheet.teamId, number }).catch(() => null);
+  const loaded = await loadReport({ sheetId, teamId: sheet.teamId, number, userId: user.id }).catch(() => null);
   if (!loaded) notFound();
   const { model } = loaded;
   const api = `/api/sheets/${sheetId}/revisions/${number}`;

@@ -14,7 +14,7 @@ export const GET = route(async (_request, { params }: Context) => {
   const { sheetId, number } = await params;
   const { sheet } = await requireSheetRole({ userId: user.id, sheetId, action: 'read' });
   const n = parseWith(revisionNumberSchema, number);
-  const { model } = await loadReport({ sheetId, teamId: sheet.teamId, number: n });
+  const { model } = await loadReport({ sheetId, teamId: sheet.teamId, number: n, userId: user.id });
   const bytes = await withRenderSlot(() => renderReportPdf(model));
   return new Response(new Uint8Array(bytes), {
     status: 200,
