@@ -8,7 +8,7 @@
 # Needs fontTools (Debian: apt-get install python3-fonttools).
 set -euo pipefail
 cd "$(dirname "$0")/.."
-UNICODES="U+0020-007E,U+00A0-017F,U+0370-03FF,U+2010-2027,U+2030-205E,U+1D00-1DBF,U+2070-209F,U+20AC,U+2100-214F,U+2190-21FF,U+2200-22FF,U+2300-23FF,U+25A0-25FF,U+2713-2717,U+FFFD"
+UNICODES="U+0020-007E,U+00A0-017F,U+0300-036F,U+0370-03FF,U+2010-2027,U+2030-205E,U+1D00-1DBF,U+2070-209F,U+20AC,U+2100-214F,U+2190-21FF,U+2200-22FF,U+2300-23FF,U+25A0-25FF,U+2713-2717,U+FFFD"
 for font in DejaVuSans DejaVuSans-Bold DejaVuSansMono; do
   /usr/bin/python3 -m fontTools.subset "node_modules/dejavu-fonts-ttf/ttf/$font.ttf" --unicodes="$UNICODES" \
     --layout-features='' --no-hinting --desubroutinize --output-file="public/fonts/$font.ttf"

@@ -1,6 +1,7 @@
 import 'server-only';
 import { ENGINE_VERSION, blockCatalog, type SheetDocument, type SheetResults } from '@/lib/engine';
 import { runEvaluate } from '@/lib/evaluation/pool';
+import { resolveDocumentDatasets } from '@/lib/db/datasets';
 import { listReviewEvents, type ReviewEvent } from '@/lib/db/review-events';
 import { getRevision, type RevisionDetail } from '@/lib/db/revisions';
 import { Team } from '@/models';
@@ -16,13 +17,15 @@ const MAX_CACHED = 100;
 const holder = globalThis as unknown as { __denudataReportEvaluations?: Map<string, Current> };
 const evaluations = (holder.__denudataReportEvaluations ??= new Map<string, Current>());
 
-async function currentEvaluation(hash: string, document: SheetDocument, stored: SheetResults, userId?: string): Promise<Current> {
+async function currentEvaluation(hash: string, document: SheetDocument, stored: SheetResults, teamId: string, userId?: string): Promise<Current> {
   const key = `${ENGINE_VERSION}:${hash}`;
   const cached = evaluations.get(key);
   if (cached) return cached;
   let results: SheetResults;
   try {
-    results = await runEvaluate(document, userId ? { userId } : undefined);
+    // The datasets the document refers to, as the sheet's team holds them (pinned by hash in the document).
+    const { lookup } = await resolveDocumentDatasets({ teamId, document });
+    results = await runEvaluate(document, userId ? { userId } : undefined, lookup);
   } catch (error) {
     // A document the current engine refuses (or that runs out of time): the recorded results stand,
     // every block is marked as not recalculated, and the cover says so.
@@ -62,7 +65,7 @@ export async function loadReport({
   const [team, events, current] = await Promise.all([
     Team.findByPk(teamId, { attributes: ['name'] }),
     listReviewEvents({ sheetId, revision: number }),
-    currentEvaluation(revision.hash, revision.document, revision.results, userId),
+    currentEvaluation(revision.hash, revision.document, revision.results, teamId, userId),
   ]);
   const model = buildReport({
     sheetId,
