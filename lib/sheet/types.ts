@@ -19,11 +19,42 @@ export interface SheetBlock {
   display?: Record<string, string>;
 }
 
+/** The document's uncertainty settings (CONTRACT §8.2); absent: Monte Carlo, 10 000 samples, seed 1. */
+export interface UncertaintySettingsData {
+  method?: 'monte_carlo' | 'linear';
+  samples?: number;
+  seed?: number;
+}
+
 export interface SheetDocument {
   format: 'denudata-sheet@1';
   title: string;
   site?: SiteInfo;
   blocks: SheetBlock[];
+  uncertainty?: UncertaintySettingsData;
+}
+
+export interface SpreadNumbers {
+  mean: number;
+  sd: number;
+  p2_5: number;
+  p16: number;
+  p50: number;
+  p84: number;
+  p97_5: number;
+}
+
+/** The spread of an uncertain output (CONTRACT §8.5): numbers in the output's display unit. */
+export interface SpreadData extends Partial<SpreadNumbers> {
+  method: 'monte_carlo' | 'linear';
+  samples?: number;
+  seed?: number;
+  si?: SpreadNumbers;
+  outside?: [number, number];
+  sensitivity?: Record<string, number>;
+  contributions?: Record<string, number>;
+  /** Text outputs (Monte Carlo): samples per label. */
+  counts?: Record<string, number>;
 }
 
 export interface OutputValue {
@@ -31,6 +62,7 @@ export interface OutputValue {
   unit: string;
   si: number | string;
   siUnit: string;
+  spread?: SpreadData;
 }
 
 export interface SeriesData {
