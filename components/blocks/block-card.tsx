@@ -11,6 +11,7 @@ import type { CompletionData } from './expression-language';
 import { NoteMarkdown } from './note-markdown';
 import { ErrorText } from '@/components/ui/error-text';
 import { DatasetPicker } from '@/components/datasets/dataset-picker';
+import { OutputSpreads } from '@/components/uncertainty/output-spreads';
 
 // CodeMirror and Plot load only on pages that show fields and plots.
 const ExpressionField = dynamic(() => import('./expression-field'), {
@@ -260,8 +261,9 @@ function BlockCardInner(props: BlockCardProps) {
             displayError={located?.output ? { output: located.output, text: located.text } : null}
             onDisplay={(output, unit) => actions.setDisplay(block.id, output, unit)}
           />
+          <OutputSpreads blockName={block.name} result={result} labelOf={(name) => type?.outputs.find((o) => o.name === name)?.label ?? name} />
           {result?.series
-            ? Object.entries(result.series).map(([name, series]) => (
+            ? Object.entries(result.series).filter(([name]) => !name.startsWith('hist_')).map(([name, series]) => (
                 <div key={name} className={stale ? 'opacity-80' : undefined}>
                   <SeriesFigure blockName={block.name} seriesName={name} series={series} outputs={result.outputs} />
                 </div>

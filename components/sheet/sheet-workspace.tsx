@@ -30,12 +30,14 @@ import {
   setNote,
 } from '@/lib/sheet/document-edits';
 import { withTitleSite } from '@/lib/sheet/title-site';
-import type { BlockCatalogData, BlockResult, CatalogType, SheetDocument } from '@/lib/sheet/types';
+import type { BlockCatalogData, BlockResult, CatalogType, SheetDocument, UncertaintySettingsData } from '@/lib/sheet/types';
 import type { BlockState } from './block-status';
 import { HelpPanel } from './help-panel';
 import { SheetHeader, type ForkItem, type ForkOrigin } from './sheet-header';
 import { SideRail, type RailPanel } from './side-rail';
 import { TitleSiteForm } from './title-site-form';
+import { UncertaintySettings, withUncertainty } from '@/components/uncertainty/uncertainty-settings';
+import { useUncertaintyCommands } from '@/components/uncertainty/use-uncertainty-commands';
 import { useSheetDraft, type SaveState } from './use-sheet-draft';
 
 // The dialogs load when first opened, so their code stays out of the page's first download.
@@ -529,6 +531,8 @@ export function SheetWorkspace({
     user.id,
   ]);
   useRegisterCommands(commands);
+  const changeUncertainty = useCallback((settings: UncertaintySettingsData) => apply(withUncertainty(docRef.current, settings)), [apply]);
+  useRegisterCommands(useUncertaintyCommands(doc, canEdit, changeUncertainty));
 
   const formulaType = types.get('formula');
   const quickInsert = useCallback(
@@ -722,6 +726,7 @@ export function SheetWorkspace({
           </>
         }
       >
+        <UncertaintySettings doc={doc} canEdit={canEdit} onChange={changeUncertainty} />
         {!canEdit ? (
           <p className="text-[12px] text-slate">
             You are a {role} in this team: fields are read-only. You can evaluate{canComment ? ', comment' : ''} and read everything.

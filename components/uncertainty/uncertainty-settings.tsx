@@ -1,6 +1,6 @@
 'use client';
 
-import { useEffect, useState } from 'react';
+import { useState } from 'react';
 import type { SheetDocument, UncertaintySettingsData } from '@/lib/sheet/types';
 
 export const DEFAULT_SETTINGS = { method: 'monte_carlo', samples: 10000, seed: 1 } as const;
@@ -29,8 +29,13 @@ export function UncertaintySettings({ doc, canEdit, onChange }: { doc: SheetDocu
   const [samples, setSamples] = useState(String(current.samples));
   const [seed, setSeed] = useState(String(current.seed));
   const [error, setError] = useState<string | null>(null);
-  useEffect(() => setSamples(String(current.samples)), [current.samples]);
-  useEffect(() => setSeed(String(current.seed)), [current.seed]);
+  // When the document changes (undo, a palette re-seed), the fields follow it.
+  const [shown, setShown] = useState({ samples: current.samples, seed: current.seed });
+  if (shown.samples !== current.samples || shown.seed !== current.seed) {
+    setShown({ samples: current.samples, seed: current.seed });
+    setSamples(String(current.samples));
+    setSeed(String(current.seed));
+  }
   if (!hasDistributions(doc) && doc.uncertainty === undefined) return null;
 
   const commit = () => {
