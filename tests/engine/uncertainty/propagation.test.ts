@@ -58,7 +58,7 @@ describe('reproducibility (CONTRACT §8.6)', () => {
       env: { ...process.env, INIT_CWD: dir },
     });
     expect(JSON.stringify(JSON.parse(output))).toBe(JSON.stringify(evaluateSheet(caseSheet('P48'))));
-  });
+  }, 120_000); // a second Node.js process starting tsx and the engine: slow on a loaded machine
 
   it('should leave every other input’s samples unchanged when a distribution is added (one stream per input)', () => {
     const withBoth = caseSheet('P49');
