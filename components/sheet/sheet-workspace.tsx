@@ -39,6 +39,7 @@ import { TitleSiteForm } from './title-site-form';
 import { UncertaintySettings, withUncertainty } from '@/components/uncertainty/uncertainty-settings';
 import { useUncertaintyCommands } from '@/components/uncertainty/use-uncertainty-commands';
 import { useSheetDraft, type SaveState } from './use-sheet-draft';
+import { RunProgress } from '@/components/runs/run-progress';
 
 // The dialogs load when first opened, so their code stays out of the page's first download.
 const SaveRevisionDialog = dynamic(() => import('@/components/history/save-revision-dialog').then((m) => m.SaveRevisionDialog), { ssr: false });
@@ -784,6 +785,9 @@ export function SheetWorkspace({
             </button>
           </div>
         </div>
+      ) : null}
+      {draft.activeRun ? (
+        <RunProgress key={draft.activeRun.id} runId={draft.activeRun.id} onDone={draft.runFinished} onEnded={draft.runEnded} />
       ) : null}
       {draft.notice ? (
         <div role="status" className="flex items-start justify-between gap-2 rounded-[4px] border border-rule bg-wash px-3 py-2 text-[13px]">

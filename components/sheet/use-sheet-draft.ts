@@ -77,6 +77,8 @@ export function useSheetDraft({
   const [version, setVersion] = useState(initialVersion);
   const [results, setResults] = useState<SheetResults | null>(null);
   const [stale, setStale] = useState<Set<string>>(() => new Set(initialDocument.blocks.map((b) => b.id)));
+  /** A long run of the draft in progress (shown with its progress bar and cancel). */
+  const [activeRun, setActiveRun] = useState<{ id: string; draftVersion: number; stamp: number } | null>(null);
   const [saveState, setSaveState] = useState<SaveState>(canEdit ? { kind: 'saved' } : { kind: 'read-only' });
   const [conflict, setConflict] = useState<Conflict | null>(null);
   const [notice, setNotice] = useState<string | null>(null);
@@ -102,10 +104,17 @@ export function useSheetDraft({
   const evaluate = useMutation({
     mutationFn: async (stamp: number) => {
       const { status, body } = await fetchJson(`/api/sheets/${sheetId}/evaluate`, { method: 'POST' });
+      // 202: too costly for a request, the server started a long run (CONTRACT §6b).
+      if (status === 202 && body?.run?.id) return { kind: 'run' as const, run: { id: body.run.id as string, draftVersion: body.draftVersion as number, stamp } };
       if (status !== 200) throw new Error(body?.error?.message ?? `Evaluation failed (${status}).`);
-      return { ...(body as { draftVersion: number; results: SheetResults; evaluatedBlockIds: string[] }), stamp };
+      return { kind: 'results' as const, ...(body as { draftVersion: number; results: SheetResults; evaluatedBlockIds: string[] }), stamp };
     },
     onSuccess: (data) => {
+      if (data.kind === 'run') {
+        setActiveRun(data.run);
+        return;
+      }
+      setActiveRun(null);
       setResults(data.results);
       if (data.stamp === editCounter.current && data.draftVersion === versionRef.current) setStale(new Set());
     },
@@ -350,6 +359,16 @@ export function useSheetDraft({
     results,
     stale,
     evaluating: evaluate.isPending,
+    activeRun,
+    /** The long run finished: its results replace the shown ones. */
+    runFinished: (runResults: SheetResults) => {
+      const run = activeRun;
+      setActiveRun(null);
+      setResults(runResults);
+      if (run && run.stamp === editCounter.current && run.draftVersion === versionRef.current) setStale(new Set());
+    },
+    /** The long run failed or was cancelled: the previous results stay, marked stale. */
+    runEnded: () => setActiveRun(null),
     evaluateError: evaluate.error?.message ?? null,
     saveState,
     conflict,
