@@ -13,6 +13,8 @@ export const QUEUES = {
   mailSend: { name: 'mail-send', retryLimit: 6, retryDelay: 5, retryBackoff: true },
   /** A password-reset request: look the address up and, when it has an account, queue the message. */
   passwordReset: { name: 'password-reset', retryLimit: 3, retryDelay: 5, retryBackoff: true },
+  /** A long evaluation (CONTRACT §6b): never retried (a failed run is reported, not repeated). */
+  evaluationRun: { name: 'evaluation-run', retryLimit: 0, retryDelay: 0, retryBackoff: false },
 } as const;
 
 export type QueueName = (typeof QUEUES)[keyof typeof QUEUES]['name'];

@@ -15,7 +15,7 @@ import {
 import { createEvaluationPool } from '@/lib/evaluation/pool';
 import { resolveDocumentDatasets } from '@/lib/db/datasets';
 import { Sheet } from '@/models';
-import { getJobQueue } from './boss';
+import { jobQueue, QUEUES } from './queue';
 
 /**
  * Long runs (CONTRACT §6b): an evaluation too costly for a request runs as a job on the shared
@@ -25,7 +25,7 @@ import { getJobQueue } from './boss';
  * evaluation thread. Results are cached by document hash and engine version: a run of a document
  * already evaluated is done at once.
  */
-export const RUN_QUEUE = 'denudata-evaluation-runs';
+export const RUN_QUEUE = QUEUES.evaluationRun.name;
 /** A long run's time limit, counted from when it starts running. */
 export const RUN_TIME_LIMIT_MS = Number(process.env.DENUDATA_RUN_TIME_LIMIT_S ?? 600) * 1000;
 /** How often a running run writes its progress (and checks for a cancel). */
@@ -85,11 +85,10 @@ export async function executeRun(runId: string): Promise<void> {
   }
 }
 
-/** Starts this process's worker for the run queue (once per process). */
+/** Starts this process's worker for the run queue (once per process; with the other job workers). */
 export function startRunWorker(): Promise<void> {
   globalForRuns.denudataRunWorker ??= (async () => {
-    const boss = await getJobQueue();
-    await boss.createQueue(RUN_QUEUE);
+    const boss = await jobQueue();
     await boss.work<{ runId: string }>(RUN_QUEUE, { batchSize: 1, pollingIntervalSeconds: 1 }, async (jobs) => {
       for (const job of jobs) await executeRun(job.data.runId);
     });
@@ -138,8 +137,7 @@ export async function requestRun({
     cachedResults,
   });
   if (run.status === 'queued') {
-    const boss = await getJobQueue();
-    await boss.createQueue(RUN_QUEUE);
+    const boss = await jobQueue();
     await boss.send(RUN_QUEUE, { runId: run.id }, { retryLimit: 0, expireInSeconds: Math.ceil(RUN_TIME_LIMIT_MS / 1000) + 120 });
     void startRunWorker().catch((error: unknown) => console.error('[denudata] run worker:', error instanceof Error ? error.message : error));
   }

@@ -5,6 +5,7 @@ import { deliverMail } from '@/lib/mail';
 import { getOutboxMessage, markOutboxAttemptFailed, markOutboxSent } from '@/lib/mail/outbox';
 import { notifyPasswordReset } from '@/lib/notifications';
 import { QUEUES, jobQueue } from './queue';
+import { startRunWorker } from './runs';
 
 /** Sends one outbox message; throws (so pg-boss retries) when the SMTP server does not take it. */
 export async function runMailSendJob({ outboxId }: { outboxId: string }, { final }: { final: boolean }): Promise<void> {
@@ -43,4 +44,5 @@ export async function startJobWorkers(): Promise<void> {
   await boss.work<{ email: string }>(QUEUES.passwordReset.name, { pollingIntervalSeconds: 0.5 }, async (jobs) => {
     for (const job of jobs) await runPasswordResetJob(job.data);
   });
+  await startRunWorker();
 }

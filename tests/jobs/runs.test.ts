@@ -7,7 +7,7 @@ import { evaluateSheet, estimateEvaluationCost, needsLongRun, SYNC_COST_LIMIT, t
 import { databaseUrl } from '@/lib/db/config';
 import { getRun } from '@/lib/db/runs';
 import { WORKER_FILE } from '@/lib/evaluation/pool';
-import { JOB_SCHEMA, stopJobQueue } from '@/lib/jobs/boss';
+import { stopJobQueue } from '@/lib/jobs/queue';
 import { closeRunPool, executeRun, RUN_QUEUE, startRunWorker } from '@/lib/jobs/runs';
 import { cancelSheetRun, readSheetRun, startSheetRun } from '@/lib/runs/service.server';
 import { makeSheet, rejection, sampleDocument, useTeamFixture } from '../support/review-fixtures';
@@ -137,7 +137,7 @@ describe('long runs on the job queue (CONTRACT §6b)', () => {
   });
 
   it('should process every run exactly once with two queue workers (a second instance on the same database)', async () => {
-    const second = new PgBoss({ connectionString: databaseUrl(), schema: JOB_SCHEMA, max: 2 });
+    const second = new PgBoss({ connectionString: databaseUrl(), schema: 'pgboss', max: 2 });
     await second.start();
     const takenBySecond: string[] = [];
     await second.work<{ runId: string }>(RUN_QUEUE, { batchSize: 1, pollingIntervalSeconds: 1 }, async (jobs) => {
