@@ -1,3 +1,20 @@
+// Headers on every answer (pages, API, static files); pages get their Content-Security-Policy, with a
+// per-request nonce, from proxy.ts (lib/http/security-headers.ts). README "Headers" lists them.
+const SECURITY_HEADERS = [
+  { key: 'X-Content-Type-Options', value: 'nosniff' },
+  { key: 'Referrer-Policy', value: 'strict-origin-when-cross-origin' },
+  {
+    key: 'Permissions-Policy',
+    value:
+      'accelerometer=(), autoplay=(), browsing-topics=(), camera=(), display-capture=(), geolocation=(), gyroscope=(), ' +
+      'magnetometer=(), microphone=(), midi=(), payment=(), publickey-credentials-get=(), usb=(), xr-spatial-tracking=()',
+  },
+  { key: 'X-Frame-Options', value: 'DENY' },
+  { key: 'Cross-Origin-Opener-Policy', value: 'same-origin' },
+];
+/** API answers are data: nothing in them runs, nothing frames them. */
+const API_CONTENT_SECURITY_POLICY = "default-src 'none'; frame-ancestors 'none'";
+
 /** @type {import('next').NextConfig} */
 const nextConfig = {
   reactStrictMode: true,
@@ -7,6 +24,12 @@ const nextConfig = {
   typedRoutes: false,
   // The test run builds into a folder of its own so a running `npm start` is never disturbed.
   distDir: process.env.DENUDATA_DIST_DIR || '.next',
+  async headers() {
+    return [
+      { source: '/:path*', headers: SECURITY_HEADERS },
+      { source: '/api/:path*', headers: [{ key: 'Content-Security-Policy', value: API_CONTENT_SECURITY_POLICY }] },
+    ];
+  },
 };
 
 export default nextConfig;

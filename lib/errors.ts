@@ -10,6 +10,9 @@ export type ErrorCode =
   | 'unsupported_media_type'
   | 'limit_exceeded'
   | 'rate_limited'
+  | 'method_not_allowed'
+  | 'unsupported_media_type'
+  | 'forbidden_origin'
   | 'database_unavailable'
   | 'internal'
   // Datasets (CONTRACT §6 additions, §7)
@@ -29,6 +32,9 @@ const STATUS: Record<ErrorCode, number> = {
   unsupported_media_type: 415,
   limit_exceeded: 422,
   rate_limited: 429,
+  method_not_allowed: 405,
+  unsupported_media_type: 415,
+  forbidden_origin: 403,
   database_unavailable: 503,
   internal: 500,
   invalid_dataset: 400,
@@ -81,3 +87,12 @@ export const rateLimited = (message: string, retryAfterSeconds: number) =>
   new AppError('rate_limited', message, { retryAfter: Math.max(1, Math.ceil(retryAfterSeconds)) });
 /** 422: an evaluation stopped as a whole by its time or memory limit. */
 export const limitExceeded = (message: string) => new AppError('limit_exceeded', message);
+
+/** "45 seconds", "1 minute", "14 minutes", "1 hour": how long until a rate limit lifts, in words. */
+export function describeWait(seconds: number): string {
+  if (seconds < 60) return `${seconds} second${seconds === 1 ? '' : 's'}`;
+  const minutes = Math.ceil(seconds / 60);
+  if (minutes < 60) return `${minutes} minute${minutes === 1 ? '' : 's'}`;
+  const hours = Math.ceil(minutes / 60);
+  return `${hours} hour${hours === 1 ? '' : 's'}`;
+}

@@ -8,6 +8,19 @@ import { Button } from '@/components/ui/button';
 import { Field } from '@/components/ui/field';
 import { ErrorText } from '@/components/ui/error-text';
 
+/** What went wrong, in words: too many attempts (with when to try again) or a wrong e-mail or password. */
+export function signInErrorMessage(error: string | null | undefined): string {
+  const limited = /^rate_limited:(\d+)$/.exec(error ?? '');
+  if (limited) {
+    const seconds = Number(limited[1]);
+    const minutes = Math.ceil(seconds / 60);
+    const wait = seconds < 60 ? `${seconds} second${seconds === 1 ? '' : 's'}` : `${minutes} minute${minutes === 1 ? '' : 's'}`;
+    const at = new Date(Date.now() + seconds * 1000).toLocaleTimeString([], { hour: '2-digit', minute: '2-digit' });
+    return `Too many failed sign-ins. Try again in ${wait} (at ${at}).`;
+  }
+  return 'That e-mail and password do not match an account.';
+}
+
 export function SignInForm({ next }: { next: string }) {
   const router = useRouter();
   const [error, setError] = useState<string | null>(null);
@@ -25,7 +38,7 @@ export function SignInForm({ next }: { next: string }) {
     });
     setPending(false);
     if (!result || result.error) {
-      setError('That e-mail and password do not match an account.');
+      setError(signInErrorMessage(result?.error));
       return;
     }
     router.replace(next);

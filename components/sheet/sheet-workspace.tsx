@@ -164,7 +164,7 @@ export function SheetWorkspace({
   const focusBlock = useCallback((id: string, field = false) => {
     let tries = 0;
     const attempt = () => {
-      const section = document.querySelector<HTMLElement>(`[data-block-id="${id}"]`);
+      const section = document.querySelector<HTMLElement>(`[data-block-id="${CSS.escape(id)}"]`);
       const target = field ? section?.querySelector<HTMLElement>('.cm-content[contenteditable="true"], textarea, input') : section;
       if (target) target.focus();
       else if (tries++ < 20) setTimeout(attempt, 100);
@@ -601,7 +601,7 @@ export function SheetWorkspace({
           select(index < 0 ? 0 : index - 1);
           break;
         case 'Enter':
-          if (selectedRef.current && (event.target as Element)?.closest?.('[data-block-id]') === document.querySelector(`[data-block-id="${selectedRef.current}"]`)) {
+          if (selectedRef.current && (event.target as Element)?.closest?.('[data-block-id]') === document.querySelector(`[data-block-id="${CSS.escape(selectedRef.current)}"]`)) {
             event.preventDefault();
             focusBlock(selectedRef.current, true);
           }

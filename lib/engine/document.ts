@@ -7,6 +7,7 @@ import { z } from 'zod';
 import { canonicalJson, canonicalString } from './canonical-json';
 import { reservedNameReason } from './expression';
 import { BLOCK_TYPE_IDS, getBlockType } from './registry';
+import { safeText, TEXT_LIMITS } from './text';
 
 export const SHEET_FORMAT = 'denudata-sheet@1';
 export const BLOCK_NAME_PATTERN = /^[a-z][a-z0-9_]{0,39}$/;
@@ -80,9 +81,12 @@ function checkDisplayKeys(block: { type: string; inputs: Record<string, string>;
   }
 }
 
+/** A key of inputs or display (`__proto__`, which zod's record would drop, is refused in checkSheetDocument). */
+const inputKeySchema = z.string();
+
 const blockSchema = z
   .strictObject({
-    id: z.string({ error: 'id must be a string' }).min(1, 'id must not be empty').max(64, 'id must be at most 64 characters'),
+    id: safeText({ error: 'id must be a string' }).min(1, 'id must not be empty').max(64, 'id must be at most 64 characters'),
     name: z.string({ error: 'name must be a string' }).superRefine((name, ctx) => {
       const problem = checkBlockName(name);
       if (problem) ctx.addIssue({ code: 'custom', message: problem });
@@ -92,11 +96,13 @@ const blockSchema = z
         ctx.addIssue({ code: 'custom', message: `unknown block type "${type}" (known: ${BLOCK_TYPE_IDS.join(', ')})` });
       }
     }),
-    inputs: z.record(z.string(), z.string({ error: 'each input must be an expression (a string)' }), {
-      error: 'inputs must be an object of expressions',
-    }),
-    note: z.string({ error: 'note must be a string (markdown)' }).optional(),
-    display: z.record(z.string(), z.string({ error: 'each display unit must be a string' })).optional(),
+    inputs: z.record(
+      inputKeySchema,
+      safeText({ multiline: true, error: 'each input must be an expression (a string)' }).max(TEXT_LIMITS.expression, `an expression has at most ${TEXT_LIMITS.expression} characters`),
+      { error: 'inputs must be an object of expressions' },
+    ),
+    note: safeText({ multiline: true, error: 'note must be a string (markdown)' }).max(TEXT_LIMITS.blockNote, `a note has at most ${TEXT_LIMITS.blockNote} characters`).optional(),
+    display: z.record(inputKeySchema, safeText({ error: 'each display unit must be a string' }).max(TEXT_LIMITS.displayUnit)).optional(),
   })
   .superRefine((block, ctx) => {
     checkInputKeys(block, ctx);
@@ -104,10 +110,10 @@ const blockSchema = z
   });
 
 const siteSchema = z.strictObject({
-  name: z.string({ error: 'site.name must be a string' }).min(1, 'site name must not be empty').max(200),
+  name: safeText({ error: 'site.name must be a string' }).min(1, 'site name must not be empty').max(TEXT_LIMITS.siteName),
   latitude: z.number().min(-90).max(90).optional(),
   longitude: z.number().min(-180).max(180).optional(),
-  notes: z.string().optional(),
+  notes: safeText({ multiline: true }).max(TEXT_LIMITS.siteNotes, `site notes have at most ${TEXT_LIMITS.siteNotes} characters`).optional(),
 });
 
 /** The document's uncertainty settings (CONTRACT §8.2); defaults are filled in by the engine. */
@@ -130,7 +136,7 @@ const uncertaintySchema = z.strictObject(
 export const sheetDocumentSchema = z
   .strictObject({
     format: z.literal(SHEET_FORMAT, { error: `format must be "${SHEET_FORMAT}"` }),
-    title: z.string({ error: 'title must be a string' }).min(1, 'title must not be empty').max(200, 'title must be at most 200 characters'),
+    title: safeText({ error: 'title must be a string' }).min(1, 'title must not be empty').max(TEXT_LIMITS.title, `title must be at most ${TEXT_LIMITS.title} characters`),
     site: siteSchema.optional(),
     blocks: z.array(blockSchema, { error: 'blocks must be a list' }),
     uncertainty: uncertaintySchema.optional(),
@@ -232,6 +238,20 @@ export function canonicalSheetJson(document: SheetDocument): string {
   return `${text}}`;
 }
 
+/** Where a block's inputs or display hold an own `__proto__` key (JSON.parse makes one; zod would drop it). */
+function findPrototypeKey(input: unknown): string | null {
+  if (!isRecord(input) || !Array.isArray(input.blocks)) return null;
+  for (let i = 0; i < input.blocks.length; i++) {
+    const block: unknown = input.blocks[i];
+    if (!isRecord(block)) continue;
+    for (const part of ['inputs', 'display'] as const) {
+      const record = block[part];
+      if (isRecord(record) && Object.prototype.hasOwnProperty.call(record, '__proto__')) return `blocks[${i}].${part}["__proto__"]`;
+    }
+  }
+  return null;
+}
+
 /** A validated document with its canonical JSON text (computed once, for the hash). */
 export type CheckedSheetResult =
   | { ok: true; document: SheetDocument; canonical: string }
@@ -243,6 +263,8 @@ export type CheckedSheetResult =
  * serialises the document once.
  */
 export function checkSheetDocument(input: unknown): CheckedSheetResult {
+  const protoPath = findPrototypeKey(input);
+  if (protoPath) return { ok: false, message: '"__proto__" is not allowed as a key', path: protoPath };
   const parsed = sheetDocumentSchema.safeParse(input);
   if (parsed.success) {
     let canonical: string;

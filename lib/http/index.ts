@@ -2,6 +2,10 @@ import 'server-only';
 import { NextResponse } from 'next/server';
 import { z, type ZodType } from 'zod';
 import { AppError, badRequest } from '@/lib/errors';
+import { checkRequest, type RequestRules } from './request-guard';
+
+export { checkRequest, type RequestRules } from './request-guard';
+export { safeText } from '@/lib/engine/text';
 
 /** The largest JSON body any route accepts, in bytes. */
 export const MAX_BODY_BYTES = 1_000_000;
@@ -66,7 +70,35 @@ export async function readJson<T>(request: Request, schema: ZodType<T>, maxBytes
     throw badRequest('The request body is not valid JSON.');
   }
   if (body === undefined) throw badRequest('The request needs a JSON body.');
+  checkJsonShape(body);
   return parseWith(schema, body);
+}
+
+/** How deeply a JSON body may nest objects and arrays (a sheet document needs 5 levels). */
+export const MAX_JSON_DEPTH = 32;
+/** Keys that reach JavaScript object internals: refused anywhere in a body rather than dropped. */
+const PROTOTYPE_KEYS = new Set(['__proto__', 'constructor', 'prototype']);
+
+/**
+ * Refuses bodies nested deeper than MAX_JSON_DEPTH and keys such as `__proto__` anywhere in them (400
+ * naming where). Iterative, so a hostile body cannot exhaust the stack.
+ */
+export function checkJsonShape(body: unknown): void {
+  const stack: { value: unknown; path: string; depth: number }[] = [{ value: body, path: '', depth: 0 }];
+  while (stack.length) {
+    const { value, path, depth } = stack.pop()!;
+    if (value === null || typeof value !== 'object') continue;
+    if (depth >= MAX_JSON_DEPTH) throw badRequest(`The request body is nested more than ${MAX_JSON_DEPTH} levels deep.`, path || undefined);
+    if (Array.isArray(value)) {
+      value.forEach((item, i) => stack.push({ value: item, path: `${path}[${i}]`, depth: depth + 1 }));
+      continue;
+    }
+    for (const key of Object.keys(value)) {
+      const field = path ? `${path}.${key}` : key;
+      if (PROTOTYPE_KEYS.has(key)) throw badRequest(`${field}: "${key}" is not allowed as a key.`, field);
+      stack.push({ value: (value as Record<string, unknown>)[key], path: field, depth: depth + 1 });
+    }
+  }
 }
 
 export function readQuery<T>(request: Request, schema: ZodType<T>): T {
@@ -115,10 +147,15 @@ export function errorResponse(error: unknown): NextResponse {
 
 type Handler<Ctx> = (request: Request, context: Ctx) => Promise<Response>;
 
-/** Wraps a route handler so every error leaves as the contract's JSON shape. */
-export function route<Ctx>(handler: Handler<Ctx>): Handler<Ctx> {
+/**
+ * Wraps a route handler: the request-forgery and content-type rules first (403 `forbidden_origin`,
+ * 415 `unsupported_media_type`; lib/http/request-guard.ts), and every error leaves as the contract's
+ * JSON shape. `rules.multipart` lets an upload route take multipart/form-data.
+ */
+export function route<Ctx>(handler: Handler<Ctx>, rules: RequestRules = {}): Handler<Ctx> {
   return async (request, context) => {
     try {
+      checkRequest(request, rules);
       return await handler(request, context);
     } catch (error) {
       return errorResponse(error);

@@ -23,7 +23,9 @@ export default async function setup() {
   const seedCode = await new Promise<number | null>((resolve) => seed.on('exit', resolve));
   if (seedCode !== 0) throw new Error('seeding the test database failed');
 
-  const instance = await startAppInstance({ port: Number(port) });
+  // The shared app of the API and browser suites runs without rate limits (its suites sign up and evaluate
+  // far more than one person would); tests/api/rate-limits.test.ts starts two instances with them on.
+  const instance = await startAppInstance({ port: Number(port), env: { DENUDATA_RATE_LIMITS: process.env.DENUDATA_RATE_LIMITS ?? 'off' } });
   process.env.DENUDATA_APP_URL = origin;
 
   return instance.stop;

@@ -8,10 +8,11 @@ import { resolveTeam } from '@/lib/auth/team';
 import { createSheet } from '@/lib/db/sheets';
 import { AppError } from '@/lib/errors';
 import { titleSchema } from '@/app/api/sheets/schema';
+import { safeText } from '@/lib/engine/text';
 
 const createSheetFormSchema = z.object({
   title: titleSchema,
-  siteName: z.string().trim().max(200, 'use at most 200 characters').optional(),
+  siteName: safeText().trim().max(200, 'use at most 200 characters').optional(),
 });
 
 export type CreateSheetState = { errors?: { title?: string; siteName?: string; form?: string } };

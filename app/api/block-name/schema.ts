@@ -1,3 +1,4 @@
 import { z } from 'zod';
+import { safeText } from '@/lib/engine/text';
 
-export const blockNameSchema = z.strictObject({ name: z.string({ error: 'must be text' }).max(100, 'at most 100 characters') });
+export const blockNameSchema = z.strictObject({ name: safeText().max(100, 'at most 100 characters') });

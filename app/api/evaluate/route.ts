@@ -9,6 +9,7 @@ import { BUNDLE_FORMAT, bundleSchema } from '@/lib/datasets/schema';
 import { checkBundleDatasets, loadDatasetLookup } from '@/lib/db/datasets';
 import { getCurrentTeam } from '@/lib/db/teams';
 import type { DatasetCanonical } from '@/lib/engine/dataset';
+import { consumeRateLimit } from '@/lib/rate-limit';
 import { evaluateBodySchema } from './schema';
 
 /**
@@ -17,6 +18,7 @@ import { evaluateBodySchema } from './schema';
  */
 export const POST = route(async (request) => {
   const user = await requireUser();
+  await consumeRateLimit(['evaluationUser', user.id]);
   const body = await readJson(request, evaluateBodySchema, MAX_DATASET_BODY_BYTES);
   const lookup = new Map<string, DatasetCanonical>();
   let raw: unknown;

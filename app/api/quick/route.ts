@@ -3,11 +3,13 @@ import { createQuickCalculation } from '@/lib/db/quick';
 import { json, readJson, route } from '@/lib/http';
 import { runQuick } from '@/lib/evaluation/pool';
 import { asEvaluationError } from '@/lib/sheet/evaluation.server';
+import { consumeRateLimit } from '@/lib/rate-limit';
 import { quickBodySchema } from './schema';
 
 /** One expression → its value with units (stored in the user's recent list unless a preview). */
 export const POST = route(async (request) => {
   const user = await requireUser();
+  await consumeRateLimit(['evaluationUser', user.id]);
   const { expr, preview } = await readJson(request, quickBodySchema);
   let result;
   try {

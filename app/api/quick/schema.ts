@@ -1,7 +1,8 @@
 import { z } from 'zod';
+import { safeText, TEXT_LIMITS } from '@/lib/engine/text';
 
 export const quickBodySchema = z.strictObject({
-  expr: z.string({ error: 'must be text' }).trim().min(1, 'type an expression').max(2000, 'at most 2,000 characters'),
+  expr: safeText({ multiline: true }).trim().min(1, 'type an expression').max(TEXT_LIMITS.expression, 'at most 2,000 characters'),
   /** A preview while typing: evaluated, not stored in the recent list. */
   preview: z.boolean().optional(),
 });

@@ -1,14 +1,15 @@
 import { z } from 'zod';
+import { safeText, TEXT_LIMITS } from '@/lib/engine/text';
 import { REVIEW_STATUSES } from '@/models';
 
 export const siteSchema = z.strictObject({
-  name: z.string().trim().min(1, 'enter the site name').max(200, 'use at most 200 characters'),
+  name: safeText().trim().min(1, 'enter the site name').max(TEXT_LIMITS.siteName, 'use at most 200 characters'),
   latitude: z.number().min(-90, 'latitude is between -90 and 90').max(90, 'latitude is between -90 and 90').optional(),
   longitude: z.number().min(-180, 'longitude is between -180 and 180').max(180, 'longitude is between -180 and 180').optional(),
-  notes: z.string().max(5000, 'use at most 5000 characters').optional(),
+  notes: safeText({ multiline: true }).max(TEXT_LIMITS.siteNotes, 'use at most 5000 characters').optional(),
 });
 
-export const titleSchema = z.string().trim().min(1, 'enter a title').max(200, 'use at most 200 characters');
+export const titleSchema = safeText().trim().min(1, 'enter a title').max(200, 'use at most 200 characters');
 
 export const createSheetSchema = z.strictObject({
   title: titleSchema,
@@ -18,7 +19,7 @@ export const createSheetSchema = z.strictObject({
 
 export const listSheetsQuerySchema = z.strictObject({
   team: z.string().uuid('must be a team id').optional(),
-  q: z.string().max(200).optional(),
+  q: safeText().max(200).optional(),
   sort: z
     .enum(['updated', '-updated', 'title', '-title', 'site', '-site', 'revision', '-revision', 'status', '-status'], {
       message: 'sort by updated, title, site, revision or status (a leading - reverses it)',

@@ -1,4 +1,5 @@
 import { z } from 'zod';
+import { safeText } from '@/lib/engine/text';
 
 export const PASSWORD_MIN = 10;
 /** bcrypt reads only the first 72 bytes of a password; a longer one is refused rather than cut silently. */
@@ -14,6 +15,6 @@ export const passwordSchema = z
 export const signUpSchema = z.strictObject({
   email: z.string().trim().max(254).email('enter a valid e-mail address, such as name@example.org'),
   password: passwordSchema,
-  name: z.string().trim().min(1, 'enter your name').max(120, 'use at most 120 characters'),
+  name: safeText().trim().min(1, 'enter your name').max(120, 'use at most 120 characters'),
 });
 export type SignUpInput = z.infer<typeof signUpSchema>;

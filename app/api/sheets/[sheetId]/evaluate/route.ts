@@ -6,6 +6,7 @@ import { badRequest } from '@/lib/errors';
 import { needsLongRun } from '@/lib/engine';
 import { startSheetRun } from '@/lib/runs/service.server';
 import { evaluateDraft, requireValidDocument } from '@/lib/sheet/evaluation.server';
+import { consumeRateLimit } from '@/lib/rate-limit';
 import { evaluateDraftSchema } from './schema';
 
 type Context = { params: Promise<{ sheetId: string }> };
@@ -15,6 +16,7 @@ export const POST = route(async (request, { params }: Context) => {
   const user = await requireUser();
   const { sheetId } = await params;
   const { sheet } = await requireSheetRole({ userId: user.id, sheetId, action: 'read' });
+  await consumeRateLimit(['evaluationUser', user.id]);
   const text = await readBodyText(request);
   if (text.trim()) {
     let body: unknown;

@@ -1,11 +1,12 @@
 import { z } from 'zod';
+import { safeText, TEXT_LIMITS } from '@/lib/engine/text';
 import { MAX_INT4 } from '@/lib/http/limits';
 
 // The document itself is checked by the engine's strict schema after this envelope.
 export const saveRevisionSchema = z.strictObject({
   baseRevision: z.number({ message: 'must be a number' }).int('must be a whole number').min(0, 'must be 0 or more').max(MAX_INT4, 'is not a revision number'),
   document: z.unknown(),
-  message: z.string().trim().max(2000, 'use at most 2000 characters').default(''),
+  message: safeText({ multiline: true }).trim().max(TEXT_LIMITS.message, 'use at most 2000 characters').default(''),
 });
 
 // A path or query value: digits only (no "0x10", "1e2", " 1" or "-1"), within PostgreSQL's integer range.
