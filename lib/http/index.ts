@@ -164,3 +164,22 @@ export function route<Ctx>(handler: Handler<Ctx>, rules: RequestRules = {}): Han
 }
 
 export const uuidParam = z.string().uuid('must be a valid id');
+
+const SERVED_METHODS = ['GET', 'POST', 'PUT', 'PATCH', 'DELETE'] as const;
+type ServedMethod = (typeof SERVED_METHODS)[number];
+
+/**
+ * Handlers for the methods a route does not serve: 405 `method_not_allowed` in the contract's shape with
+ * `Allow` (Next.js alone would answer an empty 405). Each route file ends with
+ * `export const { PUT, PATCH, DELETE } = notAllowed('GET, POST');` listing what it does serve.
+ */
+export function notAllowed(allowed: string): Record<ServedMethod, (request: Request) => Promise<Response>> {
+  const allow = `${allowed}, OPTIONS`;
+  const handler = async (request: Request) =>
+    json(
+      { error: { code: 'method_not_allowed', message: `${request.method} is not served here; use ${allowed}.` } },
+      405,
+      { Allow: allow },
+    );
+  return Object.fromEntries(SERVED_METHODS.map((method) => [method, handler])) as Record<ServedMethod, typeof handler>;
+}

@@ -28,8 +28,9 @@ function originOf(url: string | undefined): string | null {
 /** The app's own origins: the configured app URL, and the origin this request was addressed to. */
 export function ownOrigins(request: Request): Set<string> {
   const origins = new Set<string>();
-  const configured = originOf(process.env.DENUDATA_APP_URL) ?? originOf(process.env.NEXTAUTH_URL);
-  if (configured) origins.add(configured);
+  for (const configured of [originOf(process.env.NEXTAUTH_URL), originOf(process.env.DENUDATA_APP_URL)]) {
+    if (configured) origins.add(configured);
+  }
   const host = request.headers.get('x-forwarded-host') ?? request.headers.get('host');
   const proto = request.headers.get('x-forwarded-proto') ?? new URL(request.url).protocol.replace(':', '');
   if (host) {

@@ -7,10 +7,17 @@ export type ApiResponse<T = any> = { status: number; body: T; headers: Headers }
 export class ApiClient {
   private cookies = new Map<string, string>();
 
-  /** A client of the app at `origin` (default: the test app). */
-  constructor(private readonly origin: string = appUrl()) {}
+  /** A client of the app at `origin` (default: the test app); `headers` go with every request (e.g. X-Forwarded-For). */
+  constructor(
+    private readonly origin: string = appUrl(),
+    readonly headers: Record<string, string> = {},
+  ) {}
 
-  private cookieHeader() {
+  private url(path: string) {
+    return `${this.origin}${path}`;
+  }
+
+  cookieHeader() {
     return [...this.cookies.entries()].map(([k, v]) => `${k}=${v}`).join('; ');
   }
 
@@ -23,10 +30,11 @@ export class ApiClient {
   }
 
   async request<T = any>(method: string, path: string, body?: unknown, init: { raw?: string; headers?: Record<string, string> } = {}): Promise<ApiResponse<T>> {
-    const response = await fetch(`${this.origin}${path}`, {
+    const response = await fetch(this.url(path), {
       method,
       redirect: 'manual',
       headers: {
+        ...this.headers,
         ...(body !== undefined || init.raw !== undefined ? { 'content-type': 'application/json' } : {}),
         ...(this.cookies.size ? { cookie: this.cookieHeader() } : {}),
         ...init.headers,
@@ -87,15 +95,27 @@ export class ApiClient {
 
   /** Signs in with e-mail and password; true when next-auth set a session cookie. */
   async signIn(email: string, password: string): Promise<boolean> {
+    return (await this.signInAttempt(email, password)).signedIn;
+  }
+
+  /** A sign-in attempt with its answer (status, body, Retry-After), for the rate-limit suites. */
+  async signInAttempt(email: string, password: string): Promise<{ signedIn: boolean; status: number; body: any; retryAfter: string | null }> {
     const csrf = await this.get<{ csrfToken: string }>('/api/auth/csrf');
-    const response = await fetch(`${this.origin}/api/auth/callback/credentials`, {
+    const response = await fetch(this.url('/api/auth/callback/credentials'), {
       method: 'POST',
       redirect: 'manual',
-      headers: { 'content-type': 'application/x-www-form-urlencoded', cookie: this.cookieHeader() },
+      headers: { ...this.headers, 'content-type': 'application/x-www-form-urlencoded', cookie: this.cookieHeader() },
       body: new URLSearchParams({ csrfToken: csrf.body.csrfToken, email, password, json: 'true' }).toString(),
     });
     this.keepCookies(response);
-    return [...this.cookies.keys()].some((k) => k.includes('session-token'));
+    const text = await response.text();
+    let body: unknown = text;
+    try {
+      body = JSON.parse(text);
+    } catch {
+      // not JSON
+    }
+    return { signedIn: [...this.cookies.keys()].some((k) => k.includes('session-token')), status: response.status, body, retryAfter: response.headers.get('retry-after') };
   }
 }
 

@@ -1,6 +1,6 @@
 import { requireUser } from '@/lib/auth/guard';
 import { checkBlockName } from '@/lib/engine';
-import { json, readJson, route } from '@/lib/http';
+import { json, notAllowed, readJson, route } from '@/lib/http';
 import { blockNameSchema } from './schema';
 
 /** Whether a block name is allowed (pattern, not a unit, constant or function): `{message}` or null. */
@@ -9,3 +9,5 @@ export const POST = route(async (request) => {
   const { name } = await readJson(request, blockNameSchema);
   return json({ name, message: checkBlockName(name) });
 });
+
+export const { GET, PUT, PATCH, DELETE } = notAllowed('POST');

@@ -1,6 +1,6 @@
 import { requireSheetRole, requireUser } from '@/lib/auth/guard';
 import { getRevision } from '@/lib/db/revisions';
-import { json, readQuery, route } from '@/lib/http';
+import { json, notAllowed, readQuery, route } from '@/lib/http';
 import { compareSheets } from '@/lib/sheet/compare';
 import { compareQuerySchema } from './schema';
 
@@ -17,3 +17,5 @@ export const GET = route(async (request) => {
     ...comparison,
   });
 });
+
+export const { POST, PUT, PATCH, DELETE } = notAllowed('GET');

@@ -1,5 +1,5 @@
 import { requireUser } from '@/lib/auth/guard';
-import { MAX_DATASET_BODY_BYTES, json, parseWith, readJson, route } from '@/lib/http';
+import { MAX_DATASET_BODY_BYTES, json, notAllowed, parseWith, readJson, route } from '@/lib/http';
 import { badRequest } from '@/lib/errors';
 import { runEvaluate } from '@/lib/evaluation/pool';
 import { asEvaluationError, requireValidDocument } from '@/lib/sheet/evaluation.server';
@@ -48,3 +48,5 @@ export const POST = route(async (request) => {
     throw asEvaluationError(error);
   }
 });
+
+export const { GET, PUT, PATCH, DELETE } = notAllowed('POST');

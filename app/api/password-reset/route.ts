@@ -1,4 +1,4 @@
-import { json, readJson, route } from '@/lib/http';
+import { json, notAllowed, readJson, route } from '@/lib/http';
 import { QUEUES, sendJob } from '@/lib/jobs/queue';
 import { clientAddress, consumeRateLimit } from '@/lib/rate-limit';
 import { requestResetSchema } from './schema';
@@ -12,3 +12,5 @@ export const POST = route(async (request) => {
   await sendJob(QUEUES.passwordReset.name, { email });
   return json({ message: 'If an account has that address, a link to set a new password is on its way.' }, 202);
 });
+
+export const { GET, PUT, PATCH, DELETE } = notAllowed('POST');

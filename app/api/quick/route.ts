@@ -1,6 +1,6 @@
 import { requireUser } from '@/lib/auth/guard';
 import { createQuickCalculation } from '@/lib/db/quick';
-import { json, readJson, route } from '@/lib/http';
+import { json, notAllowed, readJson, route } from '@/lib/http';
 import { runQuick } from '@/lib/evaluation/pool';
 import { asEvaluationError } from '@/lib/sheet/evaluation.server';
 import { consumeRateLimit } from '@/lib/rate-limit';
@@ -21,3 +21,5 @@ export const POST = route(async (request) => {
   if (!preview) await createQuickCalculation({ userId: user.id, expression: expr, result: answer });
   return json({ ...answer, warnings: result.warnings });
 });
+
+export const { GET, PUT, PATCH, DELETE } = notAllowed('POST');

@@ -1,7 +1,7 @@
 import { requireUser } from '@/lib/auth/guard';
 import { resolveTeam } from '@/lib/auth/team';
 import { createSheet, listSheetsByTeam, type SheetSort } from '@/lib/db/sheets';
-import { json, readJson, readQuery, route } from '@/lib/http';
+import { json, notAllowed, readJson, readQuery, route } from '@/lib/http';
 import { createSheetSchema, listSheetsQuerySchema } from './schema';
 
 export const GET = route(async (request) => {
@@ -27,3 +27,5 @@ export const POST = route(async (request) => {
   const sheet = await createSheet({ teamId, userId: user.id, title: input.title, site: input.site });
   return json({ sheet }, 201);
 });
+
+export const { PUT, PATCH, DELETE } = notAllowed('GET, POST');

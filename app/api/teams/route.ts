@@ -1,6 +1,6 @@
 import { requireUser } from '@/lib/auth/guard';
 import { createTeam, listTeamsForUser } from '@/lib/db/teams';
-import { json, readJson, route } from '@/lib/http';
+import { json, notAllowed, readJson, route } from '@/lib/http';
 import { createTeamSchema } from './schema';
 
 export const GET = route(async () => {
@@ -15,3 +15,5 @@ export const POST = route(async (request) => {
   const team = await createTeam({ userId: user.id, name });
   return json({ team }, 201);
 });
+
+export const { PUT, PATCH, DELETE } = notAllowed('GET, POST');

@@ -1,5 +1,5 @@
 import { createUserWithTeam } from '@/lib/db/users';
-import { json, readJson, route } from '@/lib/http';
+import { json, notAllowed, readJson, route } from '@/lib/http';
 import { clientAddress, consumeRateLimit } from '@/lib/rate-limit';
 import { signUpSchema } from './schema';
 
@@ -9,3 +9,5 @@ export const POST = route(async (request) => {
   const { user } = await createUserWithTeam(input);
   return json({ user }, 201);
 });
+
+export const { GET, PUT, PATCH, DELETE } = notAllowed('POST');

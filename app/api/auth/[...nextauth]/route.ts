@@ -1,6 +1,6 @@
 import NextAuth from 'next-auth';
 import { authOptions, signInRateLimitError } from '@/lib/auth/options';
-import { errorResponse } from '@/lib/http';
+import { errorResponse, notAllowed } from '@/lib/http';
 import { checkRateLimit, clientAddress } from '@/lib/rate-limit';
 
 const handler = NextAuth(authOptions);
@@ -44,3 +44,5 @@ async function POST(request: Request, context: Context) {
 }
 
 export { handler as GET, POST };
+
+export const { PUT, PATCH, DELETE } = notAllowed('GET, POST');

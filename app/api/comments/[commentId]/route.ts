@@ -1,6 +1,6 @@
 import { requireSheetRole, requireUser } from '@/lib/auth/guard';
 import { findCommentSheetId, updateComment } from '@/lib/db/comments';
-import { json, readJson, route } from '@/lib/http';
+import { json, notAllowed, readJson, route } from '@/lib/http';
 import { updateCommentSchema } from './schema';
 
 type Context = { params: Promise<{ commentId: string }> };
@@ -14,3 +14,5 @@ export const PATCH = route(async (request, { params }: Context) => {
   const updated = await updateComment({ commentId, userId: user.id, ...body });
   return json({ comment: updated });
 });
+
+export const { GET, POST, PUT, DELETE } = notAllowed('PATCH');

@@ -1,6 +1,6 @@
 import { completePasswordReset } from '@/lib/db/password-resets';
 import { badRequest } from '@/lib/errors';
-import { json, readJson, route } from '@/lib/http';
+import { json, notAllowed, readJson, route } from '@/lib/http';
 import { completeResetSchema, resetTokenSchema } from '../schema';
 
 type Context = { params: Promise<{ token: string }> };
@@ -12,3 +12,5 @@ export const POST = route(async (request, { params }: Context) => {
   await completePasswordReset({ token, password });
   return json({ message: 'Your password is set. Sign in with it.' });
 });
+
+export const { GET, PUT, PATCH, DELETE } = notAllowed('POST');

@@ -1,7 +1,7 @@
 import { requireSheetRole, requireUser } from '@/lib/auth/guard';
 import { deleteSheet, getSheetDetail } from '@/lib/db/sheets';
 import { listTeamsForUser } from '@/lib/db/teams';
-import { json, route } from '@/lib/http';
+import { json, notAllowed, route } from '@/lib/http';
 
 type Context = { params: Promise<{ sheetId: string }> };
 
@@ -20,3 +20,5 @@ export const DELETE = route(async (_request, { params }: Context) => {
   const outcome = await deleteSheet({ sheetId, userId: user.id });
   return json({ outcome });
 });
+
+export const { POST, PUT, PATCH } = notAllowed('GET, DELETE');

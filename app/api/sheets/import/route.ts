@@ -1,7 +1,7 @@
 import { requireUser } from '@/lib/auth/guard';
 import { resolveTeam } from '@/lib/auth/team';
 import { importSheet } from '@/lib/db/revisions';
-import { MAX_DATASET_BODY_BYTES, json, readJson, route } from '@/lib/http';
+import { MAX_DATASET_BODY_BYTES, json, notAllowed, readJson, route } from '@/lib/http';
 import { AppError } from '@/lib/errors';
 import { compareRecordedOutputs } from '@/lib/report/record';
 import { requireValidDocument } from '@/lib/sheet/evaluation.server';
@@ -44,3 +44,5 @@ export const POST = route(async (request) => {
       : await importSheet({ teamId, userId: user.id, document: body.document });
   return json({ sheet, revision }, 201);
 });
+
+export const { GET, PUT, PATCH, DELETE } = notAllowed('POST');

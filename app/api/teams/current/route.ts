@@ -1,6 +1,6 @@
 import { requireUser } from '@/lib/auth/guard';
 import { listTeamsForUser, setCurrentTeam } from '@/lib/db/teams';
-import { json, readJson, route } from '@/lib/http';
+import { json, notAllowed, readJson, route } from '@/lib/http';
 import { currentTeamSchema } from '../schema';
 
 export const PUT = route(async (request) => {
@@ -10,3 +10,5 @@ export const PUT = route(async (request) => {
   const items = await listTeamsForUser({ userId: user.id });
   return json({ items, total: items.length });
 });
+
+export const { GET, POST, PATCH, DELETE } = notAllowed('PUT');

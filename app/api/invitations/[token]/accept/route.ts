@@ -1,7 +1,7 @@
 import { z } from 'zod';
 import { requireUser } from '@/lib/auth/guard';
 import { acceptInvitation } from '@/lib/db/invitations';
-import { json, parseWith, route } from '@/lib/http';
+import { json, notAllowed, parseWith, route } from '@/lib/http';
 
 type Context = { params: Promise<{ token: string }> };
 
@@ -12,3 +12,5 @@ export const POST = route(async (_request, { params }: Context) => {
   const token = parseWith(tokenSchema, (await params).token);
   return json(await acceptInvitation({ token, user }));
 });
+
+export const { GET, PUT, PATCH, DELETE } = notAllowed('POST');

@@ -1,6 +1,6 @@
 import { requireSheetRole, requireUser } from '@/lib/auth/guard';
 import { createComment, listCommentsBySheet } from '@/lib/db/comments';
-import { json, readJson, readQuery, route } from '@/lib/http';
+import { json, notAllowed, readJson, readQuery, route } from '@/lib/http';
 import { notifyMentions } from '@/lib/notifications';
 import { createCommentSchema, listCommentsQuerySchema } from './schema';
 
@@ -23,3 +23,5 @@ export const POST = route(async (request, { params }: Context) => {
   const mail = created.mentioned.length ? await notifyMentions(created, user) : { delivered: true };
   return json({ comment: created.comment, notified: created.mentioned, mailDelivered: mail.delivered }, 201);
 });
+
+export const { PUT, PATCH, DELETE } = notAllowed('GET, POST');

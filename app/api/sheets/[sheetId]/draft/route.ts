@@ -1,6 +1,6 @@
 import { requireSheetRole, requireUser } from '@/lib/auth/guard';
 import { saveDraft } from '@/lib/db/sheets';
-import { json, readJson, route } from '@/lib/http';
+import { json, notAllowed, readJson, route } from '@/lib/http';
 import { requireValidDocument } from '@/lib/sheet/evaluation.server';
 import { saveDraftSchema } from './schema';
 
@@ -15,3 +15,5 @@ export const PUT = route(async (request, { params }: Context) => {
   const result = await saveDraft({ sheetId, userId: user.id, baseVersion: body.baseVersion, document });
   return json(result);
 });
+
+export const { GET, POST, PATCH, DELETE } = notAllowed('PUT');

@@ -1,7 +1,7 @@
 import { requireSheetRole, requireUser } from '@/lib/auth/guard';
 import { resolveDocumentDatasets } from '@/lib/db/datasets';
 import { getSheetDraft } from '@/lib/db/sheets';
-import { json, parseWith, readBodyText, route } from '@/lib/http';
+import { checkJsonShape, json, notAllowed, parseWith, readBodyText, route } from '@/lib/http';
 import { badRequest } from '@/lib/errors';
 import { needsLongRun } from '@/lib/engine';
 import { startSheetRun } from '@/lib/runs/service.server';
@@ -25,6 +25,7 @@ export const POST = route(async (request, { params }: Context) => {
     } catch {
       throw badRequest('The request body is not valid JSON.');
     }
+    checkJsonShape(body);
     parseWith(evaluateDraftSchema, body);
   }
   const draft = await getSheetDraft({ sheetId });
@@ -38,3 +39,5 @@ export const POST = route(async (request, { params }: Context) => {
   const { lookup } = await resolveDocumentDatasets({ teamId: sheet.teamId, document });
   return json(await evaluateDraft({ sheetId, draftVersion: draft.version, document, userId: user.id, datasets: lookup }));
 });
+
+export const { GET, PUT, PATCH, DELETE } = notAllowed('POST');

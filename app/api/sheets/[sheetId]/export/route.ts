@@ -5,7 +5,7 @@ import { getRevision } from '@/lib/db/revisions';
 import { listReviewEvents } from '@/lib/db/review-events';
 import { buildRecord } from '@/lib/report/record';
 import { notFound } from '@/lib/errors';
-import { readQuery, route } from '@/lib/http';
+import { notAllowed, readQuery, route } from '@/lib/http';
 import { revisionNumberSchema } from '../revisions/schema';
 
 type Context = { params: Promise<{ sheetId: string }> };
@@ -63,3 +63,5 @@ export const GET = route(async (request, { params }: Context) => {
     },
   });
 });
+
+export const { POST, PUT, PATCH, DELETE } = notAllowed('GET');

@@ -1,6 +1,6 @@
 import { requireSheetRole, requireTeamRole, requireUser } from '@/lib/auth/guard';
 import { forkSheet } from '@/lib/db/forks';
-import { json, readJson, route } from '@/lib/http';
+import { json, notAllowed, readJson, route } from '@/lib/http';
 import { forkSchema } from './schema';
 
 type Context = { params: Promise<{ sheetId: string }> };
@@ -15,3 +15,5 @@ export const POST = route(async (request, { params }: Context) => {
   const forked = await forkSheet({ sourceSheetId: sheetId, teamId, userId: user.id, title: body.title, site: body.site, revision: body.revision });
   return json(forked, 201);
 });
+
+export const { GET, PUT, PATCH, DELETE } = notAllowed('POST');

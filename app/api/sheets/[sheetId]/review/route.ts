@@ -1,7 +1,7 @@
 import { requireSheetRole, requireUser } from '@/lib/auth/guard';
 import type { TeamAction } from '@/lib/auth/permissions';
 import { applyReviewAction, type ReviewAction } from '@/lib/db/review';
-import { json, readJson, route } from '@/lib/http';
+import { json, notAllowed, readJson, route } from '@/lib/http';
 import { notifyReview } from '@/lib/notifications';
 import { reviewSchema } from './schema';
 
@@ -19,3 +19,5 @@ export const POST = route(async (request, { params }: Context) => {
   const mail = await notifyReview(notice);
   return json({ ...outcome, mailDelivered: mail.delivered });
 });
+
+export const { GET, PUT, PATCH, DELETE } = notAllowed('POST');

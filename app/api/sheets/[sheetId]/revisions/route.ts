@@ -1,6 +1,6 @@
 import { requireSheetRole, requireUser } from '@/lib/auth/guard';
 import { listRevisionsBySheet, saveRevision } from '@/lib/db/revisions';
-import { json, readJson, route } from '@/lib/http';
+import { json, notAllowed, readJson, route } from '@/lib/http';
 import { saveRevisionSchema } from './schema';
 
 type Context = { params: Promise<{ sheetId: string }> };
@@ -20,3 +20,5 @@ export const POST = route(async (request, { params }: Context) => {
   const saved = await saveRevision({ sheetId, userId: user.id, baseRevision: body.baseRevision, document: body.document, message: body.message });
   return json(saved, 201);
 });
+
+export const { PUT, PATCH, DELETE } = notAllowed('GET, POST');

@@ -1,6 +1,6 @@
 import { requireTeamRole, requireUser } from '@/lib/auth/guard';
 import { createInvitation } from '@/lib/db/invitations';
-import { json, parseWith, readJson, route } from '@/lib/http';
+import { json, notAllowed, parseWith, readJson, route } from '@/lib/http';
 import { notifyInvitation } from '@/lib/notifications';
 import { consumeRateLimit } from '@/lib/rate-limit';
 import { teamIdSchema } from '../members/schema';
@@ -19,3 +19,5 @@ export const POST = route(async (request, { params }: Context) => {
   // When the message could not be sent, the owner gets the link to pass on by hand.
   return json({ invitation: created.invitation, mailDelivered: mail.delivered, ...(mail.delivered ? {} : { link: mail.link }) }, 201);
 });
+
+export const { GET, PUT, PATCH, DELETE } = notAllowed('POST');

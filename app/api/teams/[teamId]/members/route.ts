@@ -1,7 +1,7 @@
 import { requireTeamRole, requireUser } from '@/lib/auth/guard';
 import { listMembersByTeam, listPendingInvitationsByTeam } from '@/lib/db/members';
 import { roleAllows } from '@/lib/auth/permissions';
-import { json, parseWith, route } from '@/lib/http';
+import { json, notAllowed, parseWith, route } from '@/lib/http';
 import { teamIdSchema } from './schema';
 
 type Context = { params: Promise<{ teamId: string }> };
@@ -14,3 +14,5 @@ export const GET = route(async (_request, { params }: Context) => {
   const invitations = roleAllows(role, 'manage_members') ? await listPendingInvitationsByTeam({ teamId }) : [];
   return json({ ...members, invitations });
 });
+
+export const { POST, PUT, PATCH, DELETE } = notAllowed('GET');

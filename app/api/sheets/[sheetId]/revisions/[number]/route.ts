@@ -1,6 +1,6 @@
 import { requireSheetRole, requireUser } from '@/lib/auth/guard';
 import { getRevision } from '@/lib/db/revisions';
-import { json, parseWith, route } from '@/lib/http';
+import { json, notAllowed, parseWith, route } from '@/lib/http';
 import { revisionNumberSchema } from '../schema';
 
 type Context = { params: Promise<{ sheetId: string; number: string }> };
@@ -12,3 +12,5 @@ export const GET = route(async (_request, { params }: Context) => {
   const n = parseWith(revisionNumberSchema, number);
   return json(await getRevision({ sheetId, number: n }));
 });
+
+export const { POST, PUT, PATCH, DELETE } = notAllowed('GET');

@@ -1,6 +1,6 @@
 import { requireTeamRole, requireUser } from '@/lib/auth/guard';
 import { removeMember, updateMemberRole } from '@/lib/db/members';
-import { json, parseWith, readJson, route, uuidParam } from '@/lib/http';
+import { json, notAllowed, parseWith, readJson, route, uuidParam } from '@/lib/http';
 import { teamIdSchema, updateMemberSchema } from '../schema';
 
 type Context = { params: Promise<{ teamId: string; userId: string }> };
@@ -24,3 +24,5 @@ export const DELETE = route(async (_request, { params }: Context) => {
   await removeMember({ teamId, actorId: user.id, userId });
   return json({ removed: userId });
 });
+
+export const { GET, POST, PUT } = notAllowed('PATCH, DELETE');
