@@ -1,25 +1,56 @@
 import { withAuth, type NextRequestWithAuth } from 'next-auth/middleware';
 import { NextResponse, type NextFetchEvent, type NextRequest } from 'next/server';
+import { withoutBadCallbackCookies, isUsableCallbackUrl } from '@/lib/http/auth-inputs';
 import { pageContentSecurityPolicy } from '@/lib/http/security-headers';
 
 // Runs before every page and API request (not static files):
-//  - a method the app does not serve (TRACE, CONNECT, anything unknown) is 405 with the contract's error body;
-//  - API routes pass straight on (they answer 401 JSON themselves: a redirect is no answer for an API client);
+//  - a method the app does not serve is 405 with the contract's error body (TRACE, TRACK and CONNECT never
+//    reach this far: instrumentation.ts answers them);
+//  - an unparsable next-auth callback URL (cookie, or query of /api/auth) is dropped (lib/http/auth-inputs.ts);
+//  - API routes then pass straight on (they answer 401 JSON themselves: a redirect is no answer for an API client);
 //  - pages get a fresh nonce and the Content-Security-Policy that names it (Next.js puts the nonce on its
 //    own scripts when the request carries the policy), and all but the sign-in pages need a session.
 
 const METHODS = new Set(['GET', 'HEAD', 'POST', 'PUT', 'PATCH', 'DELETE', 'OPTIONS']);
 const PUBLIC_PAGES = /^\/(sign-in|sign-up|reset-password|invitations)(\/|$)/;
 
+/** The request headers with bad callback-url cookies removed, and the names removed. */
+function cleanHeaders(request: NextRequest): { headers: Headers; dropped: string[] } {
+  const headers = new Headers(request.headers);
+  const { header, dropped } = withoutBadCallbackCookies(request.headers.get('cookie'), request.nextUrl.origin);
+  if (dropped.length) {
+    if (header) headers.set('cookie', header);
+    else headers.delete('cookie');
+  }
+  return { headers, dropped };
+}
+
+function forgetCookies(response: NextResponse, names: string[]): NextResponse {
+  for (const name of names) response.cookies.set(name, '', { path: '/', maxAge: 0, secure: name.startsWith('__Secure-') });
+  return response;
+}
+
 function withPolicy(request: NextRequest): NextResponse {
+  const { headers, dropped } = cleanHeaders(request);
   const nonce = Buffer.from(crypto.randomUUID()).toString('base64');
   const policy = pageContentSecurityPolicy(nonce, { development: process.env.NODE_ENV === 'development' });
-  const headers = new Headers(request.headers);
   headers.set('x-nonce', nonce);
   headers.set('content-security-policy', policy);
   const response = NextResponse.next({ request: { headers } });
   response.headers.set('content-security-policy', policy);
-  return response;
+  return forgetCookies(response, dropped);
+}
+
+function api(request: NextRequest): NextResponse {
+  const { headers, dropped } = cleanHeaders(request);
+  const callbackUrl = request.nextUrl.searchParams.get('callbackUrl');
+  if (request.nextUrl.pathname.startsWith('/api/auth/') && callbackUrl !== null && !isUsableCallbackUrl(callbackUrl, request.nextUrl.origin)) {
+    const url = request.nextUrl.clone();
+    url.searchParams.delete('callbackUrl');
+    return forgetCookies(NextResponse.rewrite(url, { request: { headers } }), dropped);
+  }
+  if (!dropped.length) return NextResponse.next();
+  return forgetCookies(NextResponse.next({ request: { headers } }), dropped);
 }
 
 const signedInPage = withAuth((request: NextRequestWithAuth) => withPolicy(request), { pages: { signIn: '/sign-in' } });
@@ -32,7 +63,7 @@ export default async function proxy(request: NextRequest, event: NextFetchEvent)
     );
   }
   const { pathname } = request.nextUrl;
-  if (pathname === '/api' || pathname.startsWith('/api/')) return NextResponse.next();
+  if (pathname === '/api' || pathname.startsWith('/api/')) return api(request);
   if (PUBLIC_PAGES.test(pathname)) return withPolicy(request);
   return signedInPage(request as NextRequestWithAuth, event);
 }

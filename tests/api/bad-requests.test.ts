@@ -38,7 +38,8 @@ const ids: Record<string, string> = {};
 async function snapshot() {
   const sequelize = getSequelize();
   const tables = await sequelize.query<{ table_name: string }>(
-    "SELECT table_name FROM information_schema.tables WHERE table_schema = 'public' AND table_type = 'BASE TABLE' AND table_name NOT IN ('schema_migrations', 'rate_limits') ORDER BY table_name",
+    // ::text: information_schema's own identifier type comes back from pg as an array.
+    "SELECT table_name::text AS table_name FROM information_schema.tables WHERE table_schema = 'public' AND table_type = 'BASE TABLE' AND table_name NOT IN ('schema_migrations', 'rate_limits') ORDER BY table_name",
     { type: QueryTypes.SELECT },
   );
   const counts: Record<string, number> = {};

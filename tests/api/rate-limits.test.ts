@@ -7,6 +7,7 @@
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { closeSequelize, getSequelize } from '@/lib/db/sequelize';
 import { startAppInstance, type AppInstance } from '../support/app-instance';
+import { launchBrowser } from '../support/browser';
 import { ApiClient, appUrl } from '../support/http';
 import { sampleDocument } from '../support/sample-document';
 
@@ -77,9 +78,23 @@ describe('sign-in: 10 failures per account per 15 minutes', () => {
       // The sign-in form reads next-auth's url: error=rate_limited:<seconds> (components/auth/sign-in-form.tsx).
       expect(right.body.url).toMatch(/\/sign-in\?error=rate_limited:\d+$/);
     }
+    // The sign-in form says plainly when to try again.
+    const browser = await launchBrowser();
+    try {
+      const page = await browser.newPage({ extraHTTPHeaders: headers });
+      await page.goto(`${a.origin}/sign-in`);
+      await page.getByLabel('E-mail').fill(who);
+      await page.getByLabel('Password').fill('long-enough-password');
+      await page.getByRole('button', { name: 'Sign in' }).click();
+      const message = page.locator('form [role="alert"]');
+      await message.waitFor();
+      expect(await message.textContent()).toMatch(/Too many failed sign-ins\. Try again in 1[45] minutes \(at \d\d:\d\d/);
+    } finally {
+      await browser.close();
+    }
     await endWindow(`signInAccount:${who}`);
     expect((await new ApiClient(b.origin, headers).signInAttempt(who, 'long-enough-password')).signedIn).toBe(true);
-  });
+  }, 120_000);
 });
 
 describe('sign-in: 50 failures per client address per 15 minutes', () => {
