@@ -10,6 +10,9 @@ import { AppError } from '@/lib/errors';
 
 export const WRITE_METHODS = new Set(['POST', 'PUT', 'PATCH', 'DELETE']);
 
+/** Routes that take an upload as multipart/form-data (CONTRACT §6: `POST /api/datasets`). */
+export const MULTIPART_ROUTES: readonly RegExp[] = [/^\/api\/datasets\/?$/];
+
 export type RequestRules = {
   /** The route takes an upload as multipart/form-data (as well as JSON). */
   multipart?: boolean;
@@ -66,10 +69,11 @@ export function checkRequest(request: Request, rules: RequestRules = {}): void {
   if (!hasBody(request)) return;
   const type = mediaType(request);
   if (type === 'application/json') return;
-  if (rules.multipart && type === 'multipart/form-data') return;
+  const multipart = rules.multipart ?? (request.method.toUpperCase() === 'POST' && MULTIPART_ROUTES.some((pattern) => pattern.test(new URL(request.url).pathname)));
+  if (multipart && type === 'multipart/form-data') return;
   throw new AppError(
     'unsupported_media_type',
-    rules.multipart
+    multipart
       ? 'Send the body as application/json or multipart/form-data.'
       : 'Send the body as application/json (Content-Type: application/json).',
   );

@@ -101,7 +101,7 @@ describe('sheet pages a user may not see', () => {
 
 describe('methods', () => {
   it('should answer 405 with the contract error shape to TRACE and unknown methods, on pages and the API', async () => {
-    for (const [method, path] of [['TRACE', '/api/sheets'], ['TRACE', '/sheets'], ['TRACK', '/'], ['PROPFIND', '/api/teams'], ['PUT', '/api/sheets']]) {
+    for (const [method, path] of [['TRACE', '/api/sheets'], ['TRACE', '/sheets'], ['TRACE', '/'], ['PROPFIND', '/api/teams'], ['PUT', '/api/sheets']]) {
       const answer = await rawRequest({ method: method!, path: path! });
       expect(answer.status, `${method} ${path}`).toBe(405);
       expect(answer.body?.error?.code, `${method} ${path}`).toBe('method_not_allowed');

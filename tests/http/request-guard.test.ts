@@ -51,6 +51,12 @@ describe('checkRequest (request forgery and content types)', () => {
       expect(codeOf(() => checkRequest(request('POST', headers, '{}'))), type).toBe('415 unsupported_media_type');
     }
     expect(codeOf(() => checkRequest(request('POST', { 'content-type': 'multipart/form-data; boundary=x' }, '--x--'), { multipart: true }))).toBeNull();
+    // The contract's upload route takes multipart without saying so; its other methods and other routes do not.
+    const upload = (method: string, path: string) =>
+      new Request(`${APP}${path}`, { method, headers: { host: '127.0.0.1:3999', 'content-type': 'multipart/form-data; boundary=x', 'content-length': '5' }, body: '--x--' });
+    expect(codeOf(() => checkRequest(upload('POST', '/api/datasets')))).toBeNull();
+    expect(codeOf(() => checkRequest(upload('POST', '/api/datasets/abc')))).toBe('415 unsupported_media_type');
+    expect(codeOf(() => checkRequest(upload('PUT', '/api/datasets')))).toBe('415 unsupported_media_type');
   });
 
   it('should let a write without a body and any read through without a content type', () => {
