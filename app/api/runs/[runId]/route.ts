@@ -1,6 +1,6 @@
 import { requireUser } from '@/lib/auth/guard';
 import { cancelSheetRun, readSheetRun } from '@/lib/runs/service.server';
-import { json, parseWith, route, uuidParam } from '@/lib/http';
+import { json, notAllowed, parseWith, route, uuidParam } from '@/lib/http';
 
 type Context = { params: Promise<{ runId: string }> };
 
@@ -17,3 +17,5 @@ export const DELETE = route(async (_request, { params }: Context) => {
   const runId = parseWith(uuidParam, (await params).runId);
   return json(await cancelSheetRun({ runId, userId: user.id }));
 });
+
+export const { POST, PUT, PATCH } = notAllowed('GET, DELETE');
