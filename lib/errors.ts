@@ -11,7 +11,6 @@ export type ErrorCode =
   | 'limit_exceeded'
   | 'rate_limited'
   | 'method_not_allowed'
-  | 'unsupported_media_type'
   | 'forbidden_origin'
   | 'database_unavailable'
   | 'internal'
@@ -33,7 +32,6 @@ const STATUS: Record<ErrorCode, number> = {
   limit_exceeded: 422,
   rate_limited: 429,
   method_not_allowed: 405,
-  unsupported_media_type: 415,
   forbidden_origin: 403,
   database_unavailable: 503,
   internal: 500,
