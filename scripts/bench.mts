@@ -15,6 +15,7 @@
 import { loadavg } from 'node:os';
 import { all, create, type EvalFunction, type FactoryFunctionMap, type Unit } from 'mathjs';
 import { evaluateSheet, evaluateSheetIncremental, type SheetDocument } from '../lib/engine';
+import { benchDataBlocks } from './bench-data-blocks.mjs';
 import { benchUncertainty } from './bench-uncertainty.mjs';
 
 const BLOCKS = 500;
@@ -227,3 +228,6 @@ console.log(
 
 // Uncertainty: 10^4 samples × 20 blocks against N × the nominal evaluation; 10^5 samples through one scarp_age.
 benchUncertainty();
+
+// Data blocks: profile_evolution at the grid limit against a bare Thomas loop; 20,000-row scarp fits.
+benchDataBlocks();

@@ -184,7 +184,7 @@ export const profileEvolution: BlockTypeDefinition = {
   validity: [
     'Transport-limited hillslope: flux proportional to gradient (linear) or rising without bound toward S_c (nonlinear); uniform K in space and time; no uplift or base-level change at the ends.',
     'Accuracy for the linear step problem with fixed ends and W ≥ 6√(Kt): relative L2 error ≤ 0.02·dx²/(Kt) + 0.03·(dt/t)² (second order in dx and dt).',
-    `Grid limits: at most ${MAX_NODES} nodes, ${MAX_STEPS} steps and 2e8 nodes × steps.`,
+    `Grid limits: at most ${MAX_NODES} nodes, ${MAX_STEPS} steps and (nodes − 1) × steps ≤ 2e8.`,
   ],
   cautions: [
     'A measured profile carries its survey noise into the initial condition; diffusion smooths it first, so early slopes are not meaningful at the scale of the point spacing.',
@@ -412,7 +412,12 @@ function checkSize(nodes: number, steps: number): void {
   if (nodes > MAX_NODES) {
     throw new EngineError(`the grid would have ${nodes} nodes; the limit is ${MAX_NODES} nodes (use a larger dx or a narrower profile)`, { input: 'dx' });
   }
-  if (nodes * steps > MAX_NODE_STEPS) {
-    throw new EngineError(`nodes × steps = ${nodes} × ${steps} = ${nodes * steps}; the limit is nodes × steps ≤ 2e8 (use fewer steps or a larger dx)`, { input: 'steps' });
+  // The product limit counts grid intervals (nodes − 1), so that the largest grid, 20,001 nodes,
+  // runs 10,000 steps exactly at the limit (README: differences from the contract).
+  if ((nodes - 1) * steps > MAX_NODE_STEPS) {
+    throw new EngineError(
+      `nodes × steps = ${nodes} × ${steps} is above the limit: (nodes − 1) × steps must be ≤ 2e8, here ${(nodes - 1) * steps} (use fewer steps or a larger dx)`,
+      { input: 'steps' },
+    );
   }
 }

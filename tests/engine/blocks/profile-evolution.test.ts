@@ -207,7 +207,7 @@ describe('profile_evolution errors, limits and warnings (contract §4.2)', () =>
     [{ boundary: 'fixed' }, 'write the word in double quotes'],
     [{ dx: '0.001 m', half_width: '20 m' }, 'the limit is 20001 nodes'],
     [{ steps: '100001' }, `steps ≤ 100000`],
-    [{ dx: '0.01 m', half_width: '100 m', steps: '20000' }, 'nodes × steps ≤ 2e8'],
+    [{ dx: '0.01 m', half_width: '100 m', steps: '10001' }, '(nodes − 1) × steps must be ≤ 2e8'],
     [{ vertical_offset: '' }, 'vertical_offset: this input is required without data'],
   ])('should refuse %o', (extra, message) => {
     const result = run({ ...step, ...extra } as Record<string, string>);
