@@ -4,6 +4,7 @@ import dynamic from 'next/dynamic';
 import { memo, useEffect, useRef, useState, type DragEvent } from 'react';
 import { OpenCommentCount } from '@/components/comments/comments-panel';
 import { BlockStatusBadge, type BlockState } from '@/components/sheet/block-status';
+import { figureNames } from '@/lib/plot/data-block-plots';
 import { formatValue, locateMessage } from '@/lib/sheet/format';
 import { DISPLAY_UNIT_CHOICES } from '@/lib/sheet/vocabulary';
 import type { BlockResult, CatalogInput, CatalogType, SheetBlock } from '@/lib/sheet/types';
@@ -263,9 +264,9 @@ function BlockCardInner(props: BlockCardProps) {
           />
           <OutputSpreads blockName={block.name} result={result} labelOf={(name) => type?.outputs.find((o) => o.name === name)?.label ?? name} />
           {result?.series
-            ? Object.entries(result.series).filter(([name]) => !name.startsWith('hist_')).map(([name, series]) => (
+            ? figureNames(block.type, result.series).filter((name) => !name.startsWith('hist_')).map((name) => (
                 <div key={name} className={stale ? 'opacity-80' : undefined}>
-                  <SeriesFigure blockName={block.name} seriesName={name} series={series} outputs={result.outputs} />
+                  <SeriesFigure blockName={block.name} blockType={block.type} seriesName={name} series={result.series!} outputs={result.outputs} />
                 </div>
               ))
             : null}

@@ -2,7 +2,7 @@
 
 import * as Plot from '@observablehq/plot';
 import { useEffect, useRef, useState } from 'react';
-import { plotForSeries } from '@/lib/plot/series-plot';
+import { buildFigure } from '@/lib/plot/data-block-plots';
 import type { OutputValue, SeriesData } from '@/lib/sheet/types';
 
 /** Replaces CSS variables and currentColor with the computed colours, so a download looks the same. */
@@ -29,16 +29,22 @@ function download(name: string, blob: Blob) {
   setTimeout(() => URL.revokeObjectURL(url), 1000);
 }
 
-/** A block's series drawn with Observable Plot (rendered in an effect, removed on cleanup). */
+/**
+ * One figure of a block's series drawn with Observable Plot (rendered in an effect, removed on
+ * cleanup). `seriesName` names the figure (figureNames in lib/plot/data-block-plots: one per
+ * series, or a combined figure for the data blocks); `series` holds all of the block's series.
+ */
 export default function SeriesFigure({
   blockName,
+  blockType,
   seriesName,
   series,
   outputs,
 }: {
   blockName: string;
+  blockType: string;
   seriesName: string;
-  series: SeriesData;
+  series: Record<string, SeriesData>;
   /** The block's outputs, for marks at exact values (the transition, the forebulge). */
   outputs?: Record<string, OutputValue>;
 }) {
@@ -60,7 +66,7 @@ export default function SeriesFigure({
   useEffect(() => {
     const element = holder.current;
     if (!element) return;
-    const spec = plotForSeries(seriesName, series, { width: Math.max(280, Math.min(width, 900)) }, outputs);
+    const spec = buildFigure(blockType, seriesName, series, { width: Math.max(280, Math.min(width, 900)) }, outputs);
     const figure = Plot.plot(spec.options);
     // The figure is one image for assistive technology: the marks' own labels are dropped.
     figure.querySelectorAll('[aria-label], [aria-description]').forEach((node) => {
@@ -72,7 +78,7 @@ export default function SeriesFigure({
     element.append(figure);
     setCaption(spec.description);
     return () => figure.remove();
-  }, [blockName, seriesName, series, width, outputs]);
+  }, [blockName, blockType, seriesName, series, width, outputs]);
 
   const svgElement = () => holder.current?.querySelector('svg') ?? null;
   const fileName = `${blockName}-${seriesName}`;
