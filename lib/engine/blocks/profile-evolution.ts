@@ -4,6 +4,8 @@
  */
 import { BlockFailure, STANDING_CAUTION, type BlockOutcome, type BlockTypeDefinition, type InputValues, type OtherInputs, type Series } from '../block-type';
 import { EngineError } from '../errors';
+import type { Unit } from 'mathjs';
+import { checkExpression, math } from '../expression';
 import { evolveProfile, NonlinearFailure, steepestFace } from '../numerics/diffusion-1d';
 import { DATA_INPUT_HELP, SECONDS_PER_YEAR, median, short } from './data-shared';
 
@@ -221,6 +223,28 @@ export const profileEvolution: BlockTypeDefinition = {
   sampleRelation(nominal, other) {
     const { grid } = evolve(nominal, other);
     return (inputs, sampleOther) => evolve(inputs, sampleOther, grid).outcome;
+  },
+  // Long runs (CONTRACT §6b): one cost unit is about 0.1 ms; a linear node-step takes about
+  // 10 ns (DEVELOPERS.md, data-block bench), a nonlinear one about ten times that.
+  estimateCost({ inputs }) {
+    const literal = (name: string, unit: string): number | undefined => {
+      const text = inputs[name];
+      if (text === undefined || text.trim() === '') return undefined;
+      const checked = checkExpression(text);
+      if (checked.references.length > 0 || checked.freeSymbols.length > 0) return undefined;
+      const value = checked.evaluate(new Map());
+      if (typeof value === 'number') return value;
+      return math.isUnit(value) ? (value as Unit).toNumber(unit) : undefined;
+    };
+    const steps = literal('steps', '') ?? 100;
+    const dx = literal('dx', 'm');
+    const W = literal('half_width', 'm');
+    let nodes: number;
+    if (inputs.data !== undefined && inputs.data.trim() !== '') nodes = dx === undefined ? 2000 : MAX_NODES;
+    else if (dx !== undefined && W !== undefined && dx > 0) nodes = Math.min(MAX_NODES, 2 * Math.round(W / dx) + 1);
+    else nodes = 241; // the defaults: W = 6√(Kt), dx = √(Kt)/20
+    const nonlinear = inputs.critical_slope !== undefined && inputs.critical_slope.trim() !== '' ? 10 : 1;
+    return (nodes * steps * nonlinear) / 1e4;
   },
   sampleCost(nominal, _other, outcome) {
     const nodes = 'si' in outcome.outputs.nodes! ? outcome.outputs.nodes.si : 0;

@@ -263,3 +263,14 @@ describe('profile_evolution errors, limits and warnings (contract §4.2)', () =>
     expect(x[1]! - x[0]!).toBeCloseTo(0.012, 12);
   });
 });
+
+describe('profile_evolution cost estimate (long runs, CONTRACT §6b)', () => {
+  it('should put the grid limit at the synchronous limit and small grids far below it', async () => {
+    const { estimateEvaluationCost, SYNC_COST_LIMIT } = await import('@/lib/engine/cost');
+    const doc = (inputs: Record<string, string>): SheetDocument => ({ format: 'denudata-sheet@1', title: 'c', blocks: [{ id: 'e', name: 'evo', type: 'profile_evolution', inputs }] });
+    const limit = estimateEvaluationCost(doc({ diffusivity: '1 m^2/kyr', duration: '10 kyr', vertical_offset: '2 m', half_width: '100 m', dx: '1 cm', steps: '10000' }));
+    expect(limit).toBeCloseTo(20001 * 10000 / 1e4, 6);
+    expect(limit).toBeGreaterThan(SYNC_COST_LIMIT);
+    expect(estimateEvaluationCost(doc({ diffusivity: '1 m^2/kyr', duration: '10 kyr', vertical_offset: '2 m' }))).toBeLessThan(SYNC_COST_LIMIT / 100);
+  });
+});
