@@ -13,6 +13,7 @@ import { NoteMarkdown } from './note-markdown';
 import { ErrorText } from '@/components/ui/error-text';
 import { DatasetPicker } from '@/components/datasets/dataset-picker';
 import { OutputSpreads } from '@/components/uncertainty/output-spreads';
+import { countRender } from './render-probe';
 
 // CodeMirror and Plot load only on pages that show fields and plots.
 const ExpressionField = dynamic(() => import('./expression-field'), {
@@ -74,6 +75,7 @@ const iconButton =
 
 function BlockCardInner(props: BlockCardProps) {
   const { block, type, result, state, stale, selected, canEdit, actions } = props;
+  countRender(block.id);
   const sectionRef = useRef<HTMLElement>(null);
   const [dragOver, setDragOver] = useState(false);
   const isNote = block.type === 'note';

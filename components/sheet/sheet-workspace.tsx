@@ -29,6 +29,8 @@ import {
   setInput,
   setNote,
 } from '@/lib/sheet/document-edits';
+import { ApiError, apiFetch } from '@/lib/api-client';
+import { sameJson } from '@/lib/sheet/merge';
 import { withTitleSite } from '@/lib/sheet/title-site';
 import type { BlockCatalogData, BlockResult, CatalogType, SheetDocument, UncertaintySettingsData } from '@/lib/sheet/types';
 import type { BlockState } from './block-status';
@@ -38,8 +40,9 @@ import { SideRail, type RailPanel } from './side-rail';
 import { TitleSiteForm } from './title-site-form';
 import { UncertaintySettings, withUncertainty } from '@/components/uncertainty/uncertainty-settings';
 import { useUncertaintyCommands } from '@/components/uncertainty/use-uncertainty-commands';
-import { useSheetDraft, type SaveState } from './use-sheet-draft';
 import { RunProgress } from '@/components/runs/run-progress';
+import { SaveIndicator } from './save-indicator';
+import { useSheetDraft } from './use-sheet-draft';
 
 // The dialogs load when first opened, so their code stays out of the page's first download.
 const SaveRevisionDialog = dynamic(() => import('@/components/history/save-revision-dialog').then((m) => m.SaveRevisionDialog), { ssr: false });
@@ -75,33 +78,6 @@ export interface SheetWorkspaceProps {
   extraPanels?: RailPanel[];
 }
 
-function SaveIndicator({ state, evaluating, evaluateError }: { state: SaveState; evaluating: boolean; evaluateError: string | null }) {
-  const text =
-    state.kind === 'read-only'
-      ? 'Read-only for your role'
-      : state.kind === 'saved'
-        ? 'All edits saved'
-        : state.kind === 'pending'
-          ? 'Edits not yet saved'
-          : state.kind === 'saving'
-            ? 'Saving…'
-            : state.kind === 'retrying'
-              ? `Save failed (${state.message}); retrying in ${state.inSeconds} s`
-              : state.kind === 'invalid'
-                ? `Not saved: ${state.message}`
-                : 'Not saved: someone else saved first';
-  const tone = state.kind === 'invalid' || state.kind === 'conflict' ? 'text-oxide' : state.kind === 'retrying' ? 'text-clay' : 'text-slate';
-  return (
-    <p role="status" className={`text-[12px] ${tone}`} data-testid="save-state" data-kind={state.kind}>
-      {text}
-      {evaluating ? <span className="text-river"> · evaluating…</span> : null}
-      {evaluateError ? <span className="text-oxide"> · {evaluateError}</span> : null}
-    </p>
-  );
-}
-
-const same = (a: unknown, b: unknown) => JSON.stringify(a) === JSON.stringify(b);
-
 export function SheetWorkspace({
   sheetId,
   teamId,
@@ -126,7 +102,7 @@ export function SheetWorkspace({
   const canComment = roleAllows(role, 'comment');
   const canFork = forkTeams.length > 0;
   const draft = useSheetDraft({ sheetId, initialVersion: initial.version, initialDocument: initial.document, canEdit });
-  const { doc, apply } = draft;
+  const { doc, apply, setNotice } = draft;
   const docRef = useRef(doc);
   docRef.current = doc;
   const [selectedId, setSelectedId] = useState<string | null>(doc.blocks[0]?.id ?? null);
@@ -147,11 +123,19 @@ export function SheetWorkspace({
   selectedRef.current = selectedId;
 
   const types = useMemo(() => new Map(catalog.types.map((t) => [t.id, t])), [catalog]);
-  const resultsById = useMemo(() => {
-    const map = new Map<string, BlockResult>();
-    for (const r of Object.values(draft.results?.blocks ?? {})) map.set(r.id, r);
-    return map;
-  }, [draft.results]);
+  // A block's result keeps its identity while its content is unchanged, so an evaluation re-renders only
+  // the cards whose results changed (the server sends every result afresh).
+  const [resultsById, setResultsById] = useState(() => new Map<string, BlockResult>());
+  const [resultsSeen, setResultsSeen] = useState(draft.results);
+  if (resultsSeen !== draft.results) {
+    setResultsSeen(draft.results);
+    const next = new Map<string, BlockResult>();
+    for (const r of Object.values(draft.results?.blocks ?? {})) {
+      const previous = resultsById.get(r.id);
+      next.set(r.id, previous && sameJson(previous, r) ? previous : r);
+    }
+    setResultsById(next);
+  }
 
   const stateOf = (blockId: string, type: string): BlockState | null => {
     if (type === 'note') return null;
@@ -207,10 +191,10 @@ export function SheetWorkspace({
       apply(removeBlock(current, id));
       const next = current.blocks[index + 1] ?? current.blocks[index - 1];
       setSelectedId(next?.id ?? null);
-      draft.setNotice(`Deleted block ${block.name}. Undo with Ctrl+Z.`);
+      setNotice(`Deleted block ${block.name}. Undo with Ctrl+Z.`);
       if (next) focusBlock(next.id);
     },
-    [apply, draft, focusBlock],
+    [apply, setNotice, focusBlock],
   );
 
   const duplicate = useCallback(
@@ -229,16 +213,11 @@ export function SheetWorkspace({
       const local = precheckBlockName(docRef.current, name, id);
       if (local) return local;
       try {
-        const response = await fetch('/api/block-name', {
-          method: 'POST',
-          headers: { 'content-type': 'application/json' },
-          body: JSON.stringify({ name }),
-        });
-        const body = await response.json();
-        if (!response.ok) return body?.error?.message ?? 'The name could not be checked.';
-        if (body.message) return body.message as string;
-      } catch {
-        return 'The name could not be checked (network). Try again.';
+        const body = await apiFetch<{ message?: string | null } | null>('/api/block-name', { body: { name } });
+        if (body?.message) return body.message;
+      } catch (error) {
+        if (!(error instanceof ApiError) || error.status === 0) return 'The name could not be checked (network). Try again.';
+        return error.code === 'error' ? 'The name could not be checked.' : error.message;
       }
       apply(renameBlock(docRef.current, id, name));
       setRenamingId(null);
@@ -290,11 +269,11 @@ export function SheetWorkspace({
     (saved: { number: number; hash: string }, savedDocument: unknown) => {
       setSavedHead(saved.number);
       // After a 409 the saved document is the user's edits re-applied on the newest revision: the draft follows it.
-      if (!same(savedDocument, docRef.current)) apply(savedDocument as SheetDocument);
-      draft.setNotice(`Saved revision r${saved.number} (${saved.hash.slice(0, 10)}). It starts unsigned: ask for a check in the sign-off bar.`);
+      if (!sameJson(savedDocument, docRef.current)) apply(savedDocument as SheetDocument);
+      setNotice(`Saved revision r${saved.number} (${saved.hash.slice(0, 10)}). It starts unsigned: ask for a check in the sign-off bar.`);
       router.refresh();
     },
-    [apply, draft, router],
+    [apply, setNotice, router],
   );
 
   const exportHead = useCallback(() => {
@@ -320,19 +299,14 @@ export function SheetWorkspace({
         return;
       }
       try {
-        const response = await fetch('/api/sheets/import', {
-          method: 'POST',
-          headers: { 'content-type': 'application/json' },
-          body: JSON.stringify({ document: parsed, teamId }),
-        });
-        const body = (await response.json().catch(() => null)) as { sheet?: { id: string }; error?: { message: string } } | null;
-        if (response.status === 201 && body?.sheet) {
-          router.push(`/sheets/${body.sheet.id}`);
+        const body = await apiFetch<{ sheet: { id: string } }>('/api/sheets/import', { body: { document: parsed, teamId } });
+        router.push(`/sheets/${body.sheet.id}`);
+      } catch (error) {
+        if (!(error instanceof ApiError) || error.status === 0) {
+          setTransferError('The server could not be reached; nothing was imported. Try again.');
           return;
         }
-        setTransferError(`“${file.name}” was not imported: ${body?.error?.message ?? `the server answered ${response.status}`}.`);
-      } catch {
-        setTransferError('The server could not be reached; nothing was imported. Try again.');
+        setTransferError(`“${file.name}” was not imported: ${error.code === 'error' ? `the server answered ${error.status}` : error.message}.`);
       }
     },
     [router, teamId],
@@ -355,7 +329,9 @@ export function SheetWorkspace({
     }),
     [catalog, types],
   );
-  const completions = useMemo(() => new Map(doc.blocks.map((b) => [b.id, completionFor(b.id)])), [doc.blocks, completionFor]);
+  // One completion source per block id; it reads the current document when asked, so edits never replace it.
+  const blockIds = doc.blocks.map((b) => b.id).join(' ');
+  const completions = useMemo(() => new Map(blockIds.split(' ').map((id) => [id, completionFor(id)])), [blockIds, completionFor]);
 
   /* ------------------------------------------------------------------- palette */
   const selectedBlock = doc.blocks.find((b) => b.id === selectedId) ?? null;

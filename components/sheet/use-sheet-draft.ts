@@ -248,6 +248,9 @@ export function useSheetDraft({
     [adopt, canEdit, setHistory],
   );
 
+  const undo = useCallback(() => travel('undo'), [travel]);
+  const redo = useCallback(() => travel('redo'), [travel]);
+
   const evaluateNow = useCallback(() => {
     if (canEdit && !same(docRef.current, baseDocRef.current)) {
       if (timer.current) clearTimeout(timer.current);
@@ -377,8 +380,8 @@ export function useSheetDraft({
     canUndo: history.past.length > 0,
     canRedo: history.future.length > 0,
     apply,
-    undo: () => travel('undo'),
-    redo: () => travel('redo'),
+    undo,
+    redo,
     evaluateNow,
     reapplyMine,
     keepTheirs,
