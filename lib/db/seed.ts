@@ -7,6 +7,9 @@ import { DEMO_DATASETS, demoDataset } from '@/lib/demo/datasets';
 import { datasetReferences } from '@/lib/datasets/references';
 import { ENGINE_VERSION, evaluateSheet, hashSheetDocument, parseSheetDocument } from '@/lib/engine';
 import { DEMO_SHEETS } from '@/lib/demo/sheets';
+import { DEMO_DATA_SHEET, DEMO_DATASETS as DEMO_DATA_SHEET_DATASETS } from '@/lib/demo/data-sheets';
+import { canonicalCsv } from '@/lib/datasets/canonical';
+import { canonicalDatasetJson } from '@/lib/engine/dataset';
 import { db } from './index';
 import { siteColumns } from './sheets';
 import { hashPassword } from './users';
@@ -59,7 +62,8 @@ export async function seedDemo(): Promise<{ users: number; sheets: number }> {
     }
     const users = demoAuthors(byRole);
     const lookup = await seedDemoDatasets({ teamId: team.id, uploader: users.editor }, transaction);
-    for (const [index, demo] of DEMO_SHEETS.entries()) {
+    // The sheet of surveyed data (fitted scarp, evolved profile, marched reach) comes after the others.
+    for (const [index, demo] of [...DEMO_SHEETS, DEMO_DATA_SHEET].entries()) {
       await Sheet.findOrCreate({
         where: { id: demoSheetId(index) },
         defaults: {
@@ -78,7 +82,7 @@ export async function seedDemo(): Promise<{ users: number; sheets: number }> {
       });
       await seedDemoRevision({ index, document: demo.document, users, lookup }, transaction);
     }
-    return { users: DEMO_ACCOUNTS.length, sheets: DEMO_SHEETS.length };
+    return { users: DEMO_ACCOUNTS.length, sheets: DEMO_SHEETS.length + 1 };
   });
 }
 
@@ -116,6 +120,33 @@ async function seedDemoDatasets(
       transaction,
     });
     lookup.set(dataset.sha256, dataset.canonical);
+  }
+  // The datasets of the surveyed-data sheet, kept in canonical form; their original is the canonical CSV.
+  for (const entry of DEMO_DATA_SHEET_DATASETS) {
+    const canonicalJson = canonicalDatasetJson(entry.canonical);
+    const original = Buffer.from(canonicalCsv(entry.canonical), 'utf8');
+    await Dataset.findOrCreate({
+      where: { teamId, sha256: entry.sha256 },
+      defaults: {
+        teamId,
+        sha256: entry.sha256,
+        kind: entry.canonical.kind,
+        name: entry.name,
+        description: entry.description,
+        columns: entry.canonical.columns,
+        canonical: canonicalJson,
+        canonicalBytes: Buffer.byteLength(canonicalJson, 'utf8'),
+        rowCount: entry.canonical.rows.length,
+        original,
+        originalSha256: createHash('sha256').update(original).digest('hex'),
+        originalFilename: `${entry.canonical.kind}-${entry.sha256.slice(0, 12)}.csv`,
+        byteSize: original.byteLength,
+        createdBy: uploader.id,
+        createdAt: new Date(Date.UTC(2026, 10, 2, 16, 30)),
+      },
+      transaction,
+    });
+    lookup.set(entry.sha256, entry.canonical);
   }
   return lookup;
 }

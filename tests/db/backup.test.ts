@@ -8,6 +8,7 @@ import { afterAll, describe, expect, it } from 'vitest';
 import { seedDemo } from '@/lib/db/seed';
 import { closeSequelize, getSequelize } from '@/lib/db/sequelize';
 import { evaluateSheet, hashSheetDocument, type SheetDocument, type SheetResults } from '@/lib/engine';
+import type { DatasetCanonical } from '@/lib/engine/dataset';
 
 interface StoredRevision {
   sheet_id: string;
@@ -61,11 +62,14 @@ describe('npm run backup and npm run restore', () => {
     const [changed] = await getSequelize().query<{ n: string }>(`SELECT count(*) AS n FROM sheets WHERE title = 'Changed after the backup'`, { type: QueryTypes.SELECT });
     expect(Number(changed!.n)).toBe(0);
     expect(after.map((r) => `${r.sheet_id}:${r.number}:${r.hash}`)).toEqual(before.map((r) => `${r.sheet_id}:${r.number}:${r.hash}`));
+    // Datasets are restored too, so revisions that refer to measured data re-evaluate as well.
+    const stored = await getSequelize().query<{ sha256: string; canonical: string }>('SELECT sha256, canonical FROM datasets', { type: QueryTypes.SELECT });
+    const datasets = new Map(stored.map((d) => [d.sha256, JSON.parse(d.canonical) as DatasetCanonical]));
     for (const revision of after) {
       expect(hashSheetDocument(revision.document)).toBe(revision.hash);
       if (revision.results === null) continue; // a revision whose long run has not finished
       // Canonical JSON (RFC 8785): JSONB keeps every value exactly but not key order.
-      expect(canonicalize(evaluateSheet(revision.document))).toBe(canonicalize(revision.results));
+      expect(canonicalize(evaluateSheet(revision.document, { datasets }))).toBe(canonicalize(revision.results));
     }
   });
 
