@@ -32,7 +32,6 @@ export function PaletteButton() {
     <button
       type="button"
       onClick={() => open()}
-      aria-label="Commands (Ctrl K)"
       className="flex h-8 items-center gap-2 rounded-[3px] border border-rule bg-chalk px-2 text-[12px] text-slate hover:text-basalt"
     >
       Commands

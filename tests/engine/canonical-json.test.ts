@@ -34,7 +34,7 @@ describe('canonicalSheetJson', () => {
     site: { name: 'Harrow Vale test pit', latitude: -12.5, longitude: 130.25, notes: 'line\nbreak' },
     blocks: [
       { id: 'q', name: 'q', type: 'quantities', inputs: { zeta: '1 m', Alpha: '2 s', alpha: '3 kg', K: '', C: '4 degC' }, display: { zeta: 'km', alpha: 'g' } },
-      { id: 'n', name: 'story', type: 'note', inputs: {}, note: '# Heading\n\n*é* \u0007' },
+      { id: 'n', name: 'story', type: 'note', inputs: {}, note: '# Heading\n\n*é*\tafter a tab (a control character the text schema allows)' },
       { id: 'f\u00e9', name: 'f1', type: 'formula', inputs: { expr: 'q.zeta * 2' }, note: 'caption', display: { value: 'mm' } },
       { id: '10', name: 'f2', type: 'formula', inputs: { expr: '"text with \\"escapes\\""' } },
     ],
