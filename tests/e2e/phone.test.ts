@@ -20,7 +20,8 @@ describe('the sheet on a phone', () => {
   it('should fit 390 px with no sideways scroll, and reach the rail and the palette by touch', async () => {
     const { context, page } = await signedInPage(browser, 'reviewer@demo.test', { viewport: { width: 390, height: 844 }, hasTouch: true, isMobile: true });
     try {
-      await page.goto(`${appUrl()}/sheets/${DEMO_SHEET}`);
+      // The working draft: a reviewer otherwise lands on the latest approved (or newest) revision.
+      await page.goto(`${appUrl()}/sheets/${DEMO_SHEET}?draft=1`);
       await settled(page);
       const overflow = await page.evaluate(() => document.documentElement.scrollWidth - document.documentElement.clientWidth);
       expect(overflow).toBeLessThanOrEqual(0);
