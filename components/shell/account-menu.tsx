@@ -30,7 +30,7 @@ export function AccountMenu({ name, email }: { name: string; email: string }) {
         <span aria-hidden="true" className="grid size-6 place-items-center rounded-full bg-wash text-[11px] font-semibold">
           {name.slice(0, 1).toUpperCase()}
         </span>
-        <span className="hidden sm:inline">{name}</span>
+        <span className="sr-only sm:not-sr-only">{name}</span>
       </button>
       {open ? (
         <div role="menu" className="absolute right-0 z-30 mt-1 w-56 rounded-[4px] border border-rule bg-chalk p-1 shadow-lg">

@@ -77,6 +77,7 @@ describe('calculation report page, the approved version in view and review notes
   it('should carry the "not approved" banner on the report of an unapproved revision', async () => {
     const page = await pageAs('reviewer');
     await page.goto(`${appUrl()}/sheets/${returnedId}/revisions/1/report`);
+    await page.locator('article.report').waitFor({ timeout: 30_000 });
     await page.emulateMedia({ media: 'print' });
     await page.screenshot({ path: path.join(SHOTS, 'report-print-unapproved.png'), fullPage: true });
     expect(await page.getByText('Not approved: for checking only').isVisible()).toBe(true);
