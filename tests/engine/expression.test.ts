@@ -80,10 +80,11 @@ describe('expression', () => {
     ];
 
     for (const [label, expr, pattern] of hostile) {
-      it(`should refuse ${label} in well under a second`, () => {
+      it(`should refuse ${label} by a check, well before the 5 s time limit`, () => {
         const { message, ms } = refusal(expr);
         expect(message).toMatch(pattern);
-        expect(ms).toBeLessThan(500);
+        // Refused by the parser's checks, not by running out of time: far under the limit even on a busy machine.
+        expect(ms).toBeLessThan(2000);
       });
     }
 
