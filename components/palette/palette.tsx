@@ -1,15 +1,15 @@
 'use client';
 
 import { Command, defaultFilter } from 'cmdk';
-import { useRouter } from 'next/navigation';
 import { useQuery, useQueryClient } from '@tanstack/react-query';
-import { useCallback, useEffect, useMemo, useRef, useState, type ReactNode } from 'react';
-import { toggleTheme } from '@/lib/ui/theme';
+import { useCallback, useEffect, useMemo, useState, type ReactNode } from 'react';
 import { formatNumber } from '@/lib/sheet/format';
 import { Button } from '@/components/ui/button';
 import type { QuickAnswer, QuickRecord } from '@/lib/sheet/types';
-import { RegistryProvider, useCommandRegistry, useRegistrySnapshot, type PaletteCommand } from './command-registry';
-import { FIXED_SHORTCUTS, isTypingTarget } from './shortcuts';
+import { GlobalCommands } from './global-commands';
+import { ShortcutsSheet } from './shortcuts-sheet';
+import { RegistryProvider, useRegistrySnapshot, type PaletteCommand } from './command-registry';
+import { isTypingTarget } from './shortcuts';
 import { isRiskyCommand, needsConfirmation, riskyCommandScore } from './command-safety';
 
 const LOOKS_LIKE_EXPRESSION = /[0-9(]/;
@@ -80,26 +80,6 @@ export function PaletteProvider({ children }: { children: ReactNode }) {
       {shortcutsOpen ? <ShortcutsSheet onClose={() => setShortcutsOpen(false)} /> : null}
     </RegistryProvider>
   );
-}
-
-function GlobalCommands() {
-  const router = useRouter();
-  const { register, unregister, showShortcuts } = useCommandRegistry();
-  const commands = useMemo<PaletteCommand[]>(
-    () => [
-      { id: 'theme', title: 'Switch theme (light / dark)', group: 'General', keywords: ['dark', 'light', 'colour', 'appearance'], run: () => toggleTheme() },
-      { id: 'shortcuts', title: 'Show keyboard shortcuts', group: 'General', keywords: ['keys', 'help'], shortcut: '?', run: showShortcuts },
-      { id: 'go-sheets', title: 'Go to all sheets', group: 'Go to', keywords: ['index', 'list'], run: () => router.push('/sheets') },
-      { id: 'go-datasets', title: 'Go to datasets (measured profiles)', group: 'Go to', keywords: ['csv', 'upload', 'survey', 'profile', 'data'], run: () => router.push('/datasets') },
-      { id: 'go-team', title: 'Go to team and members', group: 'Go to', keywords: ['members', 'roles'], run: () => router.push('/team') },
-    ],
-    [router, showShortcuts],
-  );
-  useEffect(() => {
-    register('global', commands);
-    return () => unregister('global');
-  }, [commands, register, unregister]);
-  return null;
 }
 
 const GROUP_ORDER = ['Sheet', 'Block', 'Review', 'Revisions', 'Add block', 'Go to', 'General'];
@@ -328,62 +308,4 @@ function commandValue(command: PaletteCommand): string {
 // cmdk's own scoring, kept for every entry but the quick result.
 function defaultScore(value: string, search: string, keywords?: string[]): number {
   return defaultFilter(value, search, keywords);
-}
-
-function ShortcutsSheet({ onClose }: { onClose: () => void }) {
-  const { commands } = useRegistrySnapshot();
-  const closeRef = useRef<HTMLButtonElement>(null);
-  useEffect(() => {
-    const previous = document.activeElement as HTMLElement | null;
-    closeRef.current?.focus();
-    const onKey = (event: KeyboardEvent) => {
-      if (event.key === 'Escape') {
-        event.preventDefault();
-        onClose();
-      }
-    };
-    window.addEventListener('keydown', onKey);
-    return () => {
-      window.removeEventListener('keydown', onKey);
-      previous?.focus?.();
-    };
-  }, [onClose]);
-  const rows = [
-    ...FIXED_SHORTCUTS,
-    ...commands.filter((c) => c.shortcut).map((c) => ({ keys: c.shortcut!, action: c.title, group: c.group })),
-  ];
-  const groups = [...new Set(rows.map((r) => r.group))];
-  return (
-    <div className="fixed inset-0 z-50 grid place-items-center bg-basalt/30 p-3" onMouseDown={(e) => e.target === e.currentTarget && onClose()}>
-      <div role="dialog" aria-modal="true" aria-labelledby="shortcuts-title" className="max-h-[85vh] w-[min(560px,100%)] overflow-y-auto rounded-[6px] border border-rule bg-chalk p-4 shadow-2xl">
-        <div className="mb-2 flex items-center justify-between">
-          <h2 id="shortcuts-title" className="text-[16px] font-semibold">
-            Keyboard shortcuts
-          </h2>
-          <button ref={closeRef} type="button" onClick={onClose} className="h-7 rounded-[3px] border border-rule px-2 text-[12px] hover:bg-wash">
-            Close
-          </button>
-        </div>
-        {groups.map((group) => (
-          <section key={group} className="mt-3">
-            <h3 className="text-[12px] font-semibold uppercase tracking-wide text-slate">{group}</h3>
-            <table className="mt-1 w-full text-[13px]">
-              <tbody>
-                {rows
-                  .filter((r) => r.group === group)
-                  .map((r) => (
-                    <tr key={`${r.keys}-${r.action}`} className="border-b border-rule last:border-0">
-                      <td className="w-40 py-1 pr-3 align-top">
-                        <kbd className="palette-kbd">{r.keys}</kbd>
-                      </td>
-                      <td className="py-1">{r.action}</td>
-                    </tr>
-                  ))}
-              </tbody>
-            </table>
-          </section>
-        ))}
-      </div>
-    </div>
-  );
 }

@@ -5,6 +5,8 @@ import { useCallback, useEffect, useRef, useState } from 'react';
 import { changedBlockIds, dependentsOf } from '@/lib/sheet/document-edits';
 import { mergeSheets, sameJson as same } from '@/lib/sheet/merge';
 import type { SheetDocument, SheetResults } from '@/lib/sheet/types';
+import { coalesceHistory, pushHistory, travelHistory, type DraftHistory } from './draft-history';
+import { readPending, writePending } from './draft-storage';
 
 export type SaveState =
   | { kind: 'saved' }
@@ -22,34 +24,7 @@ export interface Conflict {
   restored: boolean;
 }
 
-interface PendingEdits {
-  baseVersion: number;
-  baseDocument: SheetDocument;
-  document: SheetDocument;
-  at: string;
-}
-
-const storageKey = (sheetId: string) => `denudata-draft:${sheetId}`;
 const SAVE_DELAY_MS = 600;
-const HISTORY_LIMIT = 200;
-
-function readPending(sheetId: string): PendingEdits | null {
-  try {
-    const text = localStorage.getItem(storageKey(sheetId));
-    return text ? (JSON.parse(text) as PendingEdits) : null;
-  } catch {
-    return null;
-  }
-}
-
-function writePending(sheetId: string, pending: PendingEdits | null) {
-  try {
-    if (pending) localStorage.setItem(storageKey(sheetId), JSON.stringify(pending));
-    else localStorage.removeItem(storageKey(sheetId));
-  } catch {
-    // storage full or blocked: the edit still lives in memory and is saved to the server
-  }
-}
 
 async function fetchJson(url: string, init?: RequestInit) {
   const response = await fetch(url, init);
@@ -82,9 +57,9 @@ export function useSheetDraft({
   const [saveState, setSaveState] = useState<SaveState>(canEdit ? { kind: 'saved' } : { kind: 'read-only' });
   const [conflict, setConflict] = useState<Conflict | null>(null);
   const [notice, setNotice] = useState<string | null>(null);
-  const [history, setHistoryState] = useState<{ past: SheetDocument[]; future: SheetDocument[] }>({ past: [], future: [] });
+  const [history, setHistoryState] = useState<DraftHistory<SheetDocument>>({ past: [], future: [] });
   const historyRef = useRef(history);
-  const setHistory = useCallback((change: (h: { past: SheetDocument[]; future: SheetDocument[] }) => { past: SheetDocument[]; future: SheetDocument[] }) => {
+  const setHistory = useCallback((change: (h: DraftHistory<SheetDocument>) => DraftHistory<SheetDocument>) => {
     historyRef.current = change(historyRef.current);
     setHistoryState(historyRef.current);
   }, []);
@@ -222,8 +197,8 @@ export function useSheetDraft({
       const now = Date.now();
       const coalesce = options.coalesce && lastCoalesce.current?.key === options.coalesce && now - lastCoalesce.current.at < 1500;
       lastCoalesce.current = options.coalesce ? { key: options.coalesce, at: now } : null;
-      if (!coalesce) setHistory((h) => ({ past: [...h.past, before].slice(-HISTORY_LIMIT), future: [] }));
-      else setHistory((h) => ({ past: h.past, future: [] }));
+      if (!coalesce) setHistory((h) => pushHistory(h, before));
+      else setHistory(coalesceHistory);
       adopt(before, next);
     },
     [adopt, canEdit, setHistory],
@@ -232,18 +207,12 @@ export function useSheetDraft({
   const travel = useCallback(
     (direction: 'undo' | 'redo') => {
       if (!canEdit) return;
-      const h = historyRef.current;
-      const from = direction === 'undo' ? h.past : h.future;
-      if (from.length === 0) return;
-      const target = from[from.length - 1]!;
       const current = docRef.current;
-      setHistory(() =>
-        direction === 'undo'
-          ? { past: h.past.slice(0, -1), future: [...h.future, current] }
-          : { past: [...h.past, current], future: h.future.slice(0, -1) },
-      );
+      const step = travelHistory(historyRef.current, direction, current);
+      if (!step) return;
+      setHistory(() => step.history);
       lastCoalesce.current = null;
-      adopt(current, target);
+      adopt(current, step.target);
     },
     [adopt, canEdit, setHistory],
   );
@@ -274,7 +243,7 @@ export function useSheetDraft({
     docRef.current = document;
     editCounter.current += 1;
     setDoc(document);
-    setHistory((h) => ({ past: [...h.past, before].slice(-HISTORY_LIMIT), future: [] }));
+    setHistory((h) => pushHistory(h, before));
     markChanged(current.serverDocument, document);
     setStale((s) => new Set([...s, ...document.blocks.map((b) => b.id)]));
     setNotice(
@@ -302,7 +271,7 @@ export function useSheetDraft({
     docRef.current = current.serverDocument;
     editCounter.current += 1;
     setDoc(current.serverDocument);
-    setHistory((h) => ({ past: [...h.past, before].slice(-HISTORY_LIMIT), future: [] }));
+    setHistory((h) => pushHistory(h, before));
     setStale(new Set(current.serverDocument.blocks.map((b) => b.id)));
     writePending(sheetId, null);
     setSaveState({ kind: 'saved' });
