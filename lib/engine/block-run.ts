@@ -75,7 +75,7 @@ function plausibilityWarnings(typeId: string, spec: InputSpec, value: unknown, q
     return warnings;
   }
   const range = typicalRange(typeId, spec.name);
-  if (range && isImplausible(range, quantity.si)) {
+  if (range && !range.warnedByType && isImplausible(range, quantity.si)) {
     warnings.push(
       `${spec.name} = ${describeValue(value)} is more than 100 times outside the typical range ${range.text} (${range.source}): check the value and its unit`,
     );
