@@ -82,7 +82,7 @@ describe('plausibility warnings', () => {
       let count = 0;
       for (const c of dataCases.cases as unknown as DataCase[]) {
         if (!c.sheet) continue;
-        const results = evaluateSheet(c.sheet, undefined, { datasets: caseDatasets(c) });
+        const results = evaluateSheet(c.sheet, { datasets: caseDatasets(c) });
         for (const [name, result] of Object.entries(results.blocks)) {
           expect(result.warnings.filter((w) => PLAUSIBILITY.test(w)), `${c.id} ${name}: ${c.source}`).toEqual([]);
           count++;
