@@ -43,6 +43,16 @@ export class Membership extends Model<InferAttributes<Membership>, InferCreation
   declare updatedAt: CreationOptional<Date>;
 }
 
+/** Display preferences of a sheet, outside its document (CONTRACT §6b); absent means the defaults. */
+export class SheetPreference extends Model<InferAttributes<SheetPreference>, InferCreationAttributes<SheetPreference>> {
+  declare sheetId: string;
+  declare significantFigures: CreationOptional<number>;
+  declare siFolded: CreationOptional<boolean>;
+  declare updatedBy: ForeignKey<User['id']> | null;
+  declare createdAt: CreationOptional<Date>;
+  declare updatedAt: CreationOptional<Date>;
+}
+
 export class Sheet extends Model<InferAttributes<Sheet>, InferCreationAttributes<Sheet>> {
   declare id: CreationOptional<string>;
   declare teamId: ForeignKey<Team['id']>;
@@ -187,6 +197,7 @@ export function initModels(sequelize: Sequelize): void {
     password_resets: 'PasswordReset',
     quick_calculations: 'QuickCalculation',
     audit_log: 'AuditEntry',
+    sheet_preferences: 'SheetPreference',
   };
   const opts = (tableName: string, timestamps: 'both' | 'created' = 'both') => ({
     modelName: MODEL_NAMES[tableName],
@@ -359,6 +370,18 @@ export function initModels(sequelize: Sequelize): void {
     opts('audit_log', 'created'),
   );
 
+  SheetPreference.init(
+    {
+      sheetId: { type: DataTypes.UUID, primaryKey: true },
+      significantFigures: { type: DataTypes.SMALLINT, allowNull: false, defaultValue: 4 },
+      siFolded: { type: DataTypes.BOOLEAN, allowNull: false, defaultValue: false },
+      updatedBy: DataTypes.UUID,
+      createdAt: created,
+      updatedAt: created,
+    },
+    opts('sheet_preferences'),
+  );
+
   Team.hasMany(Membership, { foreignKey: 'teamId' });
   Membership.belongsTo(Team, { foreignKey: 'teamId' });
   User.hasMany(Membership, { foreignKey: 'userId' });
@@ -370,6 +393,7 @@ export function initModels(sequelize: Sequelize): void {
   Sheet.hasMany(SheetRevision, { foreignKey: 'sheetId' });
   SheetRevision.belongsTo(Sheet, { foreignKey: 'sheetId' });
   SheetRevision.belongsTo(User, { as: 'author', foreignKey: 'authorId' });
+  Sheet.hasOne(SheetPreference, { foreignKey: 'sheetId' });
   Sheet.hasMany(Comment, { foreignKey: 'sheetId' });
   Comment.belongsTo(User, { as: 'author', foreignKey: 'authorId' });
 }

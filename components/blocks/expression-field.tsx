@@ -1,6 +1,6 @@
 'use client';
 
-import { closeBrackets } from '@codemirror/autocomplete';
+import { closeBrackets, closeCompletion } from '@codemirror/autocomplete';
 import { Compartment, EditorState, Prec, type Extension } from '@codemirror/state';
 import { EditorView, keymap, placeholder as placeholderText } from '@codemirror/view';
 import { useEffect, useRef } from 'react';
@@ -63,10 +63,25 @@ export default function ExpressionField(props: ExpressionFieldProps) {
         EditorView.lineWrapping,
         // One line: Enter adds nothing; pasted line breaks become spaces.
         Prec.high(keymap.of([{ key: 'Enter', run: () => true }])),
+        // Tab leaves the field as everywhere else: an open completion list closes first (never
+        // accepted by Tab, never left open over the next field).
+        Prec.highest(
+          keymap.of([
+            { key: 'Tab', run: (v) => (closeCompletion(v), false) },
+            { key: 'Shift-Tab', run: (v) => (closeCompletion(v), false) },
+          ]),
+        ),
         EditorState.transactionFilter.of((tr) => {
           if (!tr.docChanged || tr.newDoc.lines <= 1) return tr;
           const text = tr.newDoc.toString().replace(/\s*\n\s*/g, ' ');
           return [tr, { changes: { from: 0, to: tr.newDoc.length, insert: text }, sequential: true }];
+        }),
+        // Leaving the field (blur, Tab, a click elsewhere) closes its completion list.
+        EditorView.domEventHandlers({
+          blur: (_event, v) => {
+            closeCompletion(v);
+            return false;
+          },
         }),
         EditorView.updateListener.of((update) => {
           if (update.docChanged) {

@@ -75,6 +75,8 @@ export function expressionCompletion(getData: () => CompletionData) {
     activateOnTyping: true,
     override: [
       (context: CompletionContext): CompletionResult | null => {
+        // A list that would open after focus left (a fast Tab) would stay over the next fields.
+        if (context.view && !context.view.hasFocus) return null;
         const data = getData();
         const member = context.matchBefore(/[A-Za-z_][A-Za-z0-9_]*\.[A-Za-z0-9_]*/);
         if (member) {

@@ -4,6 +4,8 @@ import { useMutation, useQuery, useQueryClient } from '@tanstack/react-query';
 import { useState, type FormEvent } from 'react';
 import { Button } from '@/components/ui/button';
 import { ErrorText } from '@/components/ui/error-text';
+import { unresolvedMentions, type MentionPerson } from '@/lib/comments/mentions';
+import { MentionBox, MentionText } from './mention-box';
 
 type Person = { id: string; name: string; email: string };
 type Comment = {
@@ -76,6 +78,96 @@ export function OpenCommentCount({ sheetId, blockId, blockName, onOpen }: { shee
   );
 }
 
+/** The members of the sheet's team, for the mention picker (every member may read them). */
+export function useSheetMembers(sheetId: string, teamId?: string) {
+  return useQuery<MentionPerson[]>({
+    queryKey: ['sheet-members', sheetId, teamId ?? null],
+    queryFn: async () => {
+      const team = teamId ?? (await call(`/api/sheets/${sheetId}`, 'GET')).sheet.teamId;
+      const listing = await call(`/api/teams/${team}/members`, 'GET');
+      return (listing.items as { user: MentionPerson }[]).map((item) => item.user);
+    },
+    staleTime: 60_000,
+  });
+}
+
+/** The warning shown before a comment whose mentions reach nobody is sent. */
+function mentionWarning(body: string, members: MentionPerson[]): string | null {
+  const unknown = unresolvedMentions(body, members);
+  if (unknown.length === 0) return null;
+  const words = unknown.map((u) => `@${u.handle} ${u.reason === 'nobody' ? 'matches nobody in the team' : 'matches more than one person'}`);
+  return `${words.join('; ')}, so no one will be notified for it. Pick a name from the list after typing @, or send anyway.`;
+}
+
+/** A comment form: the mention box, the warning about unknown mentions, and the send button. */
+function CommentForm({
+  members,
+  label,
+  placeholder,
+  multiline,
+  submitLabel,
+  busy,
+  onSend,
+}: {
+  members: MentionPerson[];
+  label: string;
+  placeholder: string;
+  multiline?: boolean;
+  submitLabel: string;
+  busy: boolean;
+  onSend: (body: string) => Promise<boolean>;
+}) {
+  const [text, setText] = useState('');
+  const [warned, setWarned] = useState<string | null>(null);
+  const submit = async (event: FormEvent<HTMLFormElement>, anyway = false) => {
+    event.preventDefault();
+    const body = text.trim();
+    if (!body) return;
+    const warning = mentionWarning(body, members);
+    if (warning && !anyway && warned !== body) {
+      setWarned(body);
+      return;
+    }
+    if (await onSend(body)) {
+      setText('');
+      setWarned(null);
+    }
+  };
+  const warning = warned !== null && warned === text.trim() ? mentionWarning(warned, members) : null;
+  return (
+    <form onSubmit={(e) => submit(e)} className={multiline ? 'flex flex-col gap-1' : 'flex flex-col gap-1'}>
+      <div className={multiline ? 'flex flex-col gap-1' : 'flex gap-1'}>
+        <MentionBox
+          name="body"
+          label={label}
+          placeholder={placeholder}
+          members={members}
+          multiline={multiline}
+          value={text}
+          onValueChange={setText}
+          className={multiline ? 'rounded-[3px] border border-rule bg-chalk px-2 py-1' : 'h-8 rounded-[3px] border border-rule bg-chalk px-2 text-[13px]'}
+        />
+        {!warning ? (
+          <Button type="submit" variant={multiline ? 'primary' : undefined} disabled={busy} className={multiline ? 'self-end' : undefined}>
+            {submitLabel}
+          </Button>
+        ) : null}
+      </div>
+      {warning ? (
+        <div role="alert" className="flex flex-col gap-1 rounded-[3px] border border-clay/60 bg-chalk px-2 py-1 text-[12px]" data-mention-warning>
+          <p>
+            <span aria-hidden="true">⚠ </span>
+            {warning}
+          </p>
+          <div className="flex gap-2">
+            <Button type="submit" disabled={busy}>Send anyway</Button>
+          </div>
+        </div>
+      ) : null}
+    </form>
+  );
+}
+
 function when(iso: string) {
   return iso.slice(0, 16).replace('T', ' ');
 }
@@ -86,7 +178,9 @@ function CommentBody({
   canComment,
   onEdit,
   revision,
+  members,
 }: {
+  members: MentionPerson[];
   comment: Comment;
   userId: string;
   canComment: boolean;
@@ -132,7 +226,9 @@ function CommentBody({
           </div>
         </form>
       ) : (
-        <p className="whitespace-pre-wrap text-[13px]">{comment.body}</p>
+        <p className="whitespace-pre-wrap text-[13px]">
+          <MentionText body={comment.body} members={members} />
+        </p>
       )}
       {!editing && canComment && comment.author?.id === userId ? (
         <button type="button" className="self-start text-[12px] text-river hover:underline" onClick={() => setEditing(true)}>
@@ -151,7 +247,10 @@ export function CommentsPanel({
   revision,
   userId,
   canComment,
+  teamId,
 }: {
+  /** The sheet's team (its members are the ones a comment can mention); looked up when not given. */
+  teamId?: string;
   sheetId: string;
   blockId: string;
   blockName: string;
@@ -162,6 +261,7 @@ export function CommentsPanel({
 }) {
   const queryClient = useQueryClient();
   const { data, isLoading } = useSheetComments(sheetId);
+  const members = useSheetMembers(sheetId, teamId).data ?? [];
   const [error, setError] = useState<string | null>(null);
   const [showResolved, setShowResolved] = useState(false);
   const refresh = () => queryClient.invalidateQueries({ queryKey: commentsKey(sheetId) });
@@ -178,14 +278,10 @@ export function CommentsPanel({
   const open = threads.filter((t) => !t.resolved);
   const resolved = threads.filter((t) => t.resolved);
 
-  async function post(event: FormEvent<HTMLFormElement>, parentId?: string) {
-    event.preventDefault();
-    const form = event.currentTarget;
-    const body = String(new FormData(form).get('body') ?? '').trim();
-    if (!body) return;
-    await mutate.mutateAsync({ url: `/api/sheets/${sheetId}/comments`, method: 'POST', body: { blockId, revision, body, ...(parentId ? { parentId } : {}) } }).then(
-      () => form.reset(),
-      () => undefined,
+  async function post(body: string, parentId?: string): Promise<boolean> {
+    return mutate.mutateAsync({ url: `/api/sheets/${sheetId}/comments`, method: 'POST', body: { blockId, revision, body, ...(parentId ? { parentId } : {}) } }).then(
+      () => true,
+      () => false,
     );
   }
   const edit = async (id: string, body: string) => {
@@ -195,12 +291,12 @@ export function CommentsPanel({
 
   const renderThread = (thread: Thread) => (
     <li key={thread.id} className={`flex flex-col gap-2 rounded-[4px] border border-rule p-2 ${thread.resolved ? 'opacity-70' : ''}`} data-thread={thread.id}>
-      <CommentBody comment={thread} userId={userId} canComment={canComment} onEdit={edit} revision={revision} />
+      <CommentBody comment={thread} userId={userId} canComment={canComment} onEdit={edit} revision={revision} members={members} />
       {thread.replies.length ? (
         <ul className="flex flex-col gap-2 border-l-2 border-rule pl-3">
           {thread.replies.map((r) => (
             <li key={r.id}>
-              <CommentBody comment={r} userId={userId} canComment={canComment} onEdit={edit} revision={revision} />
+              <CommentBody comment={r} userId={userId} canComment={canComment} onEdit={edit} revision={revision} members={members} />
             </li>
           ))}
         </ul>
@@ -208,10 +304,7 @@ export function CommentsPanel({
       {canComment ? (
         <div className="flex flex-col gap-1">
           {!thread.resolved ? (
-            <form onSubmit={(e) => post(e, thread.id)} className="flex gap-1">
-              <input name="body" aria-label="Reply" placeholder="Reply…" maxLength={10000} className="h-8 flex-1 rounded-[3px] border border-rule bg-chalk px-2 text-[13px]" />
-              <Button type="submit" disabled={mutate.isPending}>Reply</Button>
-            </form>
+            <CommentForm members={members} label="Reply" placeholder="Reply…" submitLabel="Reply" busy={mutate.isPending} onSend={(body) => post(body, thread.id)} />
           ) : null}
           <button type="button" className="self-start text-[12px] text-river hover:underline" onClick={() => setResolved(thread.id, !thread.resolved)}>
             {thread.resolved ? 'Reopen' : 'Resolve'}
@@ -229,10 +322,15 @@ export function CommentsPanel({
       </h2>
       {isLoading ? <p className="text-slate">Loading…</p> : null}
       {canComment ? (
-        <form onSubmit={(e) => post(e)} className="flex flex-col gap-1">
-          <textarea name="body" aria-label="New comment" placeholder="Comment on this block… (@name to mention)" rows={3} maxLength={10000} className="rounded-[3px] border border-rule bg-chalk px-2 py-1" />
-          <Button type="submit" variant="primary" disabled={mutate.isPending} className="self-end">Comment</Button>
-        </form>
+        <CommentForm
+          members={members}
+          label="New comment"
+          placeholder="Comment on this block… (@ and a name to mention someone)"
+          multiline
+          submitLabel="Comment"
+          busy={mutate.isPending}
+          onSend={(body) => post(body)}
+        />
       ) : (
         <p className="text-[12px] text-slate">Your role can read comments but not write them.</p>
       )}

@@ -6,6 +6,7 @@ import { recordAudit } from './audit';
 import { isUuid } from './ids';
 import { db } from './index';
 import { toPublicUser, type PublicUser } from './users';
+import { extractMentionHandles, resolveMentions } from '@/lib/comments/mentions';
 
 export type CommentItem = {
   id: string;
@@ -46,33 +47,8 @@ function blockFingerprint(block: unknown): string {
 
 // ---------- mentions ----------
 
-/** The @handles in a comment body, lower-cased, in order, without repeats. */
-export function extractMentionHandles(body: string): string[] {
-  const handles = [...body.matchAll(/(?:^|[^\w@.])@([A-Za-z0-9][A-Za-z0-9._-]{0,63})/g)].map((m) => (m[1] ?? '').replace(/[._-]+$/, '').toLowerCase());
-  return [...new Set(handles)];
-}
-
-/** Every handle by which a member can be mentioned: the e-mail's local part and forms of the name. */
-export function handlesOf(person: PublicUser): string[] {
-  const local = (person.email.split('@')[0] ?? '').toLowerCase();
-  const words = person.name.toLowerCase().normalize('NFD').replace(/[\u0300-\u036f]/g, '').split(/[^a-z0-9]+/).filter(Boolean);
-  return [...new Set([local, words.join('.'), words.join('_'), words.join('-'), words.join('')].filter(Boolean))];
-}
-
-/** Resolves handles to team members; a handle that fits nobody, or more than one person, is left out. */
-export function resolveMentions(handles: string[], members: PublicUser[]): PublicUser[] {
-  const found = new Map<string, PublicUser>();
-  for (const handle of handles) {
-    let matches = members.filter((m) => handlesOf(m).includes(handle));
-    if (matches.length === 0) {
-      // A first name alone is enough when only one member has it.
-      matches = members.filter((m) => m.name.toLowerCase().split(/\s+/)[0] === handle);
-    }
-    const [only] = matches;
-    if (only && matches.length === 1) found.set(only.id, only);
-  }
-  return [...found.values()];
-}
+// The pure rules live in lib/comments/mentions.ts (the comment box uses them too).
+export { extractMentionHandles, handlesOf, resolveMentions } from '@/lib/comments/mentions';
 
 export async function listTeamMembersAsPeople({ teamId }: { teamId: string }): Promise<PublicUser[]> {
   db();

@@ -32,6 +32,9 @@ export function asEvaluationError(error: unknown): Error {
 
 const globalCache = globalThis as unknown as { __denudataResults?: ResultsCache<SheetDocument, SheetResults> };
 const cache = (globalCache.__denudataResults ??= new ResultsCache<SheetDocument, SheetResults>(200));
+/** The last unsaved evaluation of each (sheet, user): typing evaluates only what changed since. */
+const globalUnsaved = globalThis as unknown as { __denudataUnsaved?: ResultsCache<SheetDocument, SheetResults> };
+const unsavedCache = (globalUnsaved.__denudataUnsaved ??= new ResultsCache<SheetDocument, SheetResults>(200, 32 * 1024 * 1024));
 
 /** Which of the document's datasets were available: results depend on it besides the draft version. */
 const datasetKeyOf = (datasets: DatasetLookup | undefined) => (datasets ? [...datasets.keys()].sort().join(',') : '');
@@ -71,6 +74,49 @@ export async function evaluateDraft({
     const results = await runEvaluate(document, { userId, key: sheetId }, datasets);
     cache.set(sheetId, { draftVersion, document, results, datasetKey });
     return { draftVersion, results, evaluatedBlockIds: document.blocks.filter((b) => b.type !== 'note').map((b) => b.id) };
+  } catch (error) {
+    throw asEvaluationError(error);
+  }
+}
+
+/**
+ * Results of a user's unsaved edits of a sheet (CONTRACT §6b): nothing is stored. Incremental against
+ * the same user's last unsaved evaluation of the sheet, or else the stored draft's last results, when
+ * the same datasets resolved; a full evaluation otherwise. Queued under a key of its own, so a newer
+ * keystroke replaces a queued one but never the evaluation of the stored draft.
+ */
+export async function evaluateUnsaved({
+  sheetId,
+  draftVersion,
+  document,
+  userId,
+  datasets,
+}: {
+  sheetId: string;
+  /** The stored draft's version when the request came (for the answer only). */
+  draftVersion: number;
+  document: SheetDocument;
+  userId: string;
+  datasets?: DatasetLookup;
+}): Promise<{ draftVersion: number; unsaved: true; results: SheetResults; evaluatedBlockIds: string[] }> {
+  const slot = `${sheetId}|${userId}`;
+  const datasetKey = datasetKeyOf(datasets);
+  const candidates = [unsavedCache.get(slot), cache.get(sheetId)];
+  const previous = candidates.find((entry) => entry && (entry.datasetKey ?? '') === datasetKey);
+  const owner = { userId, key: `${sheetId}:unsaved` };
+  try {
+    let results: SheetResults;
+    let evaluatedBlockIds: string[];
+    if (previous) {
+      const changed = changedBlockIds(previous.document as ClientDocument, document as ClientDocument);
+      ({ results, evaluatedBlockIds } = await runEvaluateIncremental(document, previous.results, changed, owner, datasets));
+    } else {
+      results = await runEvaluate(document, owner, datasets);
+      evaluatedBlockIds = document.blocks.filter((b) => b.type !== 'note').map((b) => b.id);
+    }
+    // Kept per user with version 0, so any stored draft's entry stays separate and authoritative.
+    unsavedCache.set(slot, { draftVersion: 0, document, results, datasetKey });
+    return { draftVersion, unsaved: true, results, evaluatedBlockIds };
   } catch (error) {
     throw asEvaluationError(error);
   }

@@ -1,5 +1,6 @@
 import { describe, expect, it } from 'vitest';
-import { ApiClient, signedInAs } from '../support/http';
+import { ApiClient, newAccount, signedInAs } from '../support/http';
+import { DEMO_DATA_SHEET } from '@/lib/demo/data-sheets';
 
 /** |got − expected| ≤ relTol·|expected| (the reference cases' own tolerance rule). */
 function expectClose(got: unknown, expected: number, relTol: number) {
@@ -227,6 +228,106 @@ describe('POST /api/sheets/{id}/evaluate', () => {
     const editor = await signedInAs('editor');
     const response = await editor.post(`/api/sheets/${DEMO_SHEET_THERMAL}/evaluate`, { surprise: true });
     expect(response.status).toBe(400);
+  });
+});
+
+describe('POST /api/sheets/{id}/evaluate with unsaved edits (CONTRACT §6b)', () => {
+  async function sheetWithThermalDraft(client: ApiClient, title: string) {
+    const created = await client.post('/api/sheets', { title });
+    expect(created.status).toBe(201);
+    const sheetId = created.body.sheet.id as string;
+    const put = await client.put(`/api/sheets/${sheetId}/draft`, { baseVersion: 1, document: { ...thermalSheet(), title } });
+    expect(put.status).toBe(200);
+    return { sheetId, version: put.body.version as number };
+  }
+
+  it('should evaluate the posted document, store nothing, and recompute only what changed since the last unsaved one', async () => {
+    const editor = await signedInAs('editor');
+    const { sheetId, version } = await sheetWithThermalDraft(editor, 'Unsaved check');
+    const edited = { ...thermalSheet(), title: 'Unsaved check' };
+    edited.blocks[2]!.inputs.depth = '5 km';
+    const first = await editor.post(`/api/sheets/${sheetId}/evaluate`, { document: edited });
+    expect(first.status).toBe(200);
+    expect(first.body.unsaved).toBe(true);
+    expect(first.body.draftVersion).toBe(version);
+    // P12: T(5 km) = 153.300175593 °C (Turcotte & Schubert 2002), from the unsaved depth.
+    expectClose(first.body.results.blocks.thermal.outputs.temperature_at_depth.value, 153.300175593, 0.0007);
+
+    // Another keystroke in the same block: only that block is evaluated again.
+    edited.blocks[2]!.inputs.depth = '15 km';
+    const second = await editor.post(`/api/sheets/${sheetId}/evaluate`, { document: edited });
+    expect(second.body.evaluatedBlockIds).toEqual(['g']);
+    // P12: T(15 km) = 379.985479 °C.
+    expectClose(second.body.results.blocks.thermal.outputs.temperature_at_depth.value, 379.985479, 0.0007);
+
+    // Nothing was stored: the draft keeps its version and its depth, and its own evaluation says so.
+    const after = await editor.get(`/api/sheets/${sheetId}`);
+    expect(after.body.draft.version).toBe(version);
+    expect(after.body.draft.document.blocks[2].inputs.depth).toBe('15 km');
+    const stored = await editor.post(`/api/sheets/${sheetId}/evaluate`);
+    expect(stored.body.unsaved).toBeUndefined();
+    expect(stored.body.draftVersion).toBe(version);
+  });
+
+  it('should resolve data inputs from the sheet’s team, not the caller’s current one', async () => {
+    const editor = await signedInAs('editor');
+    const created = await editor.post('/api/sheets', { title: 'Unsaved data check' });
+    const inTeam = await editor.post(`/api/sheets/${created.body.sheet.id}/evaluate`, { document: DEMO_DATA_SHEET.document });
+    expect(inTeam.status).toBe(200);
+    const fits = Object.values(inTeam.body.results.blocks as Record<string, { type: string; status: string; error?: string }>).filter((b) => b.type === 'scarp_fit');
+    expect(fits.length).toBeGreaterThan(0);
+    for (const fit of fits) expect(fit.status, fit.error).toBe('ok');
+
+    // The same document on a sheet of a team that does not hold the datasets: a block error, not a leak.
+    const { client: stranger } = await newAccount('unsaved-data');
+    const own = await stranger.post('/api/sheets', { title: 'Stranger sheet' });
+    const elsewhere = await stranger.post(`/api/sheets/${own.body.sheet.id}/evaluate`, { document: DEMO_DATA_SHEET.document });
+    expect(elsewhere.status).toBe(200);
+    const strangerFits = Object.values(elsewhere.body.results.blocks as Record<string, { type: string; status: string; error?: string }>).filter((b) => b.type === 'scarp_fit');
+    for (const fit of strangerFits) {
+      expect(fit.status).toBe('error');
+      expect(fit.error).toMatch(/dataset/i);
+    }
+  });
+
+  it('should let a viewer evaluate a document (evaluation is a read) and still store nothing', async () => {
+    const viewer = await signedInAs('viewer');
+    const sheet = await viewer.get(`/api/sheets/${DEMO_SHEET_THERMAL}`);
+    const response = await viewer.post(`/api/sheets/${DEMO_SHEET_THERMAL}/evaluate`, { document: thermalSheet() });
+    expect(response.status).toBe(200);
+    expectClose(response.body.results.blocks.pe.outputs.Pe.value, 0.950642634421, 0.003);
+    const after = await viewer.get(`/api/sheets/${DEMO_SHEET_THERMAL}`);
+    expect(after.body.draft.version).toBe(sheet.body.draft.version);
+  });
+
+  it('should answer 400 naming the fault of an invalid document, 413 over 1 MB, and 404/401 as before', async () => {
+    const editor = await signedInAs('editor');
+    const { sheetId } = await sheetWithThermalDraft(editor, 'Unsaved faults');
+    const unknownType = { ...thermalSheet(), blocks: [{ id: 'x', name: 'x', type: 'no_such_type', inputs: {} }] };
+    const invalid = await editor.post(`/api/sheets/${sheetId}/evaluate`, { document: unknownType });
+    expect(invalid.status).toBe(400);
+    expect(invalid.body.error.field).toMatch(/^document/);
+    const extra = await editor.post(`/api/sheets/${sheetId}/evaluate`, { document: thermalSheet(), baseVersion: 1 });
+    expect(extra.status).toBe(400);
+    const huge = { ...thermalSheet(), title: 'x', blocks: [{ id: 'n', name: 'n', type: 'note', inputs: {}, note: 'y'.repeat(1_100_000) }] };
+    expect((await editor.post(`/api/sheets/${sheetId}/evaluate`, { document: huge })).status).toBe(413);
+    const { client: stranger } = await newAccount('unsaved-stranger');
+    expect((await stranger.post(`/api/sheets/${sheetId}/evaluate`, { document: thermalSheet() })).status).toBe(404);
+    expect((await new ApiClient().post(`/api/sheets/${sheetId}/evaluate`, { document: thermalSheet() })).status).toBe(401);
+  });
+
+  it('should answer 202 without a run for an unsaved document over the cost limit (saving starts the long run)', async () => {
+    const editor = await signedInAs('editor');
+    const { sheetId, version } = await sheetWithThermalDraft(editor, 'Unsaved costly');
+    const costly = {
+      format: 'denudata-sheet@1',
+      title: 'Costly',
+      uncertainty: { method: 'monte_carlo', samples: 100_000, seed: 1 },
+      blocks: Array.from({ length: 20 }, (_, i) => ({ id: `u${i}`, name: `u${i}`, type: 'quantities', inputs: { a: 'normal(1 m, 0.1 m)' } })),
+    };
+    const response = await editor.post(`/api/sheets/${sheetId}/evaluate`, { document: costly });
+    expect(response.status).toBe(202);
+    expect(response.body).toMatchObject({ draftVersion: version, unsaved: true, run: null, longRun: true });
   });
 });
 

@@ -63,6 +63,9 @@ const ROUTES: RouteCase[] = [
     return { path: `/api/sheets/${f.sheetId}/draft`, body: { baseVersion: version, document: sampleDocument({ K: '0.005 m^2/yr' }) } };
   } },
   { method: 'POST', route: '/api/sheets/{id}/evaluate', action: 'read', scope: 'team', ok: 200, call: (_c, _w, f) => ({ path: `/api/sheets/${f.sheetId}/evaluate`, body: {} }) },
+  { method: 'POST', route: '/api/sheets/{id}/evaluate (unsaved document)', action: 'read', scope: 'team', ok: 200, call: (_c, _w, f) => ({ path: `/api/sheets/${f.sheetId}/evaluate`, body: { document: sampleDocument({ K: '0.004 m^2/yr' }) } }) },
+  { method: 'GET', route: '/api/sheets/{id}/preferences', action: 'read', scope: 'team', ok: 200, call: (_c, _w, f) => ({ path: `/api/sheets/${f.sheetId}/preferences` }) },
+  { method: 'PUT', route: '/api/sheets/{id}/preferences', action: 'edit', scope: 'team', ok: 200, call: (_c, _w, f) => ({ path: `/api/sheets/${f.sheetId}/preferences`, body: { significantFigures: 5 } }) },
   { method: 'GET', route: '/api/sheets/{id}/revisions', action: 'read', scope: 'team', ok: 200, call: (_c, _w, f) => ({ path: `/api/sheets/${f.sheetId}/revisions` }) },
   { method: 'POST', route: '/api/sheets/{id}/revisions', action: 'edit', scope: 'team', ok: 201, fresh: true, call: (_c, _w, f) => ({ path: `/api/sheets/${f.sheetId}/revisions`, body: { baseRevision: 1, document: sampleDocument({ K: '0.006 m^2/yr' }), message: 'Second' } }) },
   { method: 'GET', route: '/api/sheets/{id}/revisions/{n}', action: 'read', scope: 'team', ok: 200, call: (_c, _w, f) => ({ path: `/api/sheets/${f.sheetId}/revisions/1` }) },
@@ -109,6 +112,7 @@ const PATHS: { path: (c: Ctx, f: Fixture) => string; route: string }[] = [
   { route: '/api/sheets/import', path: () => '/api/sheets/import' },
   { route: '/api/sheets/{id}', path: (_c, f) => `/api/sheets/${f.sheetId}` },
   { route: '/api/sheets/{id}/draft', path: (_c, f) => `/api/sheets/${f.sheetId}/draft` },
+  { route: '/api/sheets/{id}/preferences', path: (_c, f) => `/api/sheets/${f.sheetId}/preferences` },
   { route: '/api/sheets/{id}/revisions', path: (_c, f) => `/api/sheets/${f.sheetId}/revisions` },
   { route: '/api/sheets/{id}/revisions/{n}', path: (_c, f) => `/api/sheets/${f.sheetId}/revisions/1` },
   { route: '/api/compare', path: () => '/api/compare' },

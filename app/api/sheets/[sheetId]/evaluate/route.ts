@@ -5,19 +5,26 @@ import { checkJsonShape, json, notAllowed, parseWith, readBodyText, route } from
 import { badRequest } from '@/lib/errors';
 import { needsLongRun } from '@/lib/engine';
 import { startSheetRun } from '@/lib/runs/service.server';
-import { evaluateDraft, requireValidDocument } from '@/lib/sheet/evaluation.server';
+import { evaluateDraft, evaluateUnsaved, requireValidDocument } from '@/lib/sheet/evaluation.server';
 import { consumeRateLimit } from '@/lib/rate-limit';
 import { evaluateDraftSchema } from './schema';
 
 type Context = { params: Promise<{ sheetId: string }> };
 
-/** Results of the stored draft (incremental on the server) with the draft version they belong to. */
+/**
+ * Results of the stored draft (incremental on the server) with the draft version they belong to; or,
+ * with `{document}`, of the user's unsaved edits (CONTRACT §6b): evaluated against the sheet's team's
+ * datasets, never stored, and incremental against the user's last unsaved evaluation of the sheet.
+ * Every role that reads the sheet may evaluate (CONTRACT §5); nothing is written either way.
+ */
 export const POST = route(async (request, { params }: Context) => {
   const user = await requireUser();
   const { sheetId } = await params;
   const { sheet } = await requireSheetRole({ userId: user.id, sheetId, action: 'read' });
   await consumeRateLimit(['evaluationUser', user.id]);
+  // The same bound as a draft save (MAX_BODY_BYTES): the body carries at most one document.
   const text = await readBodyText(request);
+  let unsaved: unknown;
   if (text.trim()) {
     let body: unknown;
     try {
@@ -26,9 +33,17 @@ export const POST = route(async (request, { params }: Context) => {
       throw badRequest('The request body is not valid JSON.');
     }
     checkJsonShape(body);
-    parseWith(evaluateDraftSchema, body);
+    unsaved = parseWith(evaluateDraftSchema, body).document;
   }
   const draft = await getSheetDraft({ sheetId });
+  if (unsaved !== undefined) {
+    const document = requireValidDocument(unsaved, 'document');
+    // Too costly for a request: an unsaved document cannot become a run (runs evaluate stored
+    // drafts and revisions), so nothing is evaluated now; saving starts the long run.
+    if (needsLongRun(document)) return json({ draftVersion: draft.version, unsaved: true, run: null, longRun: true }, 202);
+    const { lookup } = await resolveDocumentDatasets({ teamId: sheet.teamId, document });
+    return json(await evaluateUnsaved({ sheetId, draftVersion: draft.version, document, userId: user.id, datasets: lookup }));
+  }
   const document = requireValidDocument(draft.document, 'draft');
   // Too costly for a request (CONTRACT §6b): evaluated as a long run instead → 202 {run}.
   if (needsLongRun(document)) {

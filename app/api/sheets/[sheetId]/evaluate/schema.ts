@@ -1,4 +1,10 @@
 import { z } from 'zod';
 
-// The body is optional; nothing in it is needed today (the stored draft is evaluated).
-export const evaluateDraftSchema = z.strictObject({});
+/**
+ * The body is optional (CONTRACT §6b): empty or `{}` evaluates the stored draft; `{document}` evaluates
+ * the user's unsaved edits, which are never stored. The document itself is checked by the engine's
+ * strict schema after this envelope.
+ */
+export const evaluateDraftSchema = z.strictObject({
+  document: z.unknown().optional(),
+});

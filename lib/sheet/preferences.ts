@@ -1,0 +1,34 @@
+import { z } from 'zod';
+
+/**
+ * Sheet preferences that are not calculation (CONTRACT §6b): stored per sheet outside its document,
+ * so they never change its hash, and applied to display only (stored results keep every digit).
+ */
+export const SIGNIFICANT_FIGURES_MIN = 2;
+export const SIGNIFICANT_FIGURES_MAX = 12;
+
+export interface SheetPreferences {
+  /** Significant figures shown for results (default 4). */
+  significantFigures: number;
+  /** Whether the SI column of the results tables is folded away (default false). */
+  siFolded: boolean;
+}
+
+export const DEFAULT_SHEET_PREFERENCES: SheetPreferences = { significantFigures: 4, siFolded: false };
+
+/** A change of preferences: either or both fields (PUT /api/sheets/{id}/preferences). */
+export const sheetPreferencesPatchSchema = z
+  .strictObject({
+    significantFigures: z
+      .number({ error: 'must be a number' })
+      .int('must be a whole number')
+      .min(SIGNIFICANT_FIGURES_MIN, `must be ${SIGNIFICANT_FIGURES_MIN} or more`)
+      .max(SIGNIFICANT_FIGURES_MAX, `must be ${SIGNIFICANT_FIGURES_MAX} or fewer`)
+      .optional(),
+    siFolded: z.boolean({ error: 'must be true or false' }).optional(),
+  })
+  .refine((body) => body.significantFigures !== undefined || body.siFolded !== undefined, {
+    message: 'give significantFigures, siFolded or both',
+  });
+
+export type SheetPreferencesPatch = z.infer<typeof sheetPreferencesPatchSchema>;
