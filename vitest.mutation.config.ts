@@ -2,6 +2,11 @@ import { defineConfig } from 'vitest/config';
 import path from 'node:path';
 
 // The engine's own tests (no database, no browser) for mutation testing with Stryker (`npm run mutation`).
+// DENUDATA_MUTATION_TESTS narrows the test files (a comma-separated list of globs) for a run over a few
+// source files; by default every engine test runs except those that start other processes (the command line)
+// or read source files (purity, reproducibility): those run the unmutated code outside Stryker's reach.
+const narrowed = process.env.DENUDATA_MUTATION_TESTS?.split(',').map((glob) => glob.trim()).filter(Boolean);
+
 export default defineConfig({
   resolve: {
     alias: {
@@ -10,12 +15,14 @@ export default defineConfig({
     },
   },
   test: {
-    include: ['tests/engine/blocks/*.test.ts', 'tests/engine/published-checks.test.ts', 'tests/engine/registry.test.ts', 'tests/engine/demo-sheets.test.ts', 'tests/engine/numerics.test.ts', 'tests/engine/tectonic-conventions.test.ts'],
-    // The tests that exercise the block types; the uncertainty, expression and unit suites cover other files.
-    // These start other processes (the command line, a second server process) that run the unmutated code
-    // outside Stryker's reach, or read source files; the rest of tests/engine runs.
+    include: narrowed && narrowed.length > 0 ? narrowed : ['tests/engine/**/*.test.ts'],
     exclude: ['tests/engine/calc.test.ts', 'tests/engine/purity.test.ts', 'tests/engine/reproducibility.test.ts', 'node_modules/**'],
     environment: 'node',
+    // Test files share one module graph (mathjs and the engine load once, not once per file and per mutant):
+    // Stryker switches mutants at run time, and `ignoreStatic` in stryker.config.mjs leaves out the mutants
+    // that only act while a module loads (they would need a fresh module graph per mutant).
+    isolate: false,
+    setupFiles: ['tests/support/mutation-setup.ts'],
     testTimeout: 20_000,
   },
 });

@@ -1,0 +1,28 @@
+#!/usr/bin/env bash
+# Mutation testing of one group of engine files (see DEVELOPERS.md, "Mutation testing").
+# Usage: bash scripts/mutation-group.sh <group>   (groups below; reports in reports/mutation/<group>.json)
+set -euo pipefail
+cd "$(dirname "$0")/.."
+B=lib/engine/blocks
+T=tests/engine/blocks
+P=tests/engine/published-checks.test.ts,tests/engine/registry.test.ts,tests/engine/anchors/*.test.ts
+case "${1:-}" in
+  first-release)
+    MUTATE="$B/hillslope-diffusion.ts,$B/hilltop-erosion.ts,$B/transport-capacity.ts,$B/net-change.ts,$B/peclet-number.ts,$B/isostatic-response.ts,$B/denudation-conversion.ts"
+    TESTS="$T/hillslope-diffusion.test.ts,$T/hilltop-erosion.test.ts,$T/transport-capacity.test.ts,$T/net-change.test.ts,$T/peclet-number.test.ts,$T/isostatic-response.test.ts,$T/denudation-conversion.test.ts,$P" ;;
+  scarp-channel)
+    MUTATE="$B/scarp-forward.ts,$B/scarp-age.ts,$B/stream-power.ts,$B/stream-power-shared.ts,$B/steady-state-channel.ts,$B/advective-geotherm.ts"
+    TESTS="$T/scarp-forward.test.ts,$T/scarp-age.test.ts,$T/stream-power.test.ts,$T/steady-state-channel.test.ts,$T/advective-geotherm.test.ts,$P" ;;
+  tectonic)
+    MUTATE="$B/radiogenic-geotherm.ts,$B/strength-envelope.ts,$B/orogen-flux-balance.ts,$B/plate-flexure.ts,$B/cosmogenic-denudation.ts,$B/closure-exhumation.ts"
+    TESTS="$T/radiogenic-geotherm.test.ts,$T/strength-envelope.test.ts,$T/orogen-flux-balance.test.ts,$T/plate-flexure.test.ts,$T/cosmogenic-denudation.test.ts,$T/closure-exhumation.test.ts,tests/engine/tectonic-conventions.test.ts,$P" ;;
+  data)
+    MUTATE="$B/scarp-fit.ts,$B/profile-evolution.ts,$B/channel-march.ts,$B/data-shared.ts,lib/engine/numerics/*.ts,lib/engine/numerics.ts"
+    TESTS="$T/scarp-fit.test.ts,$T/profile-evolution.test.ts,$T/channel-march.test.ts,$T/data-blocks-uncertainty.test.ts,tests/engine/numerics.test.ts,tests/engine/demo-data-sheet.test.ts,$P" ;;
+  uncertainty)
+    MUTATE="lib/engine/uncertainty/statistics.ts,lib/engine/uncertainty/distributions.ts,lib/engine/uncertainty/numeric.ts"
+    TESTS="tests/engine/uncertainty/*.test.ts,$T/data-blocks-uncertainty.test.ts" ;;
+  *) echo "usage: $0 first-release|scarp-channel|tectonic|data|uncertainty" >&2; exit 2 ;;
+esac
+export DENUDATA_MUTATION_TESTS="$TESTS" DENUDATA_MUTATION_REPORT="$1"
+exec nice -n 15 npx stryker run --incremental --mutate "$MUTATE" ${@:2}

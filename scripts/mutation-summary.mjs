@@ -1,0 +1,43 @@
+// Sums the group reports of `scripts/mutation-group.sh` (reports/mutation/<group>.json) into one table:
+// per file and overall, killed (timeouts count as killed, as Stryker does), survived, no coverage, ignored.
+// Usage: node scripts/mutation-summary.mjs [--survivors]
+import { readFileSync, readdirSync } from 'node:fs';
+import path from 'node:path';
+
+const dir = path.resolve('reports/mutation');
+const files = new Map();
+for (const name of readdirSync(dir).filter((n) => n.endsWith('.json') && !n.startsWith('incremental-'))) {
+  const report = JSON.parse(readFileSync(path.join(dir, name), 'utf8'));
+  for (const [file, entry] of Object.entries(report.files ?? {})) files.set(file, { group: name.replace(/\.json$/, ''), mutants: entry.mutants, source: entry.source });
+}
+const rows = [];
+const total = { killed: 0, survived: 0, noCoverage: 0, ignored: 0, errors: 0 };
+for (const [file, { group, mutants }] of [...files.entries()].sort()) {
+  const count = { killed: 0, survived: 0, noCoverage: 0, ignored: 0, errors: 0 };
+  for (const m of mutants) {
+    if (m.status === 'Killed' || m.status === 'Timeout') count.killed += 1;
+    else if (m.status === 'Survived') count.survived += 1;
+    else if (m.status === 'NoCoverage') count.noCoverage += 1;
+    else if (m.status === 'Ignored') count.ignored += 1;
+    else count.errors += 1;
+  }
+  for (const key of Object.keys(total)) total[key] += count[key];
+  rows.push({ file, group, ...count });
+}
+const score = (c) => {
+  const valid = c.killed + c.survived + c.noCoverage;
+  return valid === 0 ? 'n/a' : `${((100 * c.killed) / valid).toFixed(1)} %`;
+};
+console.log('| file | group | killed | survived | no coverage | ignored (static or words) | score |');
+console.log('|---|---|---|---|---|---|---|');
+for (const r of rows) console.log(`| \`${r.file}\` | ${r.group} | ${r.killed} | ${r.survived} | ${r.noCoverage} | ${r.ignored} | ${score(r)} |`);
+console.log(`| **all measured** | | ${total.killed} | ${total.survived} | ${total.noCoverage} | ${total.ignored} | **${score(total)}** |`);
+if (process.argv.includes('--survivors')) {
+  for (const [file, { mutants, source }] of files) {
+    const lines = source.split('\n');
+    for (const m of mutants.filter((x) => x.status === 'Survived' || x.status === 'NoCoverage')) {
+      const line = m.location.start.line;
+      console.log(`${m.status} ${file}:${line}:${m.location.start.column} ${m.mutatorName}: ${lines[line - 1].trim().slice(0, 140)}  =>  ${String(m.replacement).replace(/\s+/g, ' ').slice(0, 100)}`);
+    }
+  }
+}
