@@ -266,7 +266,8 @@ export function initModels(sequelize: Sequelize): void {
       document: { type: DataTypes.JSONB, allowNull: false },
       hash: { type: DataTypes.CHAR(64), allowNull: false },
       engineVersion: { type: DataTypes.TEXT, allowNull: false },
-      results: { type: DataTypes.JSONB, allowNull: false },
+      // NULL while the revision's long run is evaluating it (CONTRACT §6b).
+      results: { type: DataTypes.JSONB, allowNull: true },
       authorId: { type: DataTypes.UUID, allowNull: false },
       message: { type: DataTypes.TEXT, allowNull: false, defaultValue: '' },
       reviewStatus: { type: DataTypes.ENUM(...REVIEW_STATUSES), allowNull: false, defaultValue: 'unsigned' },

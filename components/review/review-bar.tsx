@@ -22,6 +22,8 @@ export type ReviewState = {
   approvedAt: string | null;
   returnedBy: Person | null;
   returnedAt: string | null;
+  /** True while the revision's long run has not stored its results (CONTRACT §6b): no check can be asked for. */
+  evaluating?: boolean;
 };
 export type ReviewAction = 'request' | 'check' | 'return' | 'approve';
 
@@ -32,7 +34,7 @@ export function allowedReviewActions({ role, userId, review, isHead }: { role: R
   if (!isHead) return [];
   const isAuthor = review.preparedBy?.id === userId;
   const actions: ReviewAction[] = [];
-  if ((role === 'owner' || role === 'editor') && (review.status === 'unsigned' || review.status === 'returned')) actions.push('request');
+  if ((role === 'owner' || role === 'editor') && (review.status === 'unsigned' || review.status === 'returned') && !review.evaluating) actions.push('request');
   if ((role === 'owner' || role === 'reviewer') && !isAuthor && review.status === 'in_review') actions.push('check');
   if ((role === 'owner' || role === 'reviewer') && !isAuthor && (review.status === 'in_review' || review.status === 'checked')) actions.push('return');
   if (role === 'owner' && !isAuthor && review.checkedBy?.id !== userId && review.status === 'checked') actions.push('approve');
@@ -171,6 +173,11 @@ export function ReviewBar({
         </p>
       ) : null}
       <ReviewNotes notes={notes} />
+      {review.evaluating ? (
+        <p className="text-[12px] text-ochre" data-testid="review-evaluating">
+          <span aria-hidden="true">◌ </span>Evaluating: r{revision}&apos;s results are stored when its long run finishes; a check can be asked for after that.
+        </p>
+      ) : null}
       {!isHead ? <p className="text-[12px] text-slate">Only the newest revision can be reviewed.</p> : null}
       {actions.length ? (
         <div className="flex flex-wrap items-end gap-2">

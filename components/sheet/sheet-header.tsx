@@ -23,7 +23,8 @@ export interface SheetHeaderProps {
   title: string;
   site?: SiteInfo | null;
   draftVersion: number;
-  head: { number: number; hash: string; status: SheetStatus } | null;
+  /** `evaluating`: the head revision's long run has not stored its results yet (CONTRACT §6b). */
+  head: { number: number; hash: string; status: SheetStatus; evaluating?: boolean } | null;
   forkedFrom?: ForkOrigin | null;
   forks?: ForkItem[];
   /** Save and evaluation state, shown at the right. */
@@ -145,8 +146,13 @@ export function SheetHeader({
                 ) : null}
                 <div className="flex items-center gap-1">
                   <dt>Status</dt>
-                  <dd>
+                  <dd className="flex items-center gap-2">
                     <StatusTag status={head?.status ?? 'draft'} />
+                    {head?.evaluating ? (
+                      <Link href={`/sheets/${sheetId}/revisions/${head.number}`} className="text-ochre underline-offset-2 hover:underline" data-testid="head-evaluating">
+                        <span aria-hidden="true">◌ </span>r{head.number} evaluating
+                      </Link>
+                    ) : null}
                   </dd>
                 </div>
               </dl>

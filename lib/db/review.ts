@@ -80,6 +80,12 @@ export async function applyReviewAction({
     if (action === 'approve' && row.checkedBy === actorId) {
       throw forbidden('The person who checked a revision cannot also approve it.');
     }
+    if (action === 'request' && row.results === null) {
+      // CONTRACT §6b: a revision saved over the cost limit has no results until its long run stores them.
+      throw conflict(`Revision ${revision} is still being evaluated: ask for a check when its results are stored.`, {
+        current: { number: revision, status: row.reviewStatus, evaluating: true },
+      });
+    }
     if (!FROM[action].includes(row.reviewStatus)) {
       const needs = action === 'approve' ? 'Only a checked revision can be approved' : `This revision cannot be ${action === 'request' ? 'sent for review' : action === 'check' ? 'checked' : 'returned'} now`;
       throw conflict(`${needs}: revision ${revision} is ${STATUS_WORDS[row.reviewStatus as ReviewStatus]}.`, {

@@ -1,7 +1,7 @@
 import 'server-only';
-import { UniqueConstraintError, type Transaction } from 'sequelize';
+import { literal, UniqueConstraintError, type Transaction } from 'sequelize';
 import { AppError, conflict, notFound } from '@/lib/errors';
-import { EngineError, hashSheetDocument, type SheetDocument, type SheetResults } from '@/lib/engine';
+import { ENGINE_VERSION, EngineError, hashSheetDocument, needsLongRun, type SheetDocument, type SheetResults } from '@/lib/engine';
 import { requireValidDocument } from '@/lib/sheet/evaluation.server';
 import { runEvaluate } from '@/lib/evaluation/pool';
 import type { DatasetLookup } from '@/lib/engine/dataset';
@@ -10,11 +10,15 @@ import { Dataset, Sheet, SheetRevision, Team, User, type ReviewStatus } from '@/
 import { recordAudit } from './audit';
 import { checkBundleDatasets, insertBundleDatasets, requireKnownDatasets, resolveDocumentDatasets } from './datasets';
 import { db } from './index';
+import { findCachedRunResults, insertRun, latestRevisionRuns, type RunRecord } from './runs';
+import { enqueueRun } from '@/lib/jobs/runs';
 import { insertSheet, toSheetRecord, type SheetRecord } from './sheets';
 import { toPublicUser, type PublicUser } from './users';
 
 export type ReviewSummary = {
   status: ReviewStatus;
+  /** True while the revision's results are not stored (its long run evaluates it): no review request yet. */
+  evaluating: boolean;
   preparedBy: PublicUser | null;
   preparedAt: string;
   requestedBy: PublicUser | null;
@@ -28,6 +32,16 @@ export type ReviewSummary = {
   returnedAt: string | null;
 };
 
+/**
+ * Whether a revision's results are stored (CONTRACT §6b): `done`; `evaluating` while its long run is
+ * queued or running; `failed` when its last run failed or was cancelled (a new run may be started).
+ */
+export type RevisionEvaluation = {
+  status: 'done' | 'evaluating' | 'failed';
+  /** The revision's newest long run, while its results are not stored. */
+  run: { id: string; status: RunRecord['status']; progress: number; error?: string } | null;
+};
+
 export type RevisionListItem = {
   number: number;
   hash: string;
@@ -36,9 +50,13 @@ export type RevisionListItem = {
   message: string;
   createdAt: string;
   review: ReviewSummary;
+  evaluation: RevisionEvaluation;
 };
 
+/** A revision with its stored results (getRevision: 409 while they are not stored yet). */
 export type RevisionDetail = RevisionListItem & { document: SheetDocument; results: SheetResults };
+/** A revision in any state: `results` is null while its long run evaluates it. */
+export type RevisionState = RevisionListItem & { document: SheetDocument; results: SheetResults | null };
 
 async function usersById(ids: (string | null)[]): Promise<Map<string, PublicUser>> {
   const unique = [...new Set(ids.filter((id): id is string => Boolean(id)))];
@@ -49,10 +67,11 @@ async function usersById(ids: (string | null)[]): Promise<Map<string, PublicUser
 
 const iso = (date: Date | null) => (date ? new Date(date).toISOString() : null);
 
-function reviewOf(revision: SheetRevision, people: Map<string, PublicUser>): ReviewSummary {
+function reviewOf(revision: SheetRevision, people: Map<string, PublicUser>, pending: boolean): ReviewSummary {
   const person = (id: string | null) => (id ? people.get(id) ?? null : null);
   return {
     status: revision.reviewStatus,
+    evaluating: pending,
     preparedBy: person(revision.authorId),
     preparedAt: new Date(revision.createdAt).toISOString(),
     requestedBy: person(revision.reviewRequestedBy),
@@ -69,17 +88,32 @@ function reviewOf(revision: SheetRevision, people: Map<string, PublicUser>): Rev
 
 const peopleOf = (r: SheetRevision) => [r.authorId, r.reviewRequestedBy, r.reviewerId, r.checkedBy, r.approvedBy, r.returnedBy];
 
-async function toListItems(revisions: SheetRevision[]): Promise<RevisionListItem[]> {
-  const people = await usersById(revisions.flatMap(peopleOf));
-  return revisions.map((r) => ({
-    number: r.number,
-    hash: r.hash,
-    engineVersion: r.engineVersion,
-    author: people.get(r.authorId) ?? null,
-    message: r.message,
-    createdAt: new Date(r.createdAt).toISOString(),
-    review: reviewOf(r, people),
-  }));
+/** Whether a loaded revision row still waits for its results (the list reads a computed flag instead). */
+const isPending = (r: SheetRevision): boolean => {
+  const flag = r.get('resultsPending' as never) as unknown;
+  return typeof flag === 'boolean' ? flag : r.get('results') === null;
+};
+
+async function toListItems(sheetId: string, revisions: SheetRevision[]): Promise<RevisionListItem[]> {
+  const pending = revisions.filter(isPending).map((r) => r.number);
+  const [people, runs] = await Promise.all([usersById(revisions.flatMap(peopleOf)), latestRevisionRuns({ sheetId, numbers: pending })]);
+  return revisions.map((r) => {
+    const waiting = isPending(r);
+    const run = waiting ? runs.get(r.number) ?? null : null;
+    return {
+      number: r.number,
+      hash: r.hash,
+      engineVersion: r.engineVersion,
+      author: people.get(r.authorId) ?? null,
+      message: r.message,
+      createdAt: new Date(r.createdAt).toISOString(),
+      review: reviewOf(r, people, waiting),
+      evaluation: {
+        status: !waiting ? 'done' : run && (run.status === 'queued' || run.status === 'running' || run.status === 'done') ? 'evaluating' : 'failed',
+        run: run ? { id: run.id, status: run.status, progress: run.progress, ...(run.error ? { error: run.error } : {}) } : null,
+      },
+    };
+  });
 }
 
 /** Every revision of a sheet, newest first, without documents. */
@@ -87,29 +121,53 @@ export async function listRevisionsBySheet({ sheetId }: { sheetId: string }): Pr
   db();
   const revisions = await SheetRevision.findAll({
     where: { sheetId },
-    attributes: { exclude: ['document', 'results'] },
+    attributes: { exclude: ['document', 'results'], include: [[literal('(results IS NULL)'), 'resultsPending']] },
     order: [['number', 'DESC']],
   });
-  const items = await toListItems(revisions);
+  const items = await toListItems(sheetId, revisions);
   return { items, total: items.length };
 }
 
-/** One revision with its document and stored results; 404 when the sheet has no such revision. */
-export async function getRevision({ sheetId, number }: { sheetId: string; number: number }): Promise<RevisionDetail> {
+/**
+ * One revision with its document, in any state: `results` is null while its long run evaluates it.
+ * 404 when the sheet has no such revision.
+ */
+export async function readRevision({ sheetId, number }: { sheetId: string; number: number }): Promise<RevisionState> {
   db();
   const revision = await SheetRevision.findOne({ where: { sheetId, number } });
   if (!revision) throw notFound(`Revision ${number}`);
-  const [item] = await toListItems([revision]);
+  const [item] = await toListItems(sheetId, [revision]);
   if (!item) throw notFound(`Revision ${number}`);
-  return { ...item, document: revision.document as SheetDocument, results: revision.results as SheetResults };
+  return { ...item, document: revision.document as SheetDocument, results: (revision.results as SheetResults | null) ?? null };
+}
+
+/**
+ * One revision with its document and stored results; 404 when the sheet has no such revision, 409 while
+ * its results are not stored yet (reports, CSV and records need them).
+ */
+export async function getRevision({ sheetId, number }: { sheetId: string; number: number }): Promise<RevisionDetail> {
+  return requireStoredResults(await readRevision({ sheetId, number }));
+}
+
+/** The revision with its results, or 409 while its long run has not stored them. */
+export function requireStoredResults(revision: RevisionState): RevisionDetail {
+  if (revision.results === null) {
+    const words = revision.evaluation.status === 'evaluating' ? 'is still being evaluated (a long run)' : 'has no results: its evaluation did not finish';
+    throw conflict(`Revision ${revision.number} ${words}; its results are stored when its run finishes.`, {
+      current: { number: revision.number, evaluation: revision.evaluation },
+    });
+  }
+  return revision as RevisionDetail;
 }
 
 /** The review state of one revision (for the review bar). */
 export async function getReviewSummary({ sheetId, number }: { sheetId: string; number: number }): Promise<ReviewSummary> {
-  return (await getRevision({ sheetId, number })).review;
+  return (await readRevision({ sheetId, number })).review;
 }
 
 type Evaluated = { document: SheetDocument; hash: string; results: SheetResults; engineVersion: string };
+/** A revision to write: `results` null when a long run will store them (CONTRACT §6b). */
+type ToStore = Omit<Evaluated, 'results'> & { results: SheetResults | null };
 
 /**
  * Validates and evaluates a document through the worker pool (outside any transaction), with the
@@ -152,7 +210,7 @@ async function insertRevision(
     baseRevision,
     evaluated,
     message,
-  }: { sheet: Sheet; userId: string; baseRevision: number; evaluated: Evaluated; message: string },
+  }: { sheet: Sheet; userId: string; baseRevision: number; evaluated: ToStore; message: string },
   transaction: Transaction,
 ): Promise<{ number: number; hash: string }> {
   if (sheet.headRevision !== baseRevision) {
@@ -215,21 +273,51 @@ export async function saveRevision({
   baseRevision: number;
   document: unknown;
   message: string;
-}): Promise<{ number: number; hash: string }> {
+}): Promise<{ number: number; hash: string; evaluation?: 'evaluating'; run?: { id: string; status: RunRecord['status']; progress: number } }> {
   const owner = await Sheet.findByPk(sheetId, { attributes: ['id', 'teamId'] });
   if (!owner) throw notFound('Sheet');
   const valid = requireValidDocument(document);
   const { lookup, missing } = await resolveDocumentDatasets({ teamId: owner.teamId, document: valid });
   requireKnownDatasets(missing);
-  const evaluated = await evaluateForRevision(valid, userId, lookup);
+  // Over the synchronous cost limit (CONTRACT §6b): saved at once with its document and hash; a long run
+  // stores its results when it finishes (at once when the same document was evaluated before).
+  let evaluated: ToStore;
+  let longRun = false;
+  if (needsLongRun(valid, { datasetRows: (sha256) => lookup.get(sha256)?.rows.length })) {
+    const hash = hashSheetDocument(valid);
+    const cached = await findCachedRunResults({ documentHash: hash, engineVersion: ENGINE_VERSION });
+    evaluated = { document: valid, hash, results: cached, engineVersion: ENGINE_VERSION };
+    longRun = cached === null;
+  } else {
+    evaluated = await evaluateForRevision(valid, userId, lookup);
+  }
   const sequelize = db();
   try {
-    return await sequelize.transaction(async (transaction) => {
+    const { saved, run } = await sequelize.transaction(async (transaction) => {
       await requireTeamDatasets({ teamId: owner.teamId, document: evaluated.document }, transaction);
       const sheet = await Sheet.findByPk(sheetId, { transaction, lock: transaction.LOCK.UPDATE });
       if (!sheet) throw notFound('Sheet');
-      return insertRevision({ sheet, userId, baseRevision, evaluated, message }, transaction);
+      const saved = await insertRevision({ sheet, userId, baseRevision, evaluated, message }, transaction);
+      const run = longRun
+        ? await insertRun(
+            {
+              sheetId,
+              requesterId: userId,
+              draftVersion: null,
+              revisionNumber: saved.number,
+              document: evaluated.document,
+              documentHash: evaluated.hash,
+              engineVersion: evaluated.engineVersion,
+              cachedResults: null,
+            },
+            transaction,
+          )
+        : null;
+      return { saved, run };
     });
+    if (!run) return saved;
+    await enqueueRun(run);
+    return { ...saved, evaluation: 'evaluating', run: { id: run.id, status: run.status, progress: run.progress } };
   } catch (error) {
     if (error instanceof UniqueConstraintError) {
       const current = await Sheet.findByPk(sheetId);

@@ -1,6 +1,6 @@
 import 'server-only';
 import { randomUUID } from 'node:crypto';
-import { QueryTypes } from 'sequelize';
+import { QueryTypes, type Transaction } from 'sequelize';
 import type { SheetDocument, SheetResults } from '@/lib/engine';
 import { notFound } from '@/lib/errors';
 import { db } from './index';
@@ -71,7 +71,7 @@ export async function findCachedRunResults({
 }): Promise<SheetResults | null> {
   const rows = await db().query<{ results: SheetResults }>(
     `SELECT results FROM runs WHERE document_hash = :documentHash AND engine_version = :engineVersion AND status = 'done'
-     ORDER BY finished_at DESC LIMIT 1`,
+       AND cacheable ORDER BY finished_at DESC LIMIT 1`,
     { replacements: { documentHash, engineVersion }, type: QueryTypes.SELECT },
   );
   return rows[0]?.results ?? null;
@@ -96,7 +96,7 @@ export async function insertRun({
   documentHash: string;
   engineVersion: string;
   cachedResults: SheetResults | null;
-}): Promise<RunRecord> {
+}, transaction?: Transaction): Promise<RunRecord> {
   const done = cachedResults !== null;
   const rows = await db().query<RunRow>(
     `INSERT INTO runs (id, sheet_id, requester_id, draft_version, revision_number, document, document_hash, engine_version,
@@ -119,6 +119,7 @@ export async function insertRun({
         results: done ? JSON.stringify(cachedResults) : null,
       },
       type: QueryTypes.SELECT,
+      ...(transaction ? { transaction } : {}),
     },
   );
   return toRecord(rows[0]!);
@@ -174,12 +175,21 @@ export async function recordRunProgress({ runId, progress }: { runId: string; pr
  * running → done with the results; a run of a revision also stores them on the revision, in the
  * same transaction (the revision stops showing "evaluating"). False when the run was cancelled.
  */
-export async function finishRun({ runId, results }: { runId: string; results: SheetResults }): Promise<boolean> {
+export async function finishRun({
+  runId,
+  results,
+  cacheable = true,
+}: {
+  runId: string;
+  results: SheetResults;
+  /** False when some dataset the document refers to was not at hand (its results are not reused by hash). */
+  cacheable?: boolean;
+}): Promise<boolean> {
   return db().transaction(async (transaction) => {
     const rows = await db().query<{ sheet_id: string; revision_number: number | null }>(
-      `UPDATE runs SET status = 'done', progress = 1, results = :results, finished_at = now()
+      `UPDATE runs SET status = 'done', progress = 1, results = :results, finished_at = now(), cacheable = :cacheable
        WHERE id = :runId AND status = 'running' RETURNING sheet_id, revision_number`,
-      { replacements: { runId, results: JSON.stringify(results) }, type: QueryTypes.SELECT, transaction },
+      { replacements: { runId, results: JSON.stringify(results), cacheable }, type: QueryTypes.SELECT, transaction },
     );
     const row = rows[0];
     if (!row) return false;
@@ -230,4 +240,28 @@ export async function countActiveRunsByRequester({ requesterId }: { requesterId:
     { replacements: { requesterId }, type: QueryTypes.SELECT },
   );
   return Number(rows[0]?.count ?? 0);
+}
+
+/**
+ * Stores a finished run's results on its revision when the revision has none yet (a run that was done
+ * at once from the cache never passes through finishRun). False when the revision already had results.
+ */
+export async function storeRevisionResults({ sheetId, number, results }: { sheetId: string; number: number; results: SheetResults }): Promise<boolean> {
+  const [, count] = await db().query(
+    `UPDATE sheet_revisions SET results = :results WHERE sheet_id = :sheetId AND number = :number AND results IS NULL`,
+    { replacements: { results: JSON.stringify(results), sheetId, number }, type: QueryTypes.UPDATE },
+  );
+  return count === 1;
+}
+
+/** The newest run of each of the given revisions of a sheet (revisions without a run are absent). */
+export async function latestRevisionRuns({ sheetId, numbers }: { sheetId: string; numbers: number[] }): Promise<Map<number, RunRecord>> {
+  if (!numbers.length) return new Map();
+  const rows = await db().query<RunRow>(
+    `SELECT DISTINCT ON (revision_number) ${COLUMNS} FROM runs
+      WHERE sheet_id = :sheetId AND revision_number IN (:numbers)
+      ORDER BY revision_number, created_at DESC`,
+    { replacements: { sheetId, numbers }, type: QueryTypes.SELECT },
+  );
+  return new Map(rows.map((row) => [row.revision_number!, toRecord(row)]));
 }

@@ -219,7 +219,8 @@ export async function createSheet({
 export type SheetDetail = {
   sheet: SheetRecord & { createdBy: PublicUser | null; updatedBy: PublicUser | null };
   draft: { version: number; document: unknown };
-  head: { number: number; hash: string; status: ReviewStatus } | null;
+  /** `evaluating` (only when true): the head's results are not stored yet (its long run evaluates it, CONTRACT §6b). */
+  head: { number: number; hash: string; status: ReviewStatus; evaluating?: true } | null;
   forkedFrom?: { sheetId: string; title: string | null; revision: number | null; visible: boolean };
   forks: { id: string; title: string; site: string | null; revision: number | null }[];
 };
@@ -257,7 +258,7 @@ export async function getSheetDetail({
       updatedBy: withUsers.updater ? toPublicUser(withUsers.updater) : null,
     },
     draft: { version: sheet.draftVersion, document: sheet.draftDocument },
-    head: head ? { number: head.number, hash: head.hash, status: head.reviewStatus } : null,
+    head: head ? { number: head.number, hash: head.hash, status: head.reviewStatus, ...(head.results === null ? { evaluating: true as const } : {}) } : null,
     ...(sheet.forkedFromSheetId
       ? {
           forkedFrom: {

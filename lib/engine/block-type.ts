@@ -108,6 +108,8 @@ export interface BlockOutcome {
 /** What a block type's estimateCost sees: the input expressions as written. */
 export interface CostEstimateInput {
   inputs: Readonly<Record<string, string>>;
+  /** Rows of a dataset by sha256, when the caller has resolved the document's datasets. */
+  datasetRows?: (sha256: string) => number | undefined;
 }
 
 /** Coerced inputs by name; optional inputs left out are undefined. */

@@ -10,6 +10,7 @@ import {
   insertRun,
   markRunStarted,
   recordRunProgress,
+  storeRevisionResults,
   type RunRecord,
 } from '@/lib/db/runs';
 import { createEvaluationPool } from '@/lib/evaluation/pool';
@@ -51,7 +52,9 @@ export async function executeRun(runId: string): Promise<void> {
   // Data inputs resolve from the sheet's team, as for a request (CONTRACT §7.6).
   const { sheetId } = await getRun({ runId });
   const sheet = await Sheet.findByPk(sheetId, { attributes: ['id', 'teamId'] });
-  const datasets = sheet ? (await resolveDocumentDatasets({ teamId: sheet.teamId, document })).lookup : new Map();
+  const resolved = sheet ? await resolveDocumentDatasets({ teamId: sheet.teamId, document }) : null;
+  const datasets = resolved?.lookup ?? new Map();
+  const cacheable = resolved !== null && resolved.missing.length === 0;
   const controller = new AbortController();
   let latest = 0;
   let writing: Promise<void> = Promise.resolve();
@@ -74,7 +77,7 @@ export async function executeRun(runId: string): Promise<void> {
     );
     clearInterval(timer);
     await writing;
-    await finishRun({ runId, results });
+    await finishRun({ runId, results, cacheable });
   } catch (error) {
     clearInterval(timer);
     await writing;
@@ -136,12 +139,20 @@ export async function requestRun({
     engineVersion: ENGINE_VERSION,
     cachedResults,
   });
-  if (run.status === 'queued') {
-    const boss = await jobQueue();
-    await boss.send(RUN_QUEUE, { runId: run.id }, { retryLimit: 0, expireInSeconds: Math.ceil(RUN_TIME_LIMIT_MS / 1000) + 120 });
-    void startRunWorker().catch((error: unknown) => console.error('[denudata] run worker:', error instanceof Error ? error.message : error));
+  if (run.status === 'done' && cachedResults && revisionNumber !== null) {
+    // Done at once from the cache: a revision still without results takes them now.
+    await storeRevisionResults({ sheetId, number: revisionNumber, results: cachedResults });
   }
+  await enqueueRun(run);
   return run;
+}
+
+/** Queues the job of a run inserted as queued (after its transaction committed); nothing for a finished run. */
+export async function enqueueRun(run: RunRecord): Promise<void> {
+  if (run.status !== 'queued') return;
+  const boss = await jobQueue();
+  await boss.send(RUN_QUEUE, { runId: run.id }, { retryLimit: 0, expireInSeconds: Math.ceil(RUN_TIME_LIMIT_MS / 1000) + 120 });
+  void startRunWorker().catch((error: unknown) => console.error('[denudata] run worker:', error instanceof Error ? error.message : error));
 }
 
 /** Cancels a queued or running run (the caller has checked who may). */

@@ -2,7 +2,7 @@ import 'server-only';
 import { requireSheetRole } from '@/lib/auth/guard';
 import { countActiveRunsByRequester, getRun, getRunResults, type RunRecord } from '@/lib/db/runs';
 import { getSheetDraft } from '@/lib/db/sheets';
-import { getRevision } from '@/lib/db/revisions';
+import { readRevision } from '@/lib/db/revisions';
 import { conflict, forbidden, rateLimited } from '@/lib/errors';
 import { requestRun, requestRunCancel } from '@/lib/jobs/runs';
 import { requireValidDocument } from '@/lib/sheet/evaluation.server';
@@ -42,7 +42,7 @@ export async function startSheetRun({
     throw rateLimited(`You have ${MAX_ACTIVE_RUNS_PER_USER} runs queued or running, the most allowed at once.`, 10);
   }
   if (revision !== undefined) {
-    const stored = await getRevision({ sheetId, number: revision });
+    const stored = await readRevision({ sheetId, number: revision });
     const document = requireValidDocument(stored.document);
     return requestRun({ sheetId, requesterId: userId, document, revisionNumber: revision });
   }

@@ -1,5 +1,5 @@
 import { requireSheetRole, requireUser } from '@/lib/auth/guard';
-import { getRevision } from '@/lib/db/revisions';
+import { readRevision } from '@/lib/db/revisions';
 import { json, notAllowed, readQuery, route } from '@/lib/http';
 import { compareSheets } from '@/lib/sheet/compare';
 import { compareQuerySchema } from './schema';
@@ -9,7 +9,7 @@ export const GET = route(async (request) => {
   const { from, to } = readQuery(request, compareQuerySchema);
   await requireSheetRole({ userId: user.id, sheetId: from.sheetId, action: 'read' });
   await requireSheetRole({ userId: user.id, sheetId: to.sheetId, action: 'read' });
-  const [before, after] = await Promise.all([getRevision(from), getRevision(to)]);
+  const [before, after] = await Promise.all([readRevision(from), readRevision(to)]);
   const comparison = compareSheets(before, after);
   return json({
     from: { sheetId: from.sheetId, number: before.number, hash: before.hash, createdAt: before.createdAt, author: before.author, message: before.message },

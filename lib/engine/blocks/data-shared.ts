@@ -1,5 +1,6 @@
 /** Facts shared by the three data-driven block types (scarp_fit, profile_evolution, channel_march). */
 import type { Series } from '../block-type';
+import { parseDataInput } from '../dataset-input';
 
 /** Seconds in a Julian year (CONTRACT §3). */
 export const SECONDS_PER_YEAR = 365.25 * 86400;
@@ -30,3 +31,19 @@ export function median(values: ArrayLike<number>): number {
 
 export const DATA_INPUT_HELP =
   'A dataset of the team, written dataset("<sha256>"): pick it from the list beside the input. The hash pins the data in the revision.';
+
+/** The largest dataset (CONTRACT §7.7): the rows assumed when the caller cannot say. */
+export const MAX_DATASET_ROWS = 20000;
+
+/**
+ * Rows of the dataset a data input refers to, for a cost estimate: the caller's count when it has the
+ * dataset, the largest allowed when it cannot tell, and null when the input names no dataset it holds
+ * (the block then stops at once with an error).
+ */
+export function estimatedRows(text: string | undefined, datasetRows?: (sha256: string) => number | undefined): number | null {
+  if (text === undefined) return null;
+  const sha256 = parseDataInput(text);
+  if (sha256 === null) return null;
+  if (!datasetRows) return MAX_DATASET_ROWS;
+  return datasetRows(sha256) ?? null;
+}

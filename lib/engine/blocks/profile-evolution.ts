@@ -7,7 +7,7 @@ import { EngineError } from '../errors';
 import type { Unit } from 'mathjs';
 import { checkExpression, math } from '../expression';
 import { evolveProfile, NonlinearFailure, steepestFace } from '../numerics/diffusion-1d';
-import { DATA_INPUT_HELP, SECONDS_PER_YEAR, median, short } from './data-shared';
+import { DATA_INPUT_HELP, SECONDS_PER_YEAR, estimatedRows, median, short } from './data-shared';
 
 export const MAX_NODES = 20001;
 export const MAX_STEPS = 100000;
@@ -226,7 +226,7 @@ export const profileEvolution: BlockTypeDefinition = {
   },
   // Long runs (CONTRACT §6b): one cost unit is about 0.1 ms; a linear node-step takes about
   // 10 ns (DEVELOPERS.md, data-block bench), a nonlinear one about ten times that.
-  estimateCost({ inputs }) {
+  estimateCost({ inputs, datasetRows }) {
     const literal = (name: string, unit: string): number | undefined => {
       const text = inputs[name];
       if (text === undefined || text.trim() === '') return undefined;
@@ -240,7 +240,12 @@ export const profileEvolution: BlockTypeDefinition = {
     const dx = literal('dx', 'm');
     const W = literal('half_width', 'm');
     let nodes: number;
-    if (inputs.data !== undefined && inputs.data.trim() !== '') nodes = dx === undefined ? 2000 : MAX_NODES;
+    if (inputs.data !== undefined && inputs.data.trim() !== '') {
+      // From data without dx: about one node per row (the data's median spacing).
+      const rows = estimatedRows(inputs.data, datasetRows);
+      if (rows === null) return undefined;
+      nodes = dx === undefined ? rows : MAX_NODES;
+    }
     else if (dx !== undefined && W !== undefined && dx > 0) nodes = Math.min(MAX_NODES, 2 * Math.round(W / dx) + 1);
     else nodes = 241; // the defaults: W = 6√(Kt), dx = √(Kt)/20
     const nonlinear = inputs.critical_slope !== undefined && inputs.critical_slope.trim() !== '' ? 10 : 1;

@@ -5,7 +5,7 @@
 import tQuantile from '@stdlib/stats-base-dists-t-quantile';
 import { BlockFailure, STANDING_CAUTION, type BlockOutcome, type BlockTypeDefinition, type OutputValue, type Series } from '../block-type';
 import { erfModel, fitErfScarp } from '../numerics/erf-fit';
-import { DATA_INPUT_HELP, median, short } from './data-shared';
+import { DATA_INPUT_HELP, estimatedRows, median, short } from './data-shared';
 import { SCARP_SOURCES, SLOPE_LIMIT, YEARS_PER_KYR_SECONDS } from './scarp-shared';
 
 const FITTED_POINTS = 201;
@@ -266,6 +266,16 @@ export const scarpFit: BlockTypeDefinition = {
       },
       warnings,
     };
+  },
+  // Long runs (CONTRACT §6b): measured in one run against profile_evolution's node-steps (one unit per
+  // 10⁴ node-steps), a fit with x0 fixed costs about 15 + 0.018·n units and with x0 fitted about
+  // 700 + 0.08·n (the coarse x0 scan on a subsample, then refinement on every point); twice that is
+  // estimated, so five 20,000-row fits with x0 fitted (about 4.4 s under load) go to a long run.
+  estimateCost({ inputs, datasetRows }) {
+    const rows = estimatedRows(inputs.data, datasetRows);
+    if (rows === null) return undefined;
+    const x0Fixed = inputs.x0 !== undefined && inputs.x0.trim() !== '';
+    return x0Fixed ? 30 + 0.036 * rows : 1400 + 0.16 * rows;
   },
   // Uncertainty (CONTRACT §8.3): the fit does not depend on the diffusivity, so it is done once;
   // each sample only rescales the age outputs (and re-checks the young-age warning).

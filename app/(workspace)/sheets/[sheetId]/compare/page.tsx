@@ -1,6 +1,6 @@
 import type { Metadata } from 'next';
 import Link from 'next/link';
-import { getRevision } from '@/lib/db/revisions';
+import { readRevision } from '@/lib/db/revisions';
 import { getSheetDraft } from '@/lib/db/sheets';
 import { runEvaluate } from '@/lib/evaluation/pool';
 import { parseSheetDocument } from '@/lib/engine';
@@ -36,7 +36,7 @@ export default async function ComparePage({ params, searchParams }: { params: Pr
     const readable = async (s: { sheetId: string; number: number }) => {
       const record = await findSheetRecord({ sheetId: s.sheetId });
       if (!record || !visibleTeamIds.includes(record.teamId)) return null;
-      return getRevision(s).catch(() => null);
+      return readRevision(s).catch(() => null);
     };
     const draftSide = async () => {
       const draft = await getSheetDraft({ sheetId });

@@ -71,6 +71,12 @@ export default async function RevisionsPage({ params }: { params: Promise<{ shee
                     <td className="num px-3 py-2 whitespace-nowrap"><time dateTime={r.createdAt}>{r.createdAt.slice(0, 16).replace('T', ' ')} UTC</time></td>
                     <td className="px-3 py-2">
                       <StatusTag status={r.review.status} />
+                      {r.evaluation.status !== 'done' ? (
+                        <span className="ml-2 text-[12px] text-ochre" data-testid="revision-evaluating">
+                          <span aria-hidden="true">◌ </span>
+                          {r.evaluation.status === 'evaluating' ? 'evaluating' : 'not evaluated'}
+                        </span>
+                      ) : null}
                       <div className="mt-1"><ReviewNotes notes={notesOf(r.number)} /></div>
                     </td>
                     <td className="num px-3 py-2 text-slate" title={r.hash}>{r.hash.slice(0, 10)}</td>
@@ -79,7 +85,9 @@ export default async function RevisionsPage({ params }: { params: Promise<{ shee
                         <Link href={`/sheets/${sheetId}/compare?from=${previous(i)}&to=${r.number}`} className="text-river hover:underline">changes</Link>
                       ) : null}{' '}
                       <a href={`/api/sheets/${sheetId}/export?revision=${r.number}`} className="text-river hover:underline">export</a>{' '}
-                      <Link href={`/sheets/${sheetId}/revisions/${r.number}/report`} className="text-river hover:underline">report</Link>
+                      {r.evaluation.status === 'done' ? (
+                        <Link href={`/sheets/${sheetId}/revisions/${r.number}/report`} className="text-river hover:underline">report</Link>
+                      ) : null}
                     </td>
                   </tr>
                 ))}

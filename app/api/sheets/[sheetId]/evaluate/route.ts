@@ -45,13 +45,14 @@ export const POST = route(async (request, { params }: Context) => {
     return json(await evaluateUnsaved({ sheetId, draftVersion: draft.version, document, userId: user.id, datasets: lookup }));
   }
   const document = requireValidDocument(draft.document, 'draft');
-  // Too costly for a request (CONTRACT §6b): evaluated as a long run instead → 202 {run}.
-  if (needsLongRun(document)) {
+  // Data inputs resolve from the sheet's team; an unknown hash is a block error in a draft.
+  const { lookup } = await resolveDocumentDatasets({ teamId: sheet.teamId, document });
+  // Too costly for a request (CONTRACT §6b): evaluated as a long run instead → 202 {run}. The estimate
+  // knows the row counts of the datasets (fits and grids from data scale with them).
+  if (needsLongRun(document, { datasetRows: (sha256) => lookup.get(sha256)?.rows.length })) {
     const run = await startSheetRun({ sheetId, userId: user.id, draftVersion: draft.version });
     return json({ draftVersion: draft.version, run: { id: run.id, status: run.status, progress: run.progress } }, 202);
   }
-  // Data inputs resolve from the sheet's team; an unknown hash is a block error in a draft.
-  const { lookup } = await resolveDocumentDatasets({ teamId: sheet.teamId, document });
   return json(await evaluateDraft({ sheetId, draftVersion: draft.version, document, userId: user.id, datasets: lookup }));
 });
 

@@ -1,7 +1,7 @@
 import { z } from 'zod';
 import { requireSheetRole, requireUser } from '@/lib/auth/guard';
 import { bundleDatasets } from '@/lib/db/datasets';
-import { getRevision } from '@/lib/db/revisions';
+import { readRevision, requireStoredResults } from '@/lib/db/revisions';
 import { listReviewEvents } from '@/lib/db/review-events';
 import { buildRecord } from '@/lib/report/record';
 import { notFound } from '@/lib/errors';
@@ -28,16 +28,18 @@ export const GET = route(async (request, { params }: Context) => {
   const query = readQuery(request, exportQuerySchema);
   const number = query.revision ?? sheet.headRevision;
   if (number === 0) throw notFound('A saved revision of this sheet (save one first)');
-  const revision = await getRevision({ sheetId, number });
+  const revision = await readRevision({ sheetId, number });
   const bundle = query.bundle === '1';
   const record = query.format === 'record';
+  // A record carries the results: 409 while a long run has not stored them (the document exports at once).
+  const results = record ? requireStoredResults(revision).results : null;
   const datasets = bundle || record ? await bundleDatasets({ teamId: sheet.teamId, document: revision.document }) : [];
   const filename = `${slug(revision.document.title)}-r${number}${record ? '.record' : bundle ? '.bundle' : ''}.denudata.json`;
   const body = record
     ? {
         ...buildRecord({
           document: revision.document,
-          results: revision.results,
+          results: results!,
           hash: revision.hash,
           engineVersion: revision.engineVersion,
           number,

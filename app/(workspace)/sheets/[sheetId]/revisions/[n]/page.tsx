@@ -4,10 +4,11 @@ import { notFound } from 'next/navigation';
 import { RevisionBlocks, ResultCautions } from '@/components/history/revision-view';
 import { ReviewBar } from '@/components/review/review-bar';
 import { RevisionSideRail } from '@/components/history/revision-side-rail';
+import { RevisionEvaluation } from '@/components/history/revision-evaluation';
 import { roleAllows } from '@/lib/auth/permissions';
 import { listCommentsBySheet } from '@/lib/db/comments';
 import { listMembersByTeam } from '@/lib/db/members';
-import { getRevision } from '@/lib/db/revisions';
+import { readRevision } from '@/lib/db/revisions';
 import { listReviewEvents } from '@/lib/db/review-events';
 import { latestApprovedRevision } from '@/lib/sheet/draft-standing.server';
 import { requireSheetPage } from '@/lib/sheet/page-access';
@@ -19,7 +20,7 @@ export default async function RevisionPage({ params }: { params: Promise<{ sheet
   const { user, sheet, role } = await requireSheetPage(sheetId);
   const number = Number(n);
   if (!Number.isInteger(number) || number < 1) notFound();
-  const revision = await getRevision({ sheetId, number }).catch(() => null);
+  const revision = await readRevision({ sheetId, number }).catch(() => null);
   if (!revision) notFound();
   const [members, comments, events, approved] = await Promise.all([
     listMembersByTeam({ teamId: sheet.teamId }),
@@ -31,6 +32,8 @@ export default async function RevisionPage({ params }: { params: Promise<{ sheet
   const checkers = members.items.filter((m) => roleAllows(m.role, 'check')).map((m) => m.user);
   const isHead = number === sheet.headRevision;
   const document = revision.document;
+  // Saved over the cost limit: no results until its long run stores them (CONTRACT §6b).
+  const evaluated = revision.results !== null;
   return (
     <div className="grid gap-6 lg:grid-cols-[minmax(0,1fr)_340px]">
     <div className="flex min-w-0 flex-col gap-4">
@@ -66,12 +69,16 @@ export default async function RevisionPage({ params }: { params: Promise<{ sheet
               Changes since r{number - 1}
             </Link>
           ) : null}
-          <Link className="text-river hover:underline" href={`/sheets/${sheetId}/revisions/${number}/report`}>
-            Calculation report
-          </Link>
-          <a className="text-river hover:underline" href={`/api/sheets/${sheetId}/revisions/${number}/report.pdf`}>
-            PDF
-          </a>
+          {evaluated ? (
+            <>
+              <Link className="text-river hover:underline" href={`/sheets/${sheetId}/revisions/${number}/report`}>
+                Calculation report
+              </Link>
+              <a className="text-river hover:underline" href={`/api/sheets/${sheetId}/revisions/${number}/report.pdf`}>
+                PDF
+              </a>
+            </>
+          ) : null}
           <a className="text-river hover:underline" href={`/api/sheets/${sheetId}/export?revision=${number}`}>
             Export this revision
           </a>
@@ -91,8 +98,9 @@ export default async function RevisionPage({ params }: { params: Promise<{ sheet
         </p>
       </header>
       <ReviewBar sheetId={sheetId} revision={number} isHead={isHead} review={revision.review} role={role} userId={user.id} checkers={checkers} notes={notes} />
+      <RevisionEvaluation sheetId={sheetId} revision={number} evaluation={revision.evaluation} />
       <ResultCautions />
-      <RevisionBlocks blocks={document.blocks} results={revision.results} openCounts={comments.openByBlock} />
+      <RevisionBlocks blocks={document.blocks} results={revision.results ?? {}} openCounts={comments.openByBlock} />
     </div>
     <RevisionSideRail
       sheetId={sheetId}

@@ -1,5 +1,5 @@
 import { requireSheetRole, requireUser } from '@/lib/auth/guard';
-import { getRevision } from '@/lib/db/revisions';
+import { readRevision } from '@/lib/db/revisions';
 import { json, notAllowed, parseWith, route } from '@/lib/http';
 import { revisionNumberSchema } from '../schema';
 
@@ -10,7 +10,8 @@ export const GET = route(async (_request, { params }: Context) => {
   const { sheetId, number } = await params;
   await requireSheetRole({ userId: user.id, sheetId, action: 'read' });
   const n = parseWith(revisionNumberSchema, number);
-  return json(await getRevision({ sheetId, number: n }));
+  // In any state: `results` is null and `evaluation` says so while a long run evaluates it (CONTRACT §6b).
+  return json(await readRevision({ sheetId, number: n }));
 });
 
 export const { POST, PUT, PATCH, DELETE } = notAllowed('GET');
