@@ -7,9 +7,7 @@ import { DEMO_DATASETS, demoDataset } from '@/lib/demo/datasets';
 import { datasetReferences } from '@/lib/datasets/references';
 import { ENGINE_VERSION, evaluateSheet, hashSheetDocument, parseSheetDocument } from '@/lib/engine';
 import { DEMO_SHEETS } from '@/lib/demo/sheets';
-import { DEMO_DATA_SHEET, DEMO_DATASETS as DEMO_DATA_SHEET_DATASETS } from '@/lib/demo/data-sheets';
-import { canonicalCsv } from '@/lib/datasets/canonical';
-import { canonicalDatasetJson } from '@/lib/engine/dataset';
+import { DEMO_DATA_SHEET } from '@/lib/demo/data-sheets';
 import { db } from './index';
 import { siteColumns } from './sheets';
 import { hashPassword } from './users';
@@ -87,8 +85,9 @@ export async function seedDemo(): Promise<{ users: number; sheets: number }> {
 }
 
 /**
- * The demo datasets (an invented scarp survey and river long profile), uploaded by the editor; idempotent.
- * Demo sheets refer to them, and their revisions are evaluated with them.
+ * The demo datasets (an invented scarp survey and river long profile, one set: lib/demo/datasets.ts),
+ * uploaded once by the editor with their CSV as the original file; idempotent. The surveyed-data sheet
+ * refers to them, and its revision is evaluated with them.
  */
 async function seedDemoDatasets(
   { teamId, uploader }: { teamId: string; uploader: User },
@@ -120,33 +119,6 @@ async function seedDemoDatasets(
       transaction,
     });
     lookup.set(dataset.sha256, dataset.canonical);
-  }
-  // The datasets of the surveyed-data sheet, kept in canonical form; their original is the canonical CSV.
-  for (const entry of DEMO_DATA_SHEET_DATASETS) {
-    const canonicalJson = canonicalDatasetJson(entry.canonical);
-    const original = Buffer.from(canonicalCsv(entry.canonical), 'utf8');
-    await Dataset.findOrCreate({
-      where: { teamId, sha256: entry.sha256 },
-      defaults: {
-        teamId,
-        sha256: entry.sha256,
-        kind: entry.canonical.kind,
-        name: entry.name,
-        description: entry.description,
-        columns: entry.canonical.columns,
-        canonical: canonicalJson,
-        canonicalBytes: Buffer.byteLength(canonicalJson, 'utf8'),
-        rowCount: entry.canonical.rows.length,
-        original,
-        originalSha256: createHash('sha256').update(original).digest('hex'),
-        originalFilename: `${entry.canonical.kind}-${entry.sha256.slice(0, 12)}.csv`,
-        byteSize: original.byteLength,
-        createdBy: uploader.id,
-        createdAt: new Date(Date.UTC(2026, 10, 2, 16, 30)),
-      },
-      transaction,
-    });
-    lookup.set(entry.sha256, entry.canonical);
   }
   return lookup;
 }

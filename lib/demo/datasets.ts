@@ -1,8 +1,9 @@
 /**
- * Demo datasets for the invented scenario of Harrow Vale Geoscience: a surveyed scarp profile at the
- * fictional Ember Ridge site and a river long profile of the fictional Sorrel River. The numbers are made
- * up (an erf-shaped scarp with a few centimetres of scatter; a concave long profile with a small sill);
- * they describe no real place. Seeded into the demo team by lib/db/seed.ts.
+ * The demo datasets, one set for the whole invented scenario of Harrow Vale Geoscience: a total-station
+ * profile across the fictional Ember Ridge fault scarp and a long profile of the fictional Sorrel River
+ * bridge reach. The numbers were generated from the models with a fixed, deterministic perturbation; they
+ * describe no real place. lib/db/seed.ts uploads them to the demo team once (the CSV below is each
+ * dataset's original file) and the surveyed-data sheet (lib/demo/data-sheets.ts) refers to them by hash.
  */
 import type { DatasetKind } from '../engine/dataset';
 import { parseDatasetText } from '../datasets/parse';
@@ -14,93 +15,117 @@ export interface DemoDataset {
   kind: DatasetKind;
   filename: string;
   csv: string;
+  /** The SHA-256 of the canonical form, pinned so seeded databases and demo revisions keep their hashes. */
+  sha256: string;
 }
 
 export const DEMO_DATASETS: DemoDataset[] = [
   {
     key: 'ember_ridge_scarp',
-    name: 'Ember Ridge scarp, line ER-2 (total station)',
+    name: 'Ember Ridge scarp, total-station profile ER-2',
     description:
-      'Invented demo survey: profile ER-2 across the Ember Ridge fault scarp, perpendicular to the trace, distance positive toward the upthrown side. Total station, 1.5 cm; the points marked 4 cm were shot by GNSS. Local datum.',
+      'Invented demo survey: 49 points across the Ember Ridge fault scarp, perpendicular to the trace, distance increasing toward the upthrown side. 2 cm sd, 3 cm on every sixth point (prism pole on loose debris). Local datum.',
     kind: 'slope_profile',
     filename: 'ember-ridge-er2.csv',
+    sha256: '92c06e63389ab4f37a9e8f4d5aa6b7edcc6f7234ceb9d5f4d9b0ee2817ffeb90',
     csv: `distance [m],elevation [m],elevation_sd [m]
--24,1516.941,0.015
--22,1517.050,0.015
--20,1517.182,0.015
--18,1517.286,0.015
--16,1517.422,0.015
--14,1517.553,0.04
--12,1517.704,0.015
--10,1517.878,0.015
--8,1518.109,0.015
--7,1518.258,0.015
--6,1518.438,0.015
--5,1518.593,0.04
--4,1518.829,0.015
--3,1519.077,0.015
--2,1519.339,0.015
--1,1519.618,0.015
-0,1519.895,0.015
-1,1520.168,0.04
-2,1520.453,0.015
-3,1520.727,0.015
-4,1520.969,0.015
-5,1521.216,0.015
-6,1521.427,0.015
-7,1521.645,0.04
-8,1521.764,0.015
-9,1521.909,0.015
-10,1522.039,0.015
-12,1522.239,0.015
-14,1522.380,0.015
-16,1522.488,0.04
-18,1522.661,0.015
-20,1522.761,0.015
-22,1522.899,0.015
-24,1523.008,0.015
+-24.00,509.477,0.020
+-22.76,509.535,0.020
+-21.87,509.574,0.020
+-21.17,509.617,0.030
+-20.22,509.690,0.020
+-18.95,509.781,0.020
+-17.75,509.854,0.020
+-16.92,509.890,0.020
+-16.21,509.918,0.020
+-15.19,509.981,0.030
+-13.89,510.080,0.020
+-12.75,510.175,0.020
+-11.97,510.235,0.020
+-11.23,510.280,0.020
+-10.15,510.356,0.020
+-8.85,510.482,0.030
+-7.77,510.620,0.020
+-7.03,510.734,0.020
+-6.25,510.853,0.020
+-5.10,511.032,0.020
+-3.81,511.263,0.020
+-2.79,511.479,0.030
+-2.08,511.657,0.020
+-1.25,511.878,0.020
+-0.05,512.194,0.020
+1.22,512.518,0.020
+2.17,512.749,0.020
+2.87,512.920,0.030
+3.76,513.148,0.020
+5.00,513.448,0.020
+6.24,513.707,0.020
+7.13,513.857,0.020
+7.83,513.953,0.020
+8.78,514.081,0.030
+10.05,514.247,0.020
+11.25,514.391,0.020
+12.08,514.478,0.020
+12.79,514.531,0.020
+13.81,514.593,0.020
+15.11,514.674,0.030
+16.25,514.756,0.020
+17.03,514.823,0.020
+17.77,514.882,0.020
+18.85,514.943,0.020
+20.15,515.006,0.020
+21.23,515.058,0.030
+21.97,515.107,0.020
+22.75,515.170,0.020
+23.90,515.253,0.020
 `,
   },
   {
     key: 'sorrel_river_long_profile',
     name: 'Sorrel River long profile, bridge reach',
     description:
-      'Invented demo data: thalweg of the Sorrel River from the upper gauge to the confluence, read off a 2 m elevation model every 500 m, with drainage area from the same model. A small bedrock sill lies between 4 and 5.5 km.',
+      'Invented demo data: thalweg of the Sorrel River reach upstream of the planned bridge, 25 nodes every 200 m downstream from a made-up 5 m elevation model, with drainage area from the same model.',
     kind: 'long_profile',
     filename: 'sorrel-river-long-profile.csv',
+    sha256: '79717837106335931caf3e88ae42c682af0c526c84b3e2019248c8fd7ae2b0b4',
     csv: `distance [m],elevation [m],drainage_area [km^2]
-0,320.00,14.00
-500,302.87,14.77
-1000,287.37,15.77
-1500,273.35,16.87
-2000,260.66,18.06
-2500,249.18,19.31
-3000,238.79,20.60
-3500,229.39,21.94
-4000,220.88,23.32
-4500,214.68,24.74
-5000,207.72,26.19
-5500,201.42,27.66
-6000,194.21,29.17
-6500,189.06,30.70
-7000,184.39,32.25
-7500,180.16,33.83
-8000,176.34,35.42
-8500,172.88,37.04
-9000,169.75,38.67
-9500,166.92,40.33
-10000,164.36,42.00
+0,318.00,38.00
+200,315.60,38.35
+400,313.40,38.70
+600,311.10,39.05
+800,309.10,39.40
+1000,307.30,39.75
+1200,305.60,40.10
+1400,304.00,40.45
+1600,302.80,40.80
+1800,302.00,41.15
+2000,301.50,41.50
+2200,301.10,41.85
+2400,300.66,42.20
+2600,300.06,42.55
+2800,299.06,42.90
+3000,297.76,43.25
+3200,296.36,43.60
+3400,295.16,43.95
+3600,294.36,44.30
+3800,293.80,44.65
+4000,293.44,45.00
+4200,293.20,45.35
+4400,293.00,45.70
+4600,292.70,46.05
+4800,292.30,46.40
 `,
   },
 ];
 
-/** The canonical form and sha256 of a demo dataset (for demo sheets that refer to it). */
+/** The canonical form of a demo dataset, parsed from its CSV (and checked against the pinned hash). */
 export function demoDataset(key: DemoDataset['key']) {
   const entry = DEMO_DATASETS.find((d) => d.key === key)!;
   const parsed = parseDatasetText(entry.csv, entry.kind);
   if (!parsed.ok) throw new Error(`demo dataset ${key} is invalid: ${parsed.message}`);
-  return { ...entry, sha256: parsed.sha256, canonical: parsed.dataset, canonicalJson: parsed.canonicalJson, rowCount: parsed.rowCount };
+  if (parsed.sha256 !== entry.sha256) throw new Error(`demo dataset ${key} hashes to ${parsed.sha256}, not ${entry.sha256}`);
+  return { ...entry, canonical: parsed.dataset, canonicalJson: parsed.canonicalJson, rowCount: parsed.rowCount };
 }
 
 /** `dataset("<sha256>")` for a demo dataset, for the data input of a demo sheet. */
-export const demoDatasetInput = (key: DemoDataset['key']) => `dataset("${demoDataset(key).sha256}")`;
+export const demoDatasetInput = (key: DemoDataset['key']) => `dataset("${DEMO_DATASETS.find((d) => d.key === key)!.sha256}")`;

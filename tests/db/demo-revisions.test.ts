@@ -1,6 +1,9 @@
 import canonicalize from 'canonicalize';
 import { afterAll, describe, expect, it } from 'vitest';
 import { DEMO_SHEETS } from '@/lib/demo/sheets';
+import { DEMO_DATA_SHEET } from '@/lib/demo/data-sheets';
+import { DEMO_DATASETS, demoDataset } from '@/lib/demo/datasets';
+import { Dataset } from '@/models';
 import { DEMO_IN_REVIEW_INDEX, DEMO_TEAM_ID, demoSheetId, seedDemo } from '@/lib/db/seed';
 import { getRevision } from '@/lib/db/revisions';
 import { closeSequelize } from '@/lib/db/sequelize';
@@ -90,5 +93,23 @@ describe('demo revisions', () => {
     close(out(marrow, 'settling_time', 'value'), (30e3 ** 2 / 1e-6) / (Math.PI ** 2 + pe ** 2 / 4), 1e-9);
     close(out(marrow, 'rebound', 'rock_uplift'), (2400 * 2750) / 3300);
     close(out(marrow, 'rebound', 'surface_lowering'), 2400 - (2400 * 2750) / 3300);
+  });
+  it('should seed the one set of demo datasets once, and reproduce the surveyed-data sheet with them', async () => {
+    await seedDemo();
+    const rows = await Dataset.findAll({ where: { teamId: DEMO_TEAM_ID }, order: [['sha256', 'ASC']] });
+    expect(rows.map((d) => d.sha256)).toEqual(DEMO_DATASETS.map((d) => d.sha256).sort());
+    for (const row of rows) {
+      const demo = DEMO_DATASETS.find((d) => d.sha256 === row.sha256)!;
+      // The original file is the demo CSV as written; the canonical form is its parse (CONTRACT §7.4).
+      expect(Buffer.from(row.original).toString('utf8')).toBe(demo.csv);
+      expect(row.canonical).toBe(demoDataset(demo.key).canonicalJson);
+    }
+    // The surveyed-data sheet comes after the others; its revision re-evaluates to the stored results.
+    const stored = await getRevision({ sheetId: demoSheetId(DEMO_SHEETS.length), number: 1 });
+    expect(stored.document).toEqual(DEMO_DATA_SHEET.document);
+    const datasets = new Map(DEMO_DATASETS.map((d) => [d.sha256, demoDataset(d.key).canonical]));
+    expect(canonicalize(evaluateSheet(stored.document, { datasets }))).toBe(canonicalize(stored.results));
+    expect(stored.results.blocks.er2_fit!.status).toBe('ok');
+    expect(stored.results.blocks.sorrel_march!.status).toBe('ok');
   });
 });

@@ -1,13 +1,22 @@
 import { describe, expect, it } from 'vitest';
-import { DEMO_DATA_SHEET, DEMO_DATASETS } from '@/lib/demo/data-sheets';
+import { DEMO_DATA_SHEET } from '@/lib/demo/data-sheets';
+import { DEMO_DATASETS, demoDataset } from '@/lib/demo/datasets';
+import { datasetReferences } from '@/lib/datasets/references';
 import { evaluateSheet, hashDataset, parseSheetDocument } from '@/lib/engine';
 
 // The demo sheet of the data blocks (invented data): every block evaluates ok with the demo
 // datasets, and the datasets hash to the sha256 the sheet refers to.
 describe('demo data sheet', () => {
-  const datasets = new Map(DEMO_DATASETS.map((d) => [d.sha256, d.canonical]));
-  it('should hold datasets that hash to their sha256', () => {
-    for (const d of DEMO_DATASETS) expect(hashDataset(d.canonical), d.name).toBe(d.sha256);
+  const all = DEMO_DATASETS.map((d) => demoDataset(d.key));
+  const datasets = new Map(all.map((d) => [d.sha256, d.canonical]));
+  it('should hold one set of datasets whose CSV parses to the pinned sha256, all of them used by the sheet', () => {
+    for (const d of all) {
+      expect(hashDataset(d.canonical), d.name).toBe(d.sha256);
+      expect(d.rowCount, d.name).toBe(d.canonical.rows.length);
+    }
+    expect(all.map((d) => d.rowCount)).toEqual([49, 25]);
+    expect(new Set(all.map((d) => d.name)).size).toBe(all.length);
+    expect(datasetReferences(DEMO_DATA_SHEET.document).sort()).toEqual(all.map((d) => d.sha256).sort());
   });
 
   it('should evaluate every block ok, without warnings', () => {
