@@ -98,11 +98,15 @@ function Block({ block, index }: { block: ReportBlock; index: number }) {
                     <td className="num pr-3">
                       {output.value}
                       {output.unit ? ` ${output.unit}` : ''}
-                      {output.spread ? (
-                        <span className="block text-[11px] text-slate">
-                          95 % interval {output.spread.p2_5} … {output.spread.p97_5} ({output.spread.label})
-                        </span>
-                      ) : null}
+                      {[output.spread, output.alternative].map((spread, k) =>
+                        spread ? (
+                          <span key={k} className="block text-[11px] text-slate" data-spread={spread.method}>
+                            {k === 1 ? 'for comparison: ' : ''}
+                            {spread.text} ({spread.label})
+                            {spread.drivers ? `; ${spread.method === 'linear' ? 'shares of the variance' : 'rank correlations'}: ${spread.drivers}` : ''}
+                          </span>
+                        ) : null,
+                      )}
                     </td>
                     <td className="num text-slate">
                       {output.si}
@@ -185,6 +189,20 @@ export function ReportView({ model }: { model: ReportModel }) {
           <dd>{reportTime(model.generatedAt)}</dd>
           <dt className="text-slate">Review status</dt>
           <dd>{model.statusWords}</dd>
+          {model.uncertainty ? (
+            <>
+              <dt className="text-slate">Uncertainty</dt>
+              <dd data-uncertainty>
+                {model.uncertainty.method}
+                {model.uncertainty.inputs.map((line) => (
+                  <span key={line} className="num block">
+                    {line}
+                  </span>
+                ))}
+                {model.uncertainty.note ? <span className="block text-[12px] text-slate">{model.uncertainty.note}</span> : null}
+              </dd>
+            </>
+          ) : null}
         </dl>
       </header>
 

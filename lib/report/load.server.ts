@@ -9,13 +9,17 @@ import { evaluateInputs, type EvaluatedInput } from './inputs';
 import { buildReport, type ReportModel, type ReviewTrailEntry } from './model';
 import { getVerificationRun } from './verification';
 
-type Current = { results: SheetResults; inputs: Record<string, Record<string, EvaluatedInput>> };
+type Current = { results: SheetResults; inputs: Record<string, Record<string, EvaluatedInput>>; alternative: SheetResults | null };
 
 // Re-evaluations of revisions by the current engine, by document hash (a revision never changes, so the
 // answer holds until the engine does). Bounded; shared by the page and the routes of this process.
+// Bounded: 100 entries and about 64 MB of results (measured as JSON text when stored).
 const MAX_CACHED = 100;
-const holder = globalThis as unknown as { __denudataReportEvaluations?: Map<string, Current> };
-const evaluations = (holder.__denudataReportEvaluations ??= new Map<string, Current>());
+const MAX_CACHED_CHARS = 64 * 1024 * 1024;
+type Cached = Current & { chars: number };
+const holder = globalThis as unknown as { __denudataReportEvaluations2?: { map: Map<string, Cached>; chars: number } };
+const cache = (holder.__denudataReportEvaluations2 ??= { map: new Map<string, Cached>(), chars: 0 });
+const evaluations = cache.map;
 
 async function currentEvaluation(hash: string, document: SheetDocument, stored: SheetResults, teamId: string, userId?: string): Promise<Current> {
   const key = `${ENGINE_VERSION}:${hash}`;
@@ -38,9 +42,30 @@ async function currentEvaluation(hash: string, document: SheetDocument, stored: 
       ),
     };
   }
-  const current = { results, inputs: evaluateInputs(document, results) };
-  if (evaluations.size >= MAX_CACHED) evaluations.delete(evaluations.keys().next().value!);
-  evaluations.set(key, current);
+  // A Monte Carlo sheet's report also shows the linear (first-order) interval of each spread, labelled, for
+  // comparison (2m + 1 evaluations for m distributions: cheap). A linear sheet shows its own, labelled.
+  let alternative: SheetResults | null = null;
+  const echo = results.uncertainty ?? stored.uncertainty;
+  if (echo && echo.method === 'monte_carlo' && echo.inputs.length > 0) {
+    try {
+      const linear: SheetDocument = { ...document, uncertainty: { ...(document.uncertainty ?? {}), method: 'linear' } };
+      const { lookup } = await resolveDocumentDatasets({ teamId, document });
+      alternative = await runEvaluate(linear, userId ? { userId } : undefined, lookup);
+    } catch {
+      alternative = null;
+    }
+  }
+  const current = { results, inputs: evaluateInputs(document, results), alternative };
+  const chars = JSON.stringify(results).length + (alternative ? JSON.stringify(alternative).length : 0);
+  if (chars <= MAX_CACHED_CHARS / 4 && !evaluations.has(key)) {
+    evaluations.set(key, { ...current, chars });
+    cache.chars += chars;
+    while (evaluations.size > MAX_CACHED || cache.chars > MAX_CACHED_CHARS) {
+      const [oldest, entry] = evaluations.entries().next().value as [string, Cached];
+      evaluations.delete(oldest);
+      cache.chars -= entry.chars;
+    }
+  }
   return current;
 }
 

@@ -58,7 +58,22 @@ export interface ReportOutput {
   unit: string;
   si: string;
   siUnit: string;
-  spread: { label: string; p2_5: string; p50: string; p97_5: string } | null;
+  /** The recorded spread (CONTRACT §8.5), always with its method label. */
+  spread: ReportSpread | null;
+  /** The same output by the other method, recomputed for comparison (a Monte Carlo sheet also shows the linear interval). */
+  alternative: ReportSpread | null;
+}
+
+export interface ReportSpread {
+  method: 'monte_carlo' | 'linear';
+  label: string;
+  /** "95 % interval 10.2 … 31.4 kyr (median 17.9 kyr)" or, for a text output, the counts per label. */
+  text: string;
+  p2_5: string;
+  p50: string;
+  p97_5: string;
+  /** Spearman sensitivities (Monte Carlo) or contributions (linear), largest first, as "K 0.98". */
+  drivers: string;
 }
 
 export interface ReportInput {
@@ -125,6 +140,8 @@ export interface ReportModel {
   blocks: ReportBlock[];
   sources: ReportSource[];
   verification: { engine: string; lines: { typeTitle: string; line: string; pass: boolean }[] };
+  /** The sheet's uncertainty settings and its declared distributions, when it has any. */
+  uncertainty: { method: string; inputs: string[]; note: string } | null;
 }
 
 export const NOT_APPROVED_BANNER = 'Not approved: for checking only';
@@ -148,7 +165,19 @@ export const RECOMPUTE_TOLERANCE = 1e-12;
 export const shown = (value: number | string) => (typeof value === 'number' ? formatNumber(value) : value);
 const withUnit = (value: number | string, unit: string) => (unit ? `${shown(value)} ${unit}` : shown(value));
 
-type Spread = { method?: string; samples?: number; seed?: number; p2_5?: number; p50?: number; p97_5?: number };
+type Spread = {
+  method?: string;
+  samples?: number;
+  seed?: number;
+  p2_5?: number;
+  p50?: number;
+  p97_5?: number;
+  counts?: Record<string, number>;
+  sensitivity?: Record<string, number>;
+  contributions?: Record<string, number>;
+};
+
+const groupDigits = (n: number) => String(n).replace(/\B(?=(\d{3})+(?!\d))/g, ' ');
 
 /** The label every spread travels with (CONTRACT §8.5). */
 export function spreadLabel(spread: Spread): string {
@@ -157,11 +186,34 @@ export function spreadLabel(spread: Spread): string {
   return `Monte Carlo, N = ${samples}, seed ${spread.seed ?? '?'}`;
 }
 
-function spreadOf(output: unknown): ReportOutput['spread'] {
-  const spread = (output as { spread?: Spread }).spread;
-  if (!spread || typeof spread.p2_5 !== 'number' || typeof spread.p97_5 !== 'number') return null;
-  return { label: spreadLabel(spread), p2_5: shown(spread.p2_5), p50: shown(spread.p50 ?? NaN), p97_5: shown(spread.p97_5) };
+/** The interval of a spread as the report prints it, never without its label. */
+export function spreadOf(output: { unit: string; spread?: unknown } | undefined): ReportSpread | null {
+  const spread = output?.spread as Spread | undefined;
+  if (!spread) return null;
+  const method = spread.method === 'linear' ? 'linear' : 'monte_carlo';
+  const label = spreadLabel(spread);
+  const unit = output!.unit ? ` ${output!.unit}` : '';
+  if (spread.counts) {
+    const counts = Object.entries(spread.counts).map(([name, n]) => `${name} ${groupDigits(n)}`).join(', ');
+    return { method, label, text: `samples by result: ${counts}`, p2_5: '', p50: '', p97_5: '', drivers: '' };
+  }
+  if (typeof spread.p2_5 !== 'number' || typeof spread.p97_5 !== 'number') return null;
+  const p2_5 = shown(spread.p2_5);
+  const p97_5 = shown(spread.p97_5);
+  const p50 = typeof spread.p50 === 'number' ? shown(spread.p50) : '';
+  const weights = spread.sensitivity ?? spread.contributions ?? {};
+  const drivers = Object.entries(weights)
+    .sort((a, b) => Math.abs(b[1]) - Math.abs(a[1]))
+    .slice(0, 6)
+    .map(([name, w]) => `${name} ${shown(Number(w.toPrecision(2)))}`)
+    .join(', ');
+  const median = p50 && method === 'monte_carlo' ? ` (median ${p50}${unit})` : '';
+  return { method, label, text: `95 % interval ${p2_5} … ${p97_5}${unit}${median}`, p2_5, p50, p97_5, drivers };
 }
+
+/** Parameters in the order of the call's arguments (CONTRACT §8.1): normal(mean, sd), lognormal(median, factor), … */
+const ARGUMENT_ORDER = ['mean', 'median', 'lo', 'mode', 'hi', 'sd', 'factor'];
+const argumentRank = (name: string) => (ARGUMENT_ORDER.includes(name) ? ARGUMENT_ORDER.indexOf(name) : ARGUMENT_ORDER.length);
 
 function differs(a: number | string, b: number | string): boolean {
   if (typeof a !== 'number' || typeof b !== 'number') return a !== b;
@@ -216,7 +268,8 @@ export function buildReport({
   team: string;
   revision: ReportRevisionInput;
   trail: ReviewTrailEntry[];
-  current: { results: SheetResults; inputs: Record<string, Record<string, EvaluatedInput>> };
+  /** `alternative`: the results by the other uncertainty method, for comparison (optional). */
+  current: { results: SheetResults; inputs: Record<string, Record<string, EvaluatedInput>>; alternative?: SheetResults | null };
   catalog: BlockTypeInfo[];
   verification: VerificationRun;
   generatedAt: string;
@@ -243,6 +296,15 @@ export function buildReport({
     });
   };
 
+  // Declared distributions (CONTRACT §8.1), as the recorded results echo them: "lognormal: median 1.1 m^2/kyr, factor 1.5".
+  const distributions = new Map<string, string>();
+  for (const input of stored.uncertainty?.inputs ?? []) {
+    const parameters = Object.entries(input.parameters)
+      .sort(([a], [b]) => argumentRank(a) - argumentRank(b))
+      .map(([p, v]) => `${p} ${withUnit(v.value, v.unit)}`);
+    distributions.set(`${input.block}.${input.input}`, `${input.distribution}: ${parameters.join(', ')}`);
+  }
+
   const blocks: ReportBlock[] = document.blocks.map((block) => {
     const type = types.get(block.type);
     const typeTitle = type?.title ?? block.type;
@@ -262,8 +324,10 @@ export function buildReport({
       const spec = specs.get(name);
       const written = block.inputs[name] ?? '';
       const value = evaluated[name];
+      const declared = distributions.get(`${block.name}.${name}`);
       let shownValue: string;
-      if (written.trim() === '') shownValue = spec?.default !== undefined ? `default ${spec.default}` : spec?.optional ? 'left out' : 'empty';
+      if (declared) shownValue = declared;
+      else if (written.trim() === '') shownValue = spec?.default !== undefined ? `default ${spec.default}` : spec?.optional ? 'left out' : 'empty';
       else if (!value) shownValue = 'not evaluated';
       else if (value.ok) shownValue = withUnit(value.value.value, value.value.unit);
       else shownValue = `not evaluated: ${value.message}`;
@@ -278,6 +342,7 @@ export function buildReport({
       si: shown(output.si),
       siUnit: output.siUnit,
       spread: spreadOf(output),
+      alternative: spreadOf(current.alternative?.blocks[block.name]?.outputs[name]),
     }));
     const seriesSpecs = new Map((type?.series ?? []).map((s) => [s.name, s]));
     const figures = Object.entries(result?.series ?? {}).map(([name, series]) => {
@@ -323,6 +388,21 @@ export function buildReport({
     { role: 'Approved by', name: review.approvedBy?.name ?? null, at: review.approvedAt, note: review.approvedBy ? lastNote(trail, 'approve') : '' },
   ];
 
+  const echo = stored.uncertainty;
+  const uncertainty = echo
+    ? {
+        method: spreadLabel({ method: echo.method, samples: echo.samples, seed: echo.seed }),
+        inputs: echo.inputs.map((i) => `${i.block}.${i.input}: ${distributions.get(`${i.block}.${i.input}`) ?? i.distribution}`),
+        note:
+          'Values are nominal (every distribution at its median); each spread gives its 95 % interval with the method that made it. ' +
+          (echo.method === 'linear'
+            ? 'The linear method assumes a normal output and is blind to skew: its interval can be misleading for strongly curved relations.'
+            : current.alternative
+              ? 'The linear (first-order) interval is shown beside the Monte Carlo one for comparison.'
+              : ''),
+      }
+    : null;
+
   const typesUsed = [...new Set(document.blocks.map((b) => b.type))].filter((id) => id !== 'note');
   const approved = review.status === 'approved';
   return {
@@ -351,6 +431,7 @@ export function buildReport({
     generalCaution: GENERAL_CAUTION,
     blocks,
     sources,
+    uncertainty,
     verification: {
       engine: verification.engine,
       lines: typesUsed.map((id) => {
@@ -363,8 +444,4 @@ export function buildReport({
   };
 }
 
-/** A date-time as the report prints it: 2026-11-03 09:30 UTC. */
-export function reportTime(iso: string | null): string {
-  if (!iso) return '—';
-  return `${iso.slice(0, 16).replace('T', ' ')} UTC`;
-}
+export { reportTime } from './time';

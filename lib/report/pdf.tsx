@@ -4,17 +4,19 @@
  * public/fonts with their licence): Latin, Greek and the mathematical signs the formulas use.
  * Figures are vector drawings (Svg primitives) from the same geometry as the report page.
  */
-import 'server-only';
 import path from 'node:path';
 import { Document, Font, G, Line, Page, Polyline, Rect, StyleSheet, Svg, Text, View, renderToBuffer } from '@react-pdf/renderer';
 import type { FigureModel } from './figure';
-import { reportTime, type ReportBlock, type ReportModel } from './model';
-import { markdownToPlainText } from './plain-text';
+import type { ReportBlock, ReportModel } from './model';
+import { reportTime } from './time';
+import { PdfMarkdown } from './pdf-markdown';
 
 const FONT_DIR = path.join(process.cwd(), 'public', 'fonts');
 export const PDF_FONT_FILES = {
   sans: path.join(FONT_DIR, 'DejaVuSans.ttf'),
   sansBold: path.join(FONT_DIR, 'DejaVuSans-Bold.ttf'),
+  sansOblique: path.join(FONT_DIR, 'DejaVuSans-Oblique.ttf'),
+  sansBoldOblique: path.join(FONT_DIR, 'DejaVuSans-BoldOblique.ttf'),
   mono: path.join(FONT_DIR, 'DejaVuSansMono.ttf'),
 };
 
@@ -26,6 +28,8 @@ function registerFonts(): void {
     fonts: [
       { src: PDF_FONT_FILES.sans, fontWeight: 'normal' },
       { src: PDF_FONT_FILES.sansBold, fontWeight: 'bold' },
+      { src: PDF_FONT_FILES.sansOblique, fontStyle: 'italic' },
+      { src: PDF_FONT_FILES.sansBoldOblique, fontWeight: 'bold', fontStyle: 'italic' },
     ],
   });
   Font.register({ family: 'DejaVu Sans Mono', src: PDF_FONT_FILES.mono });
@@ -120,7 +124,7 @@ function Block({ block, index }: { block: ReportBlock; index: number }) {
         <Text style={styles.h3}>
           {index}. {block.name} <Text style={{ fontWeight: 'normal', color: SLATE }}>· {block.typeTitle}{cites}</Text>
         </Text>
-        {block.note ? <Text style={{ marginTop: 2 }}>{markdownToPlainText(block.note)}</Text> : null}
+        {block.note ? <PdfMarkdown text={block.note} /> : null}
         {block.status === 'note' ? null : (
           <>
             {block.formula ? (
@@ -157,11 +161,15 @@ function Block({ block, index }: { block: ReportBlock; index: number }) {
                         {output.value}
                         {output.unit ? ` ${output.unit}` : ''}
                       </Text>
-                      {output.spread ? (
-                        <Text style={styles.small}>
-                          95 % interval {output.spread.p2_5} … {output.spread.p97_5} ({output.spread.label})
-                        </Text>
-                      ) : null}
+                      {[output.spread, output.alternative].map((spread, k) =>
+                        spread ? (
+                          <Text key={k} style={styles.small}>
+                            {k === 1 ? 'for comparison: ' : ''}
+                            {spread.text} ({spread.label})
+                            {spread.drivers ? `; ${spread.method === 'linear' ? 'shares of the variance' : 'rank correlations'}: ${spread.drivers}` : ''}
+                          </Text>
+                        ) : null,
+                      )}
                     </View>
                     <Text style={[styles.cell, styles.mono, { width: '33%', color: SLATE }]}>
                       {output.si}
@@ -240,6 +248,17 @@ export function ReportPdf({ model }: { model: ReportModel }) {
         <Meta label="Engine">{model.engine.changed ? `${model.engine.recorded} (recorded), ${model.engine.current} (current)` : model.engine.recorded}</Meta>
         <Meta label="Report made">{reportTime(model.generatedAt)}</Meta>
         <Meta label="Review status">{model.statusWords}</Meta>
+        {model.uncertainty ? (
+          <Meta label="Uncertainty">
+            <Text>{model.uncertainty.method}</Text>
+            {model.uncertainty.inputs.map((line) => (
+              <Text key={line} style={styles.mono}>
+                {line}
+              </Text>
+            ))}
+            {model.uncertainty.note ? <Text style={styles.small}>{model.uncertainty.note}</Text> : null}
+          </Meta>
+        ) : null}
 
         <Text style={styles.h2}>Sign-off</Text>
         <View style={styles.tableHead}>

@@ -108,7 +108,36 @@ function same(a: number | string, b: number | string): boolean {
   return a === b;
 }
 
-/** Compares recomputed results with a record's, output by output (SI values; texts exactly). */
+type RecordedSpread = { method?: unknown; samples?: unknown; seed?: unknown; si?: Record<string, unknown>; counts?: Record<string, unknown> };
+const SPREAD_STATISTICS = ['mean', 'sd', 'p2_5', 'p16', 'p50', 'p84', 'p97_5'] as const;
+
+function spreadDifferences(a: RecordedSpread | undefined, b: RecordedSpread | undefined): { name: string; recorded: number | string | null; computed: number | string | null }[] {
+  if (!a && !b) return [];
+  if (!a || !b) return [{ name: 'method', recorded: a ? String(a.method) : null, computed: b ? String(b.method) : null }];
+  const found: { name: string; recorded: number | string | null; computed: number | string | null }[] = [];
+  for (const key of ['method', 'samples', 'seed'] as const) {
+    if (a[key] !== b[key]) found.push({ name: key, recorded: (a[key] as number | string | undefined) ?? null, computed: (b[key] as number | string | undefined) ?? null });
+  }
+  if (a.counts || b.counts) {
+    const labels = new Set([...Object.keys(a.counts ?? {}), ...Object.keys(b.counts ?? {})]);
+    for (const label of labels) {
+      const x = a.counts?.[label];
+      const y = b.counts?.[label];
+      if (x !== y) found.push({ name: `counts.${label}`, recorded: typeof x === 'number' ? x : null, computed: typeof y === 'number' ? y : null });
+    }
+    return found;
+  }
+  for (const stat of SPREAD_STATISTICS) {
+    const x = a.si?.[stat];
+    const y = b.si?.[stat];
+    if (typeof x !== 'number' || typeof y !== 'number' || !same(x, y)) {
+      found.push({ name: `si.${stat}`, recorded: typeof x === 'number' ? x : null, computed: typeof y === 'number' ? y : null });
+    }
+  }
+  return found;
+}
+
+/** Compares recomputed results with a record's, output by output (SI values and spreads; texts exactly). */
 export function compareRecordedOutputs(
   recorded: { blocks: Record<string, { status: string; outputs: Record<string, { si: number | string }> }> },
   computed: SheetResults,
@@ -127,6 +156,13 @@ export function compareRecordedOutputs(
       const b = c?.outputs[name]?.si;
       if (a === undefined || b === undefined || !same(a, b)) {
         differences.push({ block, output: name, recorded: a ?? null, computed: b ?? null });
+        continue;
+      }
+      // The spread travels with the output (CONTRACT §8.5): its method and SI statistics must agree too.
+      const spreadA = (r?.outputs[name] as { spread?: RecordedSpread } | undefined)?.spread;
+      const spreadB = (c?.outputs[name] as { spread?: RecordedSpread } | undefined)?.spread;
+      for (const field of spreadDifferences(spreadA, spreadB)) {
+        differences.push({ block, output: `${name}.spread.${field.name}`, recorded: field.recorded, computed: field.computed });
       }
     }
   }

@@ -34,6 +34,8 @@ describe('report routes over HTTP', () => {
       expect(response.headers.get('content-type')).toBe('application/pdf');
       expect(response.headers.get('x-denudata-hash')).toBe(revision.hash);
       expect(String(response.body).startsWith('%PDF-')).toBe(true);
+      // Laid out once in the report worker, then answered from the cache (same revision, engine and review state).
+      if (role !== 'owner') expect(response.headers.get('x-denudata-report-cache'), role).toBe('hit');
     }
     expect((await outsider.get(`/api/sheets/${sheetId}/revisions/${revision.number}/report.pdf`)).status).toBe(404);
     expect((await as.viewer.get(`/api/sheets/${sheetId}/revisions/999/report.pdf`)).status).toBe(404);

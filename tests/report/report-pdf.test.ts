@@ -1,5 +1,4 @@
 import { beforeAll, describe, expect, it } from 'vitest';
-import { getDocument } from 'pdfjs-dist/legacy/build/pdf.mjs';
 import { blockCatalog } from '@/lib/engine';
 import { DEMO_SHEETS } from '@/lib/demo/sheets';
 import { applyReviewAction } from '@/lib/db/review';
@@ -9,30 +8,7 @@ import { NOT_APPROVED_BANNER, reportTime, type ReportModel } from '@/lib/report/
 import { renderReportPdf } from '@/lib/report/pdf';
 import { formatNumber } from '@/lib/sheet/format';
 import { makeSheet, useTeamFixture } from '../support/review-fixtures';
-
-/** The text of every page of a PDF, as pdfjs-dist (legacy build for Node) reads it; white space collapsed. */
-async function pdfPages(bytes: Buffer): Promise<string[]> {
-  const pdf = await getDocument({ data: new Uint8Array(bytes), useSystemFonts: false, isEvalSupported: false }).promise;
-  const pages: string[] = [];
-  for (let i = 1; i <= pdf.numPages; i += 1) {
-    const page = await pdf.getPage(i);
-    const content = await page.getTextContent();
-    // Pieces that touch on one line are one word (the layout splits runs at font and script changes).
-    let text = '';
-    let end: { x: number; y: number } | null = null;
-    for (const item of content.items) {
-      if (!('str' in item)) continue;
-      const x = item.transform[4] as number;
-      const y = item.transform[5] as number;
-      const touches = end !== null && Math.abs(y - end.y) < 1 && Math.abs(x - end.x) < 0.8;
-      text += (touches ? '' : ' ') + item.str;
-      end = { x: x + item.width, y };
-    }
-    pages.push(text.replace(/\s+/g, ' ').trim());
-  }
-  await pdf.destroy();
-  return pages;
-}
+import { pdfPages } from '../support/pdf-text';
 
 const shown = (value: number | string) => (typeof value === 'number' ? formatNumber(value) : value);
 const collapse = (text: string) => text.replace(/\s+/g, ' ');
