@@ -1,5 +1,6 @@
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import type { Browser, Page } from 'playwright-core';
+import Papa from 'papaparse';
 import { launchBrowser } from '../support/browser';
 import { appUrl, signedInAs } from '../support/http';
 import { DEMO_TEAM, card, runCommand, savedState, settled, signedInPage, typeExpression } from '../support/sheet-page';
@@ -58,6 +59,38 @@ describe('uncertainty on the sheet page', () => {
     );
     const stored = (await (await signedInAs('editor')).get(`/api/sheets/${id}`)).body;
     expect(stored.draft.document.uncertainty).toEqual({ method: 'linear', samples: 10000, seed: 1 });
+
+    // Back to Monte Carlo, then save a revision and open its report: the spread is there with its label, and the
+    // linear interval beside it for comparison, labelled (reference cases P48 and P51 give the same scarp).
+    await runCommand(page, 'Monte Carlo', 'Propagate by Monte Carlo');
+    await savedState(page);
+    await page.waitForFunction(
+      () => document.querySelector('[data-spread="age"] [data-testid="spread-method"]')?.textContent?.includes('Monte Carlo, N = 10 000, seed 1'),
+      null,
+      { timeout: 30_000 },
+    );
+    await page.getByRole('button', { name: 'Save revision…' }).click();
+    const save = page.getByRole('dialog', { name: 'Save a revision' });
+    await save.getByLabel('What changed (message)').fill('K as lognormal');
+    await save.getByRole('button', { name: 'Save revision' }).click();
+    await page.getByTestId('head-revision').getByText('r1').waitFor({ timeout: 30_000 });
+    await page.goto(`${appUrl()}/sheets/${id}/revisions/1/report`);
+    await page.locator('article.report').waitFor({ timeout: 30_000 });
+    const row = page.locator('article.report [data-output="age"]');
+    const monteCarlo = await row.locator('[data-spread="monte_carlo"]').innerText();
+    expect(monteCarlo).toMatch(/^95 % interval [\d.]+ … [\d.]+ kyr \(median [\d.]+ kyr\) \(Monte Carlo, N = 10 000, seed 1\)/);
+    // P51 (GUM first order, JCGM 100:2008): 2.5 % and 97.5 % points 1.29823 and 24.5341 kyr.
+    expect(await row.locator('[data-spread="linear"]').innerText()).toContain(
+      'for comparison: 95 % interval 1.29823 … 24.5341 kyr (linear (first order), normal approximation)',
+    );
+    expect(await page.locator('article.report [data-uncertainty]').innerText()).toContain('age.diffusivity: lognormal: median 1 m^2 / kyr, factor 1.5');
+    // The same spread in results.csv: the contract's columns, p2_5 below the nominal value below p97_5.
+    const csv = await (await signedInAs('viewer')).request('GET', `/api/sheets/${id}/revisions/1/results.csv`);
+    const rows = Papa.parse<string[]>(String(csv.body).trimEnd()).data;
+    expect(rows[0]!.join(',')).toBe('block,output,value,unit,si,siUnit,status,message,p2_5,p50,p97_5');
+    const age = rows.find((r) => r[0] === 'age' && r[1] === 'age')!;
+    expect(Number(age[8])).toBeLessThan(Number(age[2]));
+    expect(Number(age[10])).toBeGreaterThan(Number(age[2]));
   });
 
   it('should refuse a distribution in a quick calculation with 400 and the contract’s message', async () => {

@@ -17,6 +17,7 @@ import type { SheetDocument } from '../document';
 import { EngineError, toSafeMessage } from '../errors';
 import { math } from '../expression';
 import { describeValue, formatFromSI, formatValue, quantityFromSI, unitTemplate, type FormattedOutput, type Quantity } from '../units';
+import { isImplausible, typicalRange, type TypicalRange } from '../typical-ranges';
 import { describeSample, quantileOf, type Distribution } from './distributions';
 import { compileNumeric, type NumericFunction } from './numeric';
 import { averageRanks, histogram, mean, quantileSorted, sortedCopy, spearmanFromRanks, standardDeviation } from './statistics';
@@ -667,7 +668,10 @@ function sampleBlock(
     }
     if (type.sampleRelation) relation = type.sampleRelation(nominalCoerced, other, nominalOutcome);
   }
-  interface Varying { spec: InputSpec; column: Float64Array; tan: boolean; dimensions: readonly number[]; unit: string }
+  // `range`: the input's typical range (typical-ranges.ts), when the nominal value is inside it: samples more than
+  // 100 times outside are counted as a warning ("in 12 of 10000 samples: diffusivity … is more than 100 times
+  // outside the typical range …"). When the nominal value is itself outside, the block already says so once.
+  interface Varying { spec: InputSpec; column: Float64Array; tan: boolean; dimensions: readonly number[]; unit: string; range?: TypicalRange }
   const varying: Varying[] = [];
   const base: InputValues = { ...nominalCoerced };
   for (const spec of type.inputs) {
@@ -676,7 +680,9 @@ function sampleBlock(
     const q = nominalCoerced[spec.name] as Quantity;
     const nominal = source.nominal;
     const unit = math.isUnit(nominal) ? (nominal as Unit).formatUnits() : '';
-    varying.push({ spec, column: source.column, tan: spec.dimension === 'slope' && isAngle(nominal), dimensions: q.dimensions, unit });
+    const typical = typicalRange(type.id, spec.name);
+    const range = typical && !isImplausible(typical, q.si) ? typical : undefined;
+    varying.push({ spec, column: source.column, tan: spec.dimension === 'slope' && isAngle(nominal), dimensions: q.dimensions, unit, range });
   }
   const numberOutputs = type.outputs.filter((o) => o.kind === 'quantity');
   const textOutputs = type.outputs.filter((o) => o.kind === 'text');
@@ -699,6 +705,9 @@ function sampleBlock(
         break;
       }
       inputs[v.spec.name] = { si, dimensions: v.dimensions };
+      if (!linear && v.range && isImplausible(v.range, si)) {
+        tally.add(`${v.spec.name} more than 100 times outside the typical range ${v.range.text} (${v.range.source}): check the distribution and its unit`);
+      }
     }
     if (bad) {
       fail(k, bad);
