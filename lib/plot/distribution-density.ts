@@ -154,3 +154,45 @@ export function sketchPath(sketch: DensitySketch, width: number, height: number,
   const area = `${line}L${sx(x1).toFixed(1)},${(height - pad).toFixed(1)}L${sx(x0).toFixed(1)},${(height - pad).toFixed(1)}Z`;
   return { line, area, at: sx };
 }
+
+const DISTRIBUTION_ARGUMENTS: Record<DistributionKind, string[]> = {
+  normal: ['mean', 'sd'],
+  lognormal: ['median', 'factor'],
+  uniform: ['lo', 'hi'],
+  triangular: ['lo', 'mode', 'hi'],
+};
+const NUMBER = /^([+-]?(?:\d+(?:\.\d*)?|\.\d+)(?:e[+-]?\d+)?)\s*(.*)$/i;
+
+/**
+ * A distribution written as an input's whole expression with plain numbers and one unit, as the sheet page
+ * sees it while the user types (`lognormal(1.1 m^2/kyr, 1.5)`, `normal(10 degC, 2 degC)`), read without the
+ * engine: the parameters in the written unit. Anything else (references to other blocks, arithmetic, mixed
+ * units) gives null and no sketch; the engine's results remain the authority.
+ */
+export function parseDistributionText(text: string): { kind: DistributionKind; parameters: Record<string, EchoParameter> } | null {
+  if (text.length > 300) return null;
+  const call = /^\s*(normal|lognormal|uniform|triangular)\s*\(([^()]*)\)\s*$/.exec(text);
+  if (!call) return null;
+  const kind = call[1] as DistributionKind;
+  const args = call[2]!.split(',').map((a) => a.trim());
+  const names = DISTRIBUTION_ARGUMENTS[kind];
+  if (args.length !== names.length) return null;
+  const parameters: Record<string, EchoParameter> = {};
+  let unit: string | null = null;
+  for (let i = 0; i < args.length; i++) {
+    const match = NUMBER.exec(args[i]!);
+    if (!match) return null;
+    const value = Number(match[1]);
+    const written = match[2]!.replace(/\s+/g, ' ').trim();
+    if (!Number.isFinite(value)) return null;
+    if (kind === 'lognormal' && names[i] === 'factor') {
+      if (written !== '') return null;
+      parameters.factor = { value, unit: '', si: value, siUnit: '' };
+      continue;
+    }
+    if (unit === null) unit = written;
+    else if (written !== unit) return null;
+    parameters[names[i]!] = { value, unit: written, si: value, siUnit: written };
+  }
+  return { kind, parameters };
+}

@@ -3,7 +3,7 @@
 // and against P48's input (lognormal(1 m^2/kyr, 1.5), shared reference cases: 68 % within median/factor …
 // median·factor, so the 2.5 % and 97.5 % points are median·factor^(∓1.959964)).
 import { describe, expect, it } from 'vitest';
-import { densitySketch, sketchPath } from '@/lib/plot/distribution-density';
+import { densitySketch, parseDistributionText, sketchPath } from '@/lib/plot/distribution-density';
 
 const q = (value: number, unit: string, si: number, siUnit: string) => ({ value, unit, si, siUnit });
 // 1 m^2/kyr = 1/31557600000 m^2/s.
@@ -55,5 +55,24 @@ describe('densitySketch', () => {
     expect(d.startsWith('M2.0,')).toBe(true);
     expect(d.endsWith('Z')).toBe(true);
     expect(at(sketch.median)).toBeCloseTo(50, 6);
+  });
+});
+
+describe('parseDistributionText', () => {
+  it('should read a distribution written with plain numbers and one unit, and refuse anything else', () => {
+    expect(parseDistributionText('lognormal(1.1 m^2/kyr, 1.5)')).toEqual({
+      kind: 'lognormal',
+      parameters: { median: { value: 1.1, unit: 'm^2/kyr', si: 1.1, siUnit: 'm^2/kyr' }, factor: { value: 1.5, unit: '', si: 1.5, siUnit: '' } },
+    });
+    expect(parseDistributionText(' triangular(0 m, 1e0 m, 4 m) ')?.parameters.mode?.value).toBe(1);
+    expect(parseDistributionText('normal(10 degC, 2 degC)')?.kind).toBe('normal');
+    expect(parseDistributionText('normal(1.1 m^2/kyr, 200 m^2/Myr)')).toBeNull();
+    expect(parseDistributionText('normal(q.K, 0.2 m^2/kyr)')).toBeNull();
+    expect(parseDistributionText('2 * normal(1 m, 0.1 m)')).toBeNull();
+    expect(parseDistributionText('lognormal(1 m, 1.5 m)')).toBeNull();
+    expect(parseDistributionText('uniform(1 m)')).toBeNull();
+    // The sketch of what was read: a uniform on [2, 4] km has its median at 3 km.
+    const read = parseDistributionText('uniform(2 km, 4 km)')!;
+    expect(densitySketch(read.kind, read.parameters)!.median).toBe(3);
   });
 });
