@@ -1,8 +1,10 @@
 'use client';
 
 import dynamic from 'next/dynamic';
-import { useEffect, useState } from 'react';
+import { useEffect, useMemo, useState } from 'react';
 import { DatasetPicker } from '@/components/datasets/dataset-picker';
+import { UncertainInputHint } from '@/components/uncertainty/distribution-sketch';
+import { parseDistributionText } from '@/lib/plot/distribution-density';
 import type { CatalogInput, SheetBlock } from '@/lib/sheet/types';
 import { iconButton, type BlockCardActions } from './block-actions';
 import type { CompletionData } from './expression-language';
@@ -97,6 +99,8 @@ function InputRow({
   const errorId = `in-${block.id}-${input.name}-error`;
   const describedBy = [free ? null : hintId, error ? errorId : null, warnings.length ? `${errorId}-w` : null].filter(Boolean).join(' ') || undefined;
   const value = block.inputs[input.name] ?? '';
+  // A declared distribution shows a small sketch of its density on hover or focus (CONTRACT §8.1).
+  const distribution = useMemo(() => parseDistributionText(value), [value]);
   const hint = [
     input.dimensionSymbol && input.dimensionSymbol !== 'varies' ? input.dimensionSymbol : null,
     input.unitHint ? `e.g. ${input.unitHint}` : null,
@@ -124,19 +128,21 @@ function InputRow({
       </div>
       <div className="min-w-0">
         {input.choices?.length && canEdit ? <WordChoice block={block} input={input} value={value} actions={actions} /> : null}
-        <ExpressionField
-          id={fieldId}
-          labelId={labelId}
-          describedBy={describedBy}
-          value={value}
-          placeholder={input.default ?? (input.unitHint ? `a value in ${input.unitHint}` : 'an expression')}
-          readOnly={!canEdit}
-          invalid={Boolean(error)}
-          completion={completion}
-          units={units}
-          functions={functions}
-          onChange={(next) => actions.setInput(block.id, input.name, next)}
-        />
+        <UncertainInputHint distribution={distribution?.kind ?? null} parameters={distribution?.parameters ?? null} label={`${block.name}.${input.name}`}>
+          <ExpressionField
+            id={fieldId}
+            labelId={labelId}
+            describedBy={describedBy}
+            value={value}
+            placeholder={input.default ?? (input.unitHint ? `a value in ${input.unitHint}` : 'an expression')}
+            readOnly={!canEdit}
+            invalid={Boolean(error)}
+            completion={completion}
+            units={units}
+            functions={functions}
+            onChange={(next) => actions.setInput(block.id, input.name, next)}
+          />
+        </UncertainInputHint>
         {input.dimension === 'dataset' ? (
           <DatasetPicker kind={input.datasetKind} value={value} readOnly={!canEdit} labelId={labelId} onPick={(next) => actions.setInput(block.id, input.name, next)} />
         ) : null}

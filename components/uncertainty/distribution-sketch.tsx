@@ -30,7 +30,8 @@ export function DistributionSketch({ distribution, parameters, label }: { distri
 
 /**
  * Wraps an input field: while the pointer is over it or focus is inside it, the sketch of its declared
- * distribution shows beside it (and is announced through aria-describedby on the wrapper's group).
+ * distribution shows beside it, and the distribution in words is announced through aria-describedby. The
+ * wrapper is always the same element, so the field inside is never re-mounted while the user types.
  */
 export function UncertainInputHint({
   distribution,
@@ -46,11 +47,10 @@ export function UncertainInputHint({
   const [shown, setShown] = useState(false);
   const id = useId();
   const sketch = useMemo(() => (distribution && parameters ? densitySketch(distribution, parameters) : null), [distribution, parameters]);
-  if (!sketch || !distribution || !parameters) return <>{children}</>;
   return (
     <div
-      role="group"
-      aria-describedby={id}
+      role={sketch ? 'group' : undefined}
+      aria-describedby={sketch ? id : undefined}
       className="relative"
       onMouseEnter={() => setShown(true)}
       onMouseLeave={() => setShown(false)}
@@ -60,11 +60,13 @@ export function UncertainInputHint({
       }}
     >
       {children}
-      {/* The words are always in the page for assistive technology; the drawing appears on hover or focus. */}
-      <span id={id} className="sr-only">
-        {sketch.description}
-      </span>
-      {shown ? (
+      {sketch ? (
+        // The words are always in the page for assistive technology; the drawing appears on hover or focus.
+        <span id={id} className="sr-only">
+          {sketch.description}
+        </span>
+      ) : null}
+      {sketch && shown && distribution && parameters ? (
         <div className="absolute left-0 top-full z-20 mt-1 rounded-[3px] border border-rule bg-paper p-2 shadow-sm" data-testid="distribution-hint">
           <DistributionSketch distribution={distribution} parameters={parameters} label={label} />
         </div>
