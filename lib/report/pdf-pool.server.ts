@@ -82,6 +82,20 @@ export async function reportPdf(model: ReportModel): Promise<{ bytes: Uint8Array
   return { bytes: await pending, cached: false };
 }
 
+/**
+ * Starts laying out a report's PDF in the background (the report page does, so the download that usually follows
+ * is a cache hit). Never waits and never throws; skipped when the worker already has work waiting.
+ */
+export function prepareReportPdf(model: ReportModel): void {
+  try {
+    const s = state();
+    if (s.pool.queueSize > 0) return;
+    reportPdf(model).catch(() => undefined);
+  } catch {
+    // No worker built (a development server before the first build): the route makes it on demand.
+  }
+}
+
 /** Counts of the PDF cache (tests, diagnostics). */
 export function reportPdfStats() {
   return holder.__denudataPdfPool?.cache.stats() ?? { entries: 0, bytes: 0, hits: 0, misses: 0 };

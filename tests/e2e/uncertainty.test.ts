@@ -42,13 +42,22 @@ describe('uncertainty on the sheet page', () => {
     await savedState(page);
     // The field keeps focus: the density sketch of the declared distribution shows beside it, described in words
     // (lognormal(1, 1.5): 95 % between 1.5^(∓1.96) = 0.452 and 2.21, CONTRACT §8.1).
+    const field = card(page, 'age').getByRole('textbox', { name: /Diffusivity/ });
     const hint = card(page, 'age').getByTestId('distribution-hint');
+    await page.mouse.move(0, 0);
+    await field.hover();
     await hint.waitFor({ timeout: 10_000 });
     const sketch = hint.getByRole('img');
     expect(await sketch.getAttribute('aria-label')).toBe(
       'age.diffusivity: Lognormal distribution: median 1 m^2/kyr; 95 % of values between 0.452 and 2.21 m^2/kyr; skewed to the right: 68 % of values lie within a factor 1.5 of the median, and none are negative.',
     );
     expect(await hint.locator('svg path').count()).toBe(2);
+    // Keyboard users get it on focus: away with the pointer (the sketch goes), then focus the field (it returns).
+    await page.locator('h1').first().click();
+    await page.mouse.move(0, 0);
+    await hint.waitFor({ state: 'detached', timeout: 10_000 });
+    await field.focus();
+    await hint.waitFor({ timeout: 10_000 });
     const spread = card(page, 'age').locator('[data-spread="age"]');
     await spread.waitFor({ timeout: 30_000 });
     // Nominal first (the median K gives P05's 12.916 kyr), then the interval and the label.

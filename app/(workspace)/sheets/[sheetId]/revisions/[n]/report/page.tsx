@@ -5,6 +5,7 @@ import { PrintButton } from '@/components/report/print-button';
 import { PrintPageStyle } from '@/components/report/print-page-style';
 import { ReportView } from '@/components/report/report-view';
 import { loadReport } from '@/lib/report/load.server';
+import { prepareReportPdf } from '@/lib/report/pdf-pool.server';
 import { requireSheetPage } from '@/lib/sheet/page-access';
 
 export const metadata: Metadata = { title: 'Calculation report' };
@@ -18,6 +19,9 @@ export default async function ReportPage({ params }: { params: Promise<{ sheetId
   const loaded = await loadReport({ sheetId, teamId: sheet.teamId, number, userId: user.id }).catch(() => null);
   if (!loaded) notFound();
   const { model } = loaded;
+  // Lay the PDF out in the report worker now, in the background, so "Download PDF" is usually answered from the
+  // cache (nothing happens when it is cached already or the worker's queue is full).
+  prepareReportPdf(model);
   const api = `/api/sheets/${sheetId}/revisions/${number}`;
   return (
     <div className="flex flex-col gap-4">
