@@ -47,6 +47,10 @@ export interface BlockCardProps {
   functions: readonly string[];
   completion: () => CompletionData;
   actions: BlockCardActions;
+  /** Added in this visit and not yet saved as a revision: empty required inputs show “needs input”. */
+  fresh?: boolean;
+  significantFigures?: number;
+  siFolded?: boolean;
 }
 
 function BlockCardInner(props: BlockCardProps) {
@@ -68,6 +72,11 @@ function BlockCardInner(props: BlockCardProps) {
     : (type?.inputs ?? []);
   const inputNames = inputSpecs.map((i) => i.name);
   const located = result?.error ? locateMessage(result.error, inputNames) : null;
+  // Inputs of a new block the user has left at least once (their errors show from then on).
+  const [left, setLeft] = useState<ReadonlySet<string>>(() => new Set());
+  const pending = new Set(props.fresh ? inputNames.filter((n) => !left.has(n) && !(block.inputs[n] ?? '').trim()) : []);
+  const requiredMissing = Boolean(located?.input && pending.has(located.input) && /this input is required/.test(located.text));
+  const shownState: BlockState | null = requiredMissing && state === 'error' ? 'needs-input' : state;
   const warnings = (result?.warnings ?? []).map((w) => locateMessage(w, inputNames));
 
   const onDrop = (event: DragEvent) => {
@@ -102,7 +111,7 @@ function BlockCardInner(props: BlockCardProps) {
       <BlockHeader
         block={block}
         type={type}
-        state={state}
+        state={shownState}
         headingId={headingId}
         renaming={props.renaming}
         editingCaption={props.editingCaption}
@@ -136,6 +145,8 @@ function BlockCardInner(props: BlockCardProps) {
             functions={props.functions}
             completion={props.completion}
             actions={actions}
+            pending={pending}
+            onLeave={(name) => setLeft((s) => (s.has(name) ? s : new Set([...s, name])))}
           />
 
           {result?.error && !located?.input && !located?.output ? (
@@ -159,6 +170,8 @@ function BlockCardInner(props: BlockCardProps) {
             canEdit={canEdit}
             displayError={located?.output ? { output: located.output, text: located.text } : null}
             onDisplay={(output, unit) => actions.setDisplay(block.id, output, unit)}
+            significantFigures={props.significantFigures}
+            siFolded={props.siFolded}
           />
           <OutputSpreads blockName={block.name} result={result} labelOf={(name) => type?.outputs.find((o) => o.name === name)?.label ?? name} />
           {result?.series

@@ -18,6 +18,8 @@ export interface ExpressionFieldProps {
   units: readonly string[];
   functions: readonly string[];
   onChange: (value: string) => void;
+  /** The field lost focus (the user left it). */
+  onBlur?: () => void;
 }
 
 function attributeExtension(p: Pick<ExpressionFieldProps, 'labelId' | 'describedBy' | 'invalid' | 'readOnly'>): Extension {
@@ -80,6 +82,7 @@ export default function ExpressionField(props: ExpressionFieldProps) {
         EditorView.domEventHandlers({
           blur: (_event, v) => {
             closeCompletion(v);
+            latest.current.onBlur?.();
             return false;
           },
         }),

@@ -28,7 +28,12 @@ export function InputsTable({
   functions,
   completion,
   actions,
+  pending = new Set<string>(),
+  onLeave,
 }: {
+  /** Empty required inputs of a new block the user has not left yet: shown as “needs input”, not an error. */
+  pending?: ReadonlySet<string>;
+  onLeave?: (input: string) => void;
   block: SheetBlock;
   inputs: CatalogInput[];
   free: boolean;
@@ -43,7 +48,7 @@ export function InputsTable({
   actions: BlockCardActions;
 }) {
   return (
-    <div className="mt-2 grid gap-2">
+    <div className="mt-2 grid gap-2" data-inputs="">
       {inputs.map((input) => (
         <InputRow
           key={input.name}
@@ -51,7 +56,9 @@ export function InputsTable({
           input={input}
           free={free}
           canEdit={canEdit}
-          error={errorInput === input.name ? errorText : null}
+          error={errorInput === input.name && !pending.has(input.name) ? errorText : null}
+          needsInput={pending.has(input.name) && !(block.inputs[input.name] ?? '').trim() && !input.optional && input.default === undefined}
+          onLeave={onLeave}
           warnings={warnings.filter((w) => w.input === input.name).map((w) => w.text)}
           units={units}
           functions={functions}
@@ -81,7 +88,11 @@ function InputRow({
   functions,
   completion,
   actions,
+  needsInput,
+  onLeave,
 }: {
+  needsInput: boolean;
+  onLeave?: (input: string) => void;
   block: SheetBlock;
   input: CatalogInput;
   free: boolean;
@@ -141,10 +152,17 @@ function InputRow({
             units={units}
             functions={functions}
             onChange={(next) => actions.setInput(block.id, input.name, next)}
+            onBlur={onLeave ? () => onLeave(input.name) : undefined}
           />
         </UncertainInputHint>
         {input.dimension === 'dataset' ? (
           <DatasetPicker kind={input.datasetKind} value={value} readOnly={!canEdit} labelId={labelId} onPick={(next) => actions.setInput(block.id, input.name, next)} />
+        ) : null}
+        {needsInput && !error ? (
+          <p className="mt-0.5 text-[12px] text-slate" data-testid="input-needs">
+            <span aria-hidden="true">○ </span>
+            needs input
+          </p>
         ) : null}
         {error ? (
           <p id={errorId} className="mt-0.5 text-[12px] text-oxide" data-testid="input-error">

@@ -46,8 +46,9 @@ export function CaptionEditor({ block, onChange, onDone }: { block: SheetBlock; 
 
 /** A note block: its markdown, and the editor for it. */
 export function NoteBody({ block, canEdit, onChange }: { block: SheetBlock; canEdit: boolean; onChange: (text: string) => void }) {
-  const [editing, setEditing] = useState(false);
   const text = block.note ?? '';
+  // An empty note opens its text box (a new note gets focus there); a written one shows its markdown.
+  const [editing, setEditing] = useState(() => canEdit && text === '');
   return (
     <div className="mt-1">
       {editing && canEdit ? (

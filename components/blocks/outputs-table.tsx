@@ -1,7 +1,7 @@
 'use client';
 
 import { useEffect, useState } from 'react';
-import { formatValue } from '@/lib/sheet/format';
+import { formatSlope, formatValue } from '@/lib/sheet/format';
 import { DISPLAY_UNIT_CHOICES } from '@/lib/sheet/vocabulary';
 import type { BlockResult, CatalogType, SheetBlock } from '@/lib/sheet/types';
 
@@ -14,7 +14,12 @@ export function OutputsTable({
   canEdit,
   displayError,
   onDisplay,
+  significantFigures,
+  siFolded = false,
 }: {
+  /** The sheet's preference (CONTRACT §6b); display only. */
+  significantFigures?: number;
+  siFolded?: boolean;
   block: SheetBlock;
   type: CatalogType | undefined;
   result: BlockResult | undefined;
@@ -43,15 +48,19 @@ export function OutputsTable({
           <th scope="col" className="py-1 pr-2 font-medium">
             Unit
           </th>
-          <th scope="col" className="py-1 font-medium">
-            SI
-          </th>
+          {siFolded ? null : (
+            <th scope="col" className="py-1 font-medium">
+              SI
+            </th>
+          )}
         </tr>
       </thead>
       <tbody>
         {names.map((name) => {
           const output = result?.outputs[name];
           const isText = output ? typeof output.value === 'string' : type?.outputs.find((o) => o.name === name)?.kind === 'text';
+          // A dimensionless slope output (max_slope, slope) reads as a gradient and an angle.
+          const isSlope = Boolean(output && typeof output.value === 'number' && output.unit === '' && /(^|_)slope$/.test(name));
           return (
             <tr key={name} className="border-b border-rule/60 last:border-0" data-output={name}>
               <th scope="row" className="py-1 pr-2 text-left font-normal">
@@ -59,7 +68,7 @@ export function OutputsTable({
                 {labelOf(name) !== name ? <span className="text-slate"> · {labelOf(name)}</span> : null}
               </th>
               <td className={`num py-1 pr-2 text-right ${stale ? 'italic' : 'font-semibold'}`} data-testid="output-value">
-                {output ? formatValue(output.value) : <span className="text-slate">—</span>}
+                {output ? (isSlope ? formatSlope(output.value as number, significantFigures) : formatValue(output.value, significantFigures)) : <span className="text-slate">—</span>}
               </td>
               <td className="num py-1 pr-2 text-slate">
                 {!isText && canEdit && (output ? output.siUnit !== '' : true) ? (
@@ -74,9 +83,11 @@ export function OutputsTable({
                   </span>
                 ) : null}
               </td>
-              <td className="num py-1 text-slate">
-                {output && !isText && output.siUnit !== output.unit ? `${formatValue(output.si)}${output.siUnit ? ` ${output.siUnit}` : ''}` : output && !isText ? 'same' : ''}
-              </td>
+              {siFolded ? null : (
+                <td className="num py-1 text-slate">
+                  {output && !isText && output.siUnit !== output.unit ? `${formatValue(output.si, significantFigures)}${output.siUnit ? ` ${output.siUnit}` : ''}` : output && !isText ? 'same' : ''}
+                </td>
+              )}
             </tr>
           );
         })}

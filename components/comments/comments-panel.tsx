@@ -79,8 +79,9 @@ export function OpenCommentCount({ sheetId, blockId, blockName, onOpen }: { shee
 }
 
 /** The members of the sheet's team, for the mention picker (every member may read them). */
-export function useSheetMembers(sheetId: string, teamId?: string) {
+export function useSheetMembers(sheetId: string, teamId?: string, enabled = true) {
   return useQuery<MentionPerson[]>({
+    enabled,
     queryKey: ['sheet-members', sheetId, teamId ?? null],
     queryFn: async () => {
       const team = teamId ?? (await call(`/api/sheets/${sheetId}`, 'GET')).sheet.teamId;
@@ -248,9 +249,12 @@ export function CommentsPanel({
   userId,
   canComment,
   teamId,
+  members: givenMembers,
 }: {
   /** The sheet's team (its members are the ones a comment can mention); looked up when not given. */
   teamId?: string;
+  /** The team's members, when the page already has them. */
+  members?: MentionPerson[];
   sheetId: string;
   blockId: string;
   blockName: string;
@@ -261,7 +265,8 @@ export function CommentsPanel({
 }) {
   const queryClient = useQueryClient();
   const { data, isLoading } = useSheetComments(sheetId);
-  const members = useSheetMembers(sheetId, teamId).data ?? [];
+  const fetched = useSheetMembers(sheetId, teamId, !givenMembers);
+  const members = givenMembers ?? fetched.data ?? [];
   const [error, setError] = useState<string | null>(null);
   const [showResolved, setShowResolved] = useState(false);
   const refresh = () => queryClient.invalidateQueries({ queryKey: commentsKey(sheetId) });

@@ -1,15 +1,13 @@
-/** Shortcuts that are not palette entries of their own, for the shortcuts sheet. */
+/**
+ * Keys that are not commands (the palette itself, leaving and moving between fields). Every other row of
+ * the shortcuts sheet comes from the registered commands and their chords (keymap.ts).
+ */
 export const FIXED_SHORTCUTS: { keys: string; action: string; group: string }[] = [
   { keys: 'Ctrl+K / ⌘K', action: 'Open or close the command palette', group: 'Everywhere' },
-  { keys: 'Escape', action: 'Close the palette, a dialog or a rename', group: 'Everywhere' },
-  { keys: '?', action: 'Show the keyboard shortcuts', group: 'Everywhere' },
-  { keys: 'J or ↓', action: 'Select the next block (outside a field)', group: 'Sheet' },
-  { keys: 'K or ↑', action: 'Select the previous block (outside a field)', group: 'Sheet' },
-  { keys: 'Enter', action: 'Edit the first field of the selected block', group: 'Sheet' },
-  { keys: 'A', action: 'Add a block (opens the palette on “Add”)', group: 'Sheet' },
-  { keys: 'Alt+↑ / Alt+↓', action: 'Move the selected block up or down (also on its ⠿ handle: ↑ / ↓)', group: 'Sheet' },
+  { keys: 'Escape', action: 'Close the palette, a dialog or a rename; leave a field', group: 'Everywhere' },
   { keys: 'Ctrl+Space', action: 'Complete a name, unit, function or block.output in a field', group: 'Fields' },
-  { keys: 'Tab', action: 'Next field; Shift+Tab the previous one', group: 'Fields' },
+  { keys: 'Tab', action: 'Next field (closes a completion list); Shift+Tab the previous one', group: 'Fields' },
+  { keys: '↑ / ↓ on a ⠿ handle', action: 'Move that block up or down', group: 'Block' },
 ];
 
 /** The platform's modifier word for shortcuts. */

@@ -26,7 +26,13 @@ export function BlockList({
   standingCaution,
   completions,
   actions,
+  freshIds,
+  significantFigures,
+  siFolded,
 }: {
+  freshIds: ReadonlySet<string>;
+  significantFigures: number;
+  siFolded: boolean;
   sheetId: string;
   blocks: SheetBlock[];
   types: Map<string, CatalogType>;
@@ -48,7 +54,7 @@ export function BlockList({
       {blocks.length === 0 ? (
         <div className="rounded-[4px] border border-dashed border-rule p-6 text-center text-slate">
           <p>This sheet has no blocks yet.</p>
-          {canEdit ? <p className="mt-1">Press A or Ctrl+K and type what you want to compute (for example “Péclet”).</p> : null}
+          {canEdit ? <p className="mt-1">Press Alt+A or Ctrl+K and type what you want to compute (for example “Péclet”).</p> : null}
         </div>
       ) : null}
       {blocks.map((block, index) => (
@@ -70,6 +76,9 @@ export function BlockList({
           functions={functions}
           completion={completions.get(block.id)!}
           actions={actions}
+          fresh={freshIds.has(block.id)}
+          significantFigures={significantFigures}
+          siFolded={siFolded}
         />
       ))}
       <p className="text-[12px] text-slate">

@@ -1,4 +1,4 @@
-export type BlockState = 'stale' | 'running' | 'ok' | 'warning' | 'error' | 'blocked';
+export type BlockState = 'stale' | 'running' | 'ok' | 'warning' | 'error' | 'blocked' | 'needs-input';
 
 // Each state has its own mark and word: colour is never the only signal.
 export const BLOCK_STATES: Record<BlockState, { mark: string; word: string; tone: string }> = {
@@ -8,6 +8,8 @@ export const BLOCK_STATES: Record<BlockState, { mark: string; word: string; tone
   warning: { mark: '△', word: 'Warning', tone: 'text-clay' },
   error: { mark: '✕', word: 'Error', tone: 'text-oxide' },
   blocked: { mark: '⊘', word: 'Blocked', tone: 'text-slate' },
+  // A new block whose required inputs are still empty: not an error until the user leaves the field or saves.
+  'needs-input': { mark: '○', word: 'Needs input', tone: 'text-slate' },
 };
 
 export function BlockStatusBadge({ state }: { state: BlockState }) {

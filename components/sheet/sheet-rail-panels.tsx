@@ -1,6 +1,7 @@
 'use client';
 
 import { CommentsPanel } from '@/components/comments/comments-panel';
+import type { MentionPerson } from '@/lib/comments/mentions';
 import type { CatalogType, SheetBlock } from '@/lib/sheet/types';
 import { HelpPanel } from './help-panel';
 import type { RailPanel } from './side-rail';
@@ -15,7 +16,11 @@ export function blockRailPanels({
   revision,
   userId,
   canComment,
+  teamId,
+  members,
 }: {
+  teamId: string;
+  members: MentionPerson[];
   sheetId: string;
   block: SheetBlock | null;
   type: CatalogType | null;
@@ -32,7 +37,17 @@ export function blockRailPanels({
       title: openComments ? `Comments (${openComments})` : 'Comments',
       render: () =>
         block ? (
-          <CommentsPanel key={block.id} sheetId={sheetId} blockId={block.id} blockName={block.name} revision={revision} userId={userId} canComment={canComment} />
+          <CommentsPanel
+            key={block.id}
+            sheetId={sheetId}
+            blockId={block.id}
+            blockName={block.name}
+            revision={revision}
+            userId={userId}
+            canComment={canComment}
+            teamId={teamId}
+            members={members}
+          />
         ) : (
           <p className="text-[13px] text-slate">Select a block to read and write its comments.</p>
         ),

@@ -22,7 +22,7 @@ export function SheetToolbar({
         Evaluate now
       </button>
       {canEdit ? (
-        <button type="button" onClick={onAdd} className="h-8 rounded-[3px] border border-rule bg-chalk px-3 text-[13px] hover:bg-wash" title="A">
+        <button type="button" onClick={onAdd} className="h-8 rounded-[3px] border border-rule bg-chalk px-3 text-[13px] hover:bg-wash" title="Alt+A">
           Add block…
         </button>
       ) : null}

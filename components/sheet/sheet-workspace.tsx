@@ -32,6 +32,10 @@ import { useSheetCommands } from './use-sheet-commands';
 import { useSheetDraft } from './use-sheet-draft';
 import { useSheetKeyboard } from './use-sheet-keyboard';
 import { useSheetTransfer } from './use-sheet-transfer';
+import { DisplaySettings } from './display-settings';
+import { apiFetch } from '@/lib/api-client';
+import type { MentionPerson } from '@/lib/comments/mentions';
+import { DEFAULT_SHEET_PREFERENCES, type SheetPreferences } from '@/lib/sheet/preferences';
 
 // The dialogs load when first opened, so their code stays out of the page's first download.
 const SaveRevisionDialog = dynamic(() => import('@/components/history/save-revision-dialog').then((m) => m.SaveRevisionDialog), { ssr: false });
@@ -65,6 +69,10 @@ export interface SheetWorkspaceProps {
   otherSheets: { id: string; title: string }[];
   /** Extra rail panels (comments, history...) added by later features. */
   extraPanels?: RailPanel[];
+  /** The team's members (a comment can mention them). */
+  members?: MentionPerson[];
+  /** Display preferences stored beside the sheet (CONTRACT §6b). */
+  preferences?: SheetPreferences;
 }
 
 export function SheetWorkspace({
@@ -85,6 +93,8 @@ export function SheetWorkspace({
   forkTeams,
   otherSheets,
   extraPanels = [],
+  members = [],
+  preferences: storedPreferences = DEFAULT_SHEET_PREFERENCES,
 }: SheetWorkspaceProps) {
   const router = useRouter();
   const { open: openPalette } = useCommandRegistry();
@@ -111,7 +121,7 @@ export function SheetWorkspace({
   const types = useMemo(() => new Map(catalog.types.map((t) => [t.id, t])), [catalog]);
   const { resultsById, stateOf } = useBlockResults(draft);
   const completions = useCompletions({ doc, docRef, catalog, types });
-  const { addBlock, move, remove, duplicate, actions } = useBlockActions({
+  const { addBlock: addBlockNow, move, remove, duplicate, actions } = useBlockActions({
     apply,
     setNotice,
     docRef,
@@ -122,6 +132,30 @@ export function SheetWorkspace({
     setRailTab,
   });
   const { transferError, setTransferError, importRef, importFile, chooseImport, exportHead } = useSheetTransfer({ sheetId, teamId });
+  // Blocks added in this visit: their empty required inputs read “needs input” until left or saved.
+  const [freshIds, setFreshIds] = useState<ReadonlySet<string>>(() => new Set());
+  const addBlock = useCallback(
+    (...args: Parameters<typeof addBlockNow>) => {
+      const block = addBlockNow(...args);
+      setFreshIds((s) => new Set([...s, block.id]));
+      return block;
+    },
+    [addBlockNow],
+  );
+  const revealAll = useCallback(() => setFreshIds((s) => (s.size ? new Set() : s)), []);
+  const [prefs, setPrefs] = useState<SheetPreferences>(storedPreferences);
+  const changePrefs = useCallback(
+    (change: Partial<SheetPreferences>) => {
+      setPrefs((p) => ({ ...p, ...change }));
+      // Stored for the sheet by owners and editors; a failure leaves this view changed and says so.
+      if (canEdit) {
+        apiFetch(`/api/sheets/${sheetId}/preferences`, { method: 'PUT', body: change }).catch(() =>
+          setNotice('The display setting could not be stored for the sheet; it applies to this view only.'),
+        );
+      }
+    },
+    [canEdit, sheetId, setNotice],
+  );
 
   const onRevisionSaved = useCallback(
     (saved: { number: number; hash: string }, savedDocument: unknown) => {
@@ -135,12 +169,28 @@ export function SheetWorkspace({
   );
 
   /* ---------------------------------------------------- palette and keyboard */
-  const openSave = useCallback(() => setDialog('save'), [setDialog]);
+  const openSave = useCallback(() => {
+    revealAll();
+    setDialog('save');
+  }, [setDialog, revealAll]);
+  const evaluateNow = useCallback(() => {
+    revealAll();
+    draft.evaluateNow();
+  }, [draft, revealAll]);
+  const selectAdjacent = useCallback((delta: number) => {
+    const blocks = docRef.current.blocks;
+    const index = blocks.findIndex((b) => b.id === selectedRef.current);
+    const block = blocks[Math.max(0, Math.min(blocks.length - 1, index < 0 ? 0 : index + delta))];
+    if (block) {
+      setSelectedId(block.id);
+      focusBlock(block.id);
+    }
+  }, []);
+  const editFields = useCallback((id: string) => focusBlock(id, true), []);
   const openFork = useCallback(() => setDialog('fork'), [setDialog]);
   const editTitle = useCallback(() => setEditingTitle(true), [setEditingTitle]);
   const showComments = useCallback(() => setRailTab('comments'), [setRailTab]);
   const openAdd = useCallback(() => openPalette('Add '), [openPalette]);
-  const addNote = useCallback(() => addBlock({ id: 'note' }), [addBlock]);
   const goTo = useCallback((id: string) => {
     setSelectedId(id);
     focusBlock(id);
@@ -162,10 +212,13 @@ export function SheetWorkspace({
     checkers,
     forkedFrom,
     otherSheets,
-    evaluateNow: draft.evaluateNow,
+    evaluateNow,
     undo: draft.undo,
     redo: draft.redo,
     addBlock,
+    selectAdjacent,
+    editFields,
+    openAdd,
     duplicate,
     remove,
     move,
@@ -193,23 +246,8 @@ export function SheetWorkspace({
   );
   useQuickInsert(canEdit ? quickInsert : null);
 
-  useSheetKeyboard({
-    canEdit,
-    docRef,
-    selectedRef,
-    select: setSelectedId,
-    evaluateNow: draft.evaluateNow,
-    undo: draft.undo,
-    redo: draft.redo,
-    openSave,
-    move,
-    duplicate,
-    remove,
-    addNote,
-    startRename: setRenamingId,
-    showComments,
-    openAdd,
-  });
+  // Every key runs one of these commands (keymap.ts); the shortcuts sheet lists them from the registry.
+  useSheetKeyboard(commands);
 
   /* --------------------------------------------------------------------- view */
   const panels: RailPanel[] = [
@@ -222,6 +260,8 @@ export function SheetWorkspace({
       revision: head?.number ?? 0,
       userId: user.id,
       canComment,
+      teamId,
+      members,
     }),
     ...extraPanels,
   ];
@@ -251,8 +291,9 @@ export function SheetWorkspace({
           ) : null
         }
         state={<SaveIndicator state={draft.saveState} evaluating={draft.evaluating} evaluateError={draft.evaluateError} />}
-        actions={<SheetToolbar canEdit={canEdit} canFork={canFork} onEvaluate={draft.evaluateNow} onAdd={openAdd} onSave={openSave} onFork={openFork} />}
+        actions={<SheetToolbar canEdit={canEdit} canFork={canFork} onEvaluate={evaluateNow} onAdd={openAdd} onSave={openSave} onFork={openFork} />}
       >
+        <DisplaySettings preferences={prefs} shared={canEdit} onChange={changePrefs} />
         <UncertaintySettings doc={doc} canEdit={canEdit} onChange={changeUncertainty} />
         {!canEdit ? (
           <p className="text-[12px] text-slate">
@@ -306,6 +347,9 @@ export function SheetWorkspace({
           standingCaution={catalog.standingCaution}
           completions={completions}
           actions={actions}
+          freshIds={freshIds}
+          significantFigures={prefs.significantFigures}
+          siFolded={prefs.siFolded}
         />
         <SideRail panels={panels} active={railTab} onActiveChange={setRailTab} />
       </div>

@@ -27,7 +27,9 @@ export function focusBlock(id: string, field = false): void {
   let tries = 0;
   const attempt = () => {
     const section = document.querySelector<HTMLElement>(`[data-block-id="${CSS.escape(id)}"]`);
-    const target = field ? section?.querySelector<HTMLElement>('.cm-content[contenteditable="true"], textarea, input') : section;
+    // The first input's expression field (CodeMirror loads after the card), or a note's text box; never a
+    // display-unit box of the outputs, which is drawn first.
+    const target = field ? section?.querySelector<HTMLElement>('[data-inputs] .cm-content[contenteditable="true"], [data-inputs] input, textarea') : section;
     if (target) target.focus();
     else if (tries++ < 20) setTimeout(attempt, 100);
     else section?.focus();

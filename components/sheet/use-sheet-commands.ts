@@ -3,6 +3,7 @@
 import { useRouter } from 'next/navigation';
 import { useMemo } from 'react';
 import type { PaletteCommand } from '@/components/palette/command-registry';
+import { chordLabel } from '@/components/palette/keymap';
 import { allowedReviewActions, type ReviewAction, type ReviewState } from '@/components/review/review-bar';
 import type { SheetStatus } from '@/components/ui/status';
 import type { CatalogType, SheetBlock } from '@/lib/sheet/types';
@@ -49,7 +50,16 @@ export function useSheetCommands({
   exportHead,
   chooseImport,
   reviewAct,
+  selectAdjacent,
+  editFields,
+  openAdd,
 }: {
+  /** Selects the next (+1) or previous (−1) block and focuses its card. */
+  selectAdjacent: (delta: number) => void;
+  /** Moves focus into the first field of a block. */
+  editFields: (id: string) => void;
+  /** Opens the palette on “Add ”. */
+  openAdd: () => void;
   sheetId: string;
   canEdit: boolean;
   canFork: boolean;
@@ -86,13 +96,23 @@ export function useSheetCommands({
   const router = useRouter();
   return useMemo<PaletteCommand[]>(() => {
     const list: PaletteCommand[] = [
-      { id: 'evaluate', title: 'Evaluate the sheet now', group: 'Sheet', keywords: ['run', 'calculate', 'recompute'], shortcut: 'Ctrl+Enter', run: evaluateNow },
+      { id: 'evaluate', title: 'Evaluate the sheet now', group: 'Sheet', keywords: ['run', 'calculate', 'recompute'], shortcut: chordLabel('evaluate'), run: evaluateNow },
     ];
+    if (blocks.length > 0) {
+      list.push(
+        { id: 'select-next', title: 'Select the next block', group: 'Block', keywords: ['down', 'move focus'], shortcut: chordLabel('select-next'), run: () => selectAdjacent(1) },
+        { id: 'select-previous', title: 'Select the previous block', group: 'Block', keywords: ['up', 'move focus'], shortcut: chordLabel('select-previous'), run: () => selectAdjacent(-1) },
+      );
+    }
+    if (selectedBlock && selectedBlock.type !== 'note') {
+      list.push({ id: 'edit-fields', title: `Edit the fields of ${selectedBlock.name}`, group: 'Block', keywords: ['focus', 'inputs', 'type'], shortcut: chordLabel('edit-fields'), run: () => editFields(selectedBlock.id) });
+    }
     if (canEdit) {
       list.push(
-        { id: 'undo', title: 'Undo the last edit', group: 'Sheet', shortcut: 'Ctrl+Z', run: undo },
-        { id: 'redo', title: 'Redo', group: 'Sheet', shortcut: 'Ctrl+Shift+Z', run: redo },
-        { id: 'add-note', title: 'Add a note (markdown text)', group: 'Add block', keywords: ['text', 'narrative', 'markdown', 'comment'], shortcut: 'N', run: () => addBlock({ id: 'note' }) },
+        { id: 'undo', title: 'Undo the last edit', group: 'Sheet', shortcut: chordLabel('undo'), run: undo },
+        { id: 'redo', title: 'Redo', group: 'Sheet', shortcut: `${chordLabel('redo')} / ${chordLabel('redo-y')}`, run: redo },
+        { id: 'add-block', title: 'Add a block…', group: 'Add block', keywords: ['new', 'insert', 'calculation'], shortcut: chordLabel('add-block'), run: openAdd },
+        { id: 'add-note', title: 'Add a note (markdown text)', group: 'Add block', keywords: ['text', 'narrative', 'markdown', 'comment'], shortcut: chordLabel('add-note'), run: () => addBlock({ id: 'note' }) },
       );
       for (const type of catalogTypes) {
         if (type.id === 'note') continue;
@@ -108,11 +128,11 @@ export function useSheetCommands({
       if (selectedBlock) {
         const name = selectedBlock.name;
         list.push(
-          { id: 'rename', title: `Rename ${name}`, group: 'Block', keywords: ['name'], shortcut: 'F2', run: () => startRename(selectedBlock.id) },
-          { id: 'duplicate', title: `Duplicate ${name}`, group: 'Block', keywords: ['copy'], shortcut: 'Shift+D', run: () => duplicate(selectedBlock.id) },
-          { id: 'delete', title: `Delete ${name}`, group: 'Block', keywords: ['remove'], shortcut: 'Delete', run: () => remove(selectedBlock.id) },
-          { id: 'move-up', title: `Move ${name} up`, group: 'Block', keywords: ['reorder'], shortcut: 'Alt+↑', run: () => move(selectedBlock.id, -1) },
-          { id: 'move-down', title: `Move ${name} down`, group: 'Block', keywords: ['reorder'], shortcut: 'Alt+↓', run: () => move(selectedBlock.id, 1) },
+          { id: 'rename', title: `Rename ${name}`, group: 'Block', keywords: ['name'], shortcut: chordLabel('rename'), run: () => startRename(selectedBlock.id) },
+          { id: 'duplicate', title: `Duplicate ${name}`, group: 'Block', keywords: ['copy'], run: () => duplicate(selectedBlock.id) },
+          { id: 'delete', title: `Delete ${name}`, group: 'Block', keywords: ['remove'], shortcut: chordLabel('delete'), run: () => remove(selectedBlock.id) },
+          { id: 'move-up', title: `Move ${name} up`, group: 'Block', keywords: ['reorder'], shortcut: chordLabel('move-up'), run: () => move(selectedBlock.id, -1) },
+          { id: 'move-down', title: `Move ${name} down`, group: 'Block', keywords: ['reorder'], shortcut: chordLabel('move-down'), run: () => move(selectedBlock.id, 1) },
         );
       }
     }
@@ -124,7 +144,7 @@ export function useSheetCommands({
         title: `Save a revision (r${headNumber + 1})…`,
         group: 'Revisions',
         keywords: ['commit', 'record', 'issue', 'snapshot', 'version'],
-        shortcut: 'Ctrl+S',
+        shortcut: chordLabel('save-revision'),
         run: openSave,
       });
     }
@@ -198,7 +218,7 @@ export function useSheetCommands({
         title: `Show comments on ${selectedBlock.name}`,
         group: 'Block',
         keywords: ['discussion', 'review', 'thread', 'reply'],
-        shortcut: 'C',
+        shortcut: chordLabel('comments'),
         run: showComments,
       });
       if (canEdit && selectedBlock.type !== 'note') {
@@ -227,6 +247,9 @@ export function useSheetCommands({
     return list;
   }, [
     addBlock,
+    selectAdjacent,
+    editFields,
+    openAdd,
     canEdit,
     canFork,
     catalogTypes,

@@ -25,6 +25,8 @@ export interface Conflict {
 }
 
 const SAVE_DELAY_MS = 600;
+/** Pause in typing after which the edited (unsaved) document is evaluated. */
+const LIVE_DELAY_MS = 150;
 
 async function fetchJson(url: string, init?: RequestInit) {
   const response = await fetch(url, init);
@@ -74,6 +76,8 @@ export function useSheetDraft({
   const retryDelay = useRef(2);
   const lastCoalesce = useRef<{ key: string; at: number } | null>(null);
   const conflictRef = useRef<Conflict | null>(null);
+  /** The edit (counter value) whose results are shown; older answers never replace newer ones. */
+  const appliedStamp = useRef(-1);
   conflictRef.current = conflict;
 
   const evaluate = useMutation({
@@ -90,12 +94,57 @@ export function useSheetDraft({
         return;
       }
       setActiveRun(null);
+      // Results of the unsaved document of a later edit are already shown: older ones never replace them.
+      if (data.stamp < appliedStamp.current) return;
+      appliedStamp.current = data.stamp;
       setResults(data.results);
       if (data.stamp === editCounter.current && data.draftVersion === versionRef.current) setStale(new Set());
     },
   });
   const evaluateRef = useRef(evaluate.mutate);
   evaluateRef.current = evaluate.mutate;
+
+  /**
+   * The edited document evaluated as soon as typing pauses (LIVE_DELAY_MS), independently of saving: the
+   * unsaved document goes to POST /api/sheets/{id}/evaluate {document} (CONTRACT §6b), nothing is stored.
+   * A newer edit aborts the request in flight; only results for the current edit are shown. Anything
+   * else (too costly now, replaced, limited, refused) is left to the evaluation after the save.
+   */
+  const liveTimer = useRef<ReturnType<typeof setTimeout> | null>(null);
+  const liveAbort = useRef<AbortController | null>(null);
+  const [liveEvaluating, setLiveEvaluating] = useState(false);
+  const evaluateLive = useCallback(async () => {
+    const stamp = editCounter.current;
+    const document = docRef.current;
+    liveAbort.current?.abort();
+    const controller = new AbortController();
+    liveAbort.current = controller;
+    setLiveEvaluating(true);
+    try {
+      const response = await fetch(`/api/sheets/${sheetId}/evaluate`, {
+        method: 'POST',
+        headers: { 'content-type': 'application/json' },
+        body: JSON.stringify({ document }),
+        signal: controller.signal,
+      });
+      const body = await response.json().catch(() => null);
+      if (controller.signal.aborted || response.status !== 200 || stamp !== editCounter.current || stamp < appliedStamp.current) return;
+      appliedStamp.current = stamp;
+      setResults(body.results as SheetResults);
+      setStale(new Set());
+    } catch {
+      // aborted by a newer edit, or offline: the save path evaluates again
+    } finally {
+      if (liveAbort.current === controller) {
+        liveAbort.current = null;
+        setLiveEvaluating(false);
+      }
+    }
+  }, [sheetId]);
+  const scheduleLive = useCallback(() => {
+    if (liveTimer.current) clearTimeout(liveTimer.current);
+    liveTimer.current = setTimeout(() => void evaluateLive(), LIVE_DELAY_MS);
+  }, [evaluateLive]);
 
   const flush = useCallback(async function saveDraft(): Promise<void> {
     if (!canEdit || conflictRef.current) return;
@@ -129,7 +178,8 @@ export function useSheetDraft({
         } else {
           again.current = true;
         }
-        evaluateRef.current(stamp);
+        // The unsaved document of this very edit was evaluated already (live): no second evaluation.
+        if (appliedStamp.current !== stamp) evaluateRef.current(stamp);
       } else if (status === 409) {
         const current = await fetchJson(`/api/sheets/${sheetId}`);
         if (current.status === 200) {
@@ -184,8 +234,9 @@ export function useSheetDraft({
       writePending(sheetId, { baseVersion: versionRef.current, baseDocument: baseDocRef.current, document: next, at: new Date().toISOString() });
       setSaveState((s) => (s.kind === 'conflict' ? s : { kind: 'pending' }));
       schedule();
+      scheduleLive();
     },
-    [markChanged, schedule, sheetId],
+    [markChanged, schedule, scheduleLive, sheetId],
   );
 
   /** Applies an edit; edits with the same coalesce key within 1.5 s form one undo step. */
@@ -323,6 +374,8 @@ export function useSheetDraft({
 
   useEffect(() => () => {
     if (timer.current) clearTimeout(timer.current);
+    if (liveTimer.current) clearTimeout(liveTimer.current);
+    liveAbort.current?.abort();
   }, []);
 
   return {
@@ -330,7 +383,7 @@ export function useSheetDraft({
     version,
     results,
     stale,
-    evaluating: evaluate.isPending,
+    evaluating: evaluate.isPending || liveEvaluating,
     activeRun,
     /** The long run finished: its results replace the shown ones. */
     runFinished: (runResults: SheetResults) => {

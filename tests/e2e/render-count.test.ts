@@ -45,7 +45,7 @@ describe('render counts of the block cards', () => {
     await page.locator('body').click({ position: { x: 5, y: 5 } });
 
     await startCounting(page);
-    await page.keyboard.press('j');
+    await page.keyboard.press('Alt+ArrowDown');
     await page.waitForFunction(() => document.querySelector('section[data-selected="true"]')?.getAttribute('data-block-name') === 'hill');
     await page.waitForTimeout(300);
     const selection = await counts(page);

@@ -2,6 +2,7 @@ import type { Metadata } from 'next';
 import { notFound, redirect } from 'next/navigation';
 import { cache } from 'react';
 import { SheetWorkspace } from '@/components/sheet/sheet-workspace';
+import { getSheetPreferences } from '@/lib/db/sheet-preferences';
 import { requireSheetRole } from '@/lib/auth/guard';
 import { requirePageUser } from '@/lib/auth/page';
 import { roleAllows } from '@/lib/auth/permissions';
@@ -45,12 +46,13 @@ export default async function SheetPage({ params, searchParams }: Params) {
     const approved = await latestApprovedRevision({ sheetId });
     redirect(`/sheets/${sheetId}/revisions/${approved ?? detail.head.number}`);
   }
-  const [others, members, review, notes, standing] = await Promise.all([
+  const [others, members, review, notes, standing, preferences] = await Promise.all([
     listSheetsByTeam({ teamId: sheet.teamId }),
     listMembersByTeam({ teamId: sheet.teamId }),
     detail.head ? getReviewSummary({ sheetId, number: detail.head.number }) : Promise.resolve(null),
     detail.head ? listReviewEvents({ sheetId, revision: detail.head.number }) : Promise.resolve([]),
     getDraftStanding({ sheetId, draftDocument: detail.draft.document, head: detail.head }),
+    getSheetPreferences({ sheetId }),
   ]);
   // Teams the user may fork into (editor or owner there), this sheet's team first.
   const forkTeams = teams
@@ -74,6 +76,8 @@ export default async function SheetPage({ params, searchParams }: Params) {
       role={role}
       user={{ id: user.id, name: user.name }}
       checkers={members.items.filter((m) => roleAllows(m.role, 'check')).map((m) => m.user)}
+      members={members.items.map((m) => m.user)}
+      preferences={preferences}
       forkTeams={forkTeams}
       otherSheets={others.items.filter((s) => s.id !== sheetId).map((s) => ({ id: s.id, title: s.title }))}
     />

@@ -52,10 +52,12 @@ export default async function ComparePage({ params, searchParams }: { params: Pr
       const c = compareSheets(before, after);
       body = (
         <div className="flex flex-col gap-4">
-          <p className="text-[13px] text-slate">
-            r{before.number} <span className="num">{before.hash.slice(0, 10)}</span> → {after.number === 0 ? 'the draft' : <>r{after.number} <span className="num">{after.hash.slice(0, 10)}</span></>}
-            {c.siteBefore !== c.siteAfter ? ` · site ${c.siteBefore ?? '—'} → ${c.siteAfter ?? '—'}` : ''}
-            {c.titleBefore !== c.titleAfter ? ` · title “${c.titleBefore}” → “${c.titleAfter}”` : ''}
+          <p className="text-[13px] text-slate" data-compare-sides="">
+            <span className="font-medium text-basalt">{c.titleBefore}</span>
+            {c.siteBefore ? <> at {c.siteBefore}</> : null}, r{before.number} <span className="num">{before.hash.slice(0, 10)}</span>
+            {' → '}
+            <span className="font-medium text-basalt">{c.titleAfter}</span>
+            {c.siteAfter ? <> at {c.siteAfter}</> : null}, {after.number === 0 ? 'the draft' : <>r{after.number} <span className="num">{after.hash.slice(0, 10)}</span></>}
           </p>
           {c.added.length + c.removed.length + c.changed.length === 0 ? <p className="text-[14px]">No differences: the two revisions hold the same calculation.</p> : null}
           {c.added.length ? (
