@@ -28,6 +28,14 @@ const SAVE_DELAY_MS = 600;
 /** Pause in typing after which the edited (unsaved) document is evaluated. */
 const LIVE_DELAY_MS = 150;
 
+function liveEvaluationOff(): boolean {
+  try {
+    return localStorage.getItem('denudata-live-evaluation') === 'off';
+  } catch {
+    return false;
+  }
+}
+
 async function fetchJson(url: string, init?: RequestInit) {
   const response = await fetch(url, init);
   const body = await response.json().catch(() => null);
@@ -143,6 +151,8 @@ export function useSheetDraft({
   }, [sheetId]);
   const scheduleLive = useCallback(() => {
     if (liveTimer.current) clearTimeout(liveTimer.current);
+    // The browser benchmark's baseline switches it off for one page (scripts/bench-live-edit.mts).
+    if (liveEvaluationOff()) return;
     liveTimer.current = setTimeout(() => void evaluateLive(), LIVE_DELAY_MS);
   }, [evaluateLive]);
 

@@ -126,6 +126,10 @@ describe('trust and usability of the sheet page', () => {
 
     // @Tom reaches nobody (the demo editor is Tomas): a warning, and nothing is sent yet.
     await page.keyboard.type('and @Tom');
+    // The picker offers Tomas Rinaldi for "@Tom"; Escape closes the list and keeps the text as typed.
+    await rail.getByRole('option', { name: /Tomas Rinaldi/ }).waitFor();
+    await page.keyboard.press('Escape');
+    await expect.poll(() => box.getAttribute('aria-expanded')).toBe('false');
     await rail.getByRole('button', { name: 'Comment', exact: true }).click();
     const warning = rail.getByRole('alert');
     await warning.waitFor();
