@@ -3,11 +3,14 @@
  * with evaluation of the unsaved document after a 150 ms pause (live) and, as the baseline in the same run, with
  * it switched off for the page (localStorage `denudata-live-evaluation` = `off`: results then come only after
  * the 600 ms save and the stored draft's evaluation, as before). Needs the built app serving the seeded demo
- * data: `DENUDATA_APP_URL=http://127.0.0.1:3201 npx tsx scripts/bench-live-edit.mts`.
+ * data (the test build and database after a browser-suite run): with DENUDATA_DB, DENUDATA_DIST_DIR and
+ * DENUDATA_TEST_PORT set, `npx tsx --conditions=react-server scripts/bench-live-edit.mts` serves the build on that
+ * port itself (rate limits off), runs, and stops it.
  * The time is measured inside the page: from the keydown of the edit's last character to the change of the
  * lowering block's result cell (performance.now()).
  */
 import { launchBrowser, signInThroughForm } from '../tests/support/browser';
+import { startAppInstance } from '../tests/support/app-instance';
 import { appUrl } from '../tests/support/http';
 
 const EDITS = 20;
@@ -63,8 +66,17 @@ const median = (xs: number[]) => {
   return s.length % 2 ? s[(s.length - 1) / 2]! : (s[s.length / 2 - 1]! + s[s.length / 2]!) / 2;
 };
 
-const baseline = await run('baseline');
-const live = await run('live');
+const port = Number(process.env.DENUDATA_TEST_PORT ?? '3100');
+process.env.DENUDATA_APP_URL = `http://127.0.0.1:${port}`;
+const app = await startAppInstance({ port, quiet: true, env: { DENUDATA_RATE_LIMITS: 'off' } });
+let baseline: number[];
+let live: number[];
+try {
+  baseline = await run('baseline');
+  live = await run('live');
+} finally {
+  await app.stop();
+}
 const fmt = (xs: number[]) => `median ${median(xs).toFixed(0)} ms (min ${Math.min(...xs).toFixed(0)}, max ${Math.max(...xs).toFixed(0)})`;
 console.log(`keystroke → result over ${EDITS} edits`);
 console.log(`  baseline (save, then evaluate the stored draft): ${fmt(baseline)}`);
