@@ -27,6 +27,8 @@ export interface Conflict {
 const SAVE_DELAY_MS = 600;
 /** Pause in typing after which the edited (unsaved) document is evaluated. */
 const LIVE_DELAY_MS = 150;
+/** Least time between two unsaved evaluations of one page. */
+const LIVE_MIN_GAP_MS = 500;
 
 function liveEvaluationOff(): boolean {
   try {
@@ -119,6 +121,7 @@ export function useSheetDraft({
    * else (too costly now, replaced, limited, refused) is left to the evaluation after the save.
    */
   const liveTimer = useRef<ReturnType<typeof setTimeout> | null>(null);
+  const lastLiveStart = useRef(0);
   const liveAbort = useRef<AbortController | null>(null);
   const [liveEvaluating, setLiveEvaluating] = useState(false);
   const evaluateLive = useCallback(async () => {
@@ -153,7 +156,13 @@ export function useSheetDraft({
     if (liveTimer.current) clearTimeout(liveTimer.current);
     // The browser benchmark's baseline switches it off for one page (scripts/bench-live-edit.mts).
     if (liveEvaluationOff()) return;
-    liveTimer.current = setTimeout(() => void evaluateLive(), LIVE_DELAY_MS);
+    // At most one unsaved evaluation every LIVE_MIN_GAP_MS: the evaluation rate limit (120 per minute) is
+    // shared with saves and quick calculations.
+    const wait = Math.max(LIVE_DELAY_MS, lastLiveStart.current + LIVE_MIN_GAP_MS - Date.now());
+    liveTimer.current = setTimeout(() => {
+      lastLiveStart.current = Date.now();
+      void evaluateLive();
+    }, wait);
   }, [evaluateLive]);
 
   const flush = useCallback(async function saveDraft(): Promise<void> {

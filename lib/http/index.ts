@@ -48,7 +48,15 @@ export async function readBodyText(request: Request, maxBytes = MAX_BODY_BYTES):
   const chunks: Uint8Array[] = [];
   let size = 0;
   for (;;) {
-    const { done, value } = await reader.read();
+    let chunk: ReadableStreamReadResult<Uint8Array>;
+    try {
+      chunk = await reader.read();
+    } catch {
+      // The client went away while sending (a newer keystroke aborts an unsaved evaluation): not a
+      // database fault, and nobody reads the answer.
+      throw badRequest('The request body could not be read: the connection closed.');
+    }
+    const { done, value } = chunk;
     if (done) break;
     size += value.byteLength;
     if (size > maxBytes) {

@@ -1,5 +1,3 @@
-import { z } from 'zod';
-
 /**
  * Sheet preferences that are not calculation (CONTRACT §6b): stored per sheet outside its document,
  * so they never change its hash, and applied to display only (stored results keep every digit).
@@ -16,19 +14,5 @@ export interface SheetPreferences {
 
 export const DEFAULT_SHEET_PREFERENCES: SheetPreferences = { significantFigures: 4, siFolded: false };
 
-/** A change of preferences: either or both fields (PUT /api/sheets/{id}/preferences). */
-export const sheetPreferencesPatchSchema = z
-  .strictObject({
-    significantFigures: z
-      .number({ error: 'must be a number' })
-      .int('must be a whole number')
-      .min(SIGNIFICANT_FIGURES_MIN, `must be ${SIGNIFICANT_FIGURES_MIN} or more`)
-      .max(SIGNIFICANT_FIGURES_MAX, `must be ${SIGNIFICANT_FIGURES_MAX} or fewer`)
-      .optional(),
-    siFolded: z.boolean({ error: 'must be true or false' }).optional(),
-  })
-  .refine((body) => body.significantFigures !== undefined || body.siFolded !== undefined, {
-    message: 'give significantFigures, siFolded or both',
-  });
-
-export type SheetPreferencesPatch = z.infer<typeof sheetPreferencesPatchSchema>;
+/** A change of preferences: either or both fields (the route's schema is beside it). */
+export type SheetPreferencesPatch = Partial<SheetPreferences>;

@@ -1,7 +1,7 @@
 import { requireSheetRole, requireUser } from '@/lib/auth/guard';
 import { getSheetPreferences, updateSheetPreferences } from '@/lib/db/sheet-preferences';
 import { json, notAllowed, readJson, route } from '@/lib/http';
-import { sheetPreferencesPatchSchema } from '@/lib/sheet/preferences';
+import { sheetPreferencesPatchSchema } from './schema';
 
 type Context = { params: Promise<{ sheetId: string }> };
 
