@@ -4,8 +4,15 @@ import { useMutation, useQuery, useQueryClient } from '@tanstack/react-query';
 import { useState, type FormEvent } from 'react';
 import { Button } from '@/components/ui/button';
 import { ErrorText } from '@/components/ui/error-text';
-import { unresolvedMentions, type MentionPerson } from '@/lib/comments/mentions';
-import { MentionBox, MentionText } from './mention-box';
+import dynamic from 'next/dynamic';
+import type { MentionPerson } from '@/lib/comments/mentions';
+
+// The mention picker and highlighting load with the comments panel's first use, not with the sheet page.
+const MentionBox = dynamic(() => import('./mention-box').then((m) => m.MentionBox), {
+  ssr: false,
+  loading: () => <div className="h-8 flex-1 rounded-[3px] border border-rule bg-wash" aria-hidden="true" />,
+});
+const MentionText = dynamic(() => import('./mention-box').then((m) => m.MentionText), { ssr: false });
 
 type Person = { id: string; name: string; email: string };
 type Comment = {
@@ -93,7 +100,8 @@ export function useSheetMembers(sheetId: string, teamId?: string, enabled = true
 }
 
 /** The warning shown before a comment whose mentions reach nobody is sent. */
-function mentionWarning(body: string, members: MentionPerson[]): string | null {
+async function mentionWarning(body: string, members: MentionPerson[]): Promise<string | null> {
+  const { unresolvedMentions } = await import('@/lib/comments/mentions');
   const unknown = unresolvedMentions(body, members);
   if (unknown.length === 0) return null;
   const words = unknown.map((u) => `@${u.handle} ${u.reason === 'nobody' ? 'matches nobody in the team' : 'matches more than one person'}`);
@@ -119,24 +127,27 @@ function CommentForm({
   onSend: (body: string) => Promise<boolean>;
 }) {
   const [text, setText] = useState('');
-  const [warned, setWarned] = useState<string | null>(null);
-  const submit = async (event: FormEvent<HTMLFormElement>, anyway = false) => {
+  const [warned, setWarned] = useState<{ body: string; warning: string } | null>(null);
+  const submit = async (event: FormEvent<HTMLFormElement>) => {
     event.preventDefault();
     const body = text.trim();
     if (!body) return;
-    const warning = mentionWarning(body, members);
-    if (warning && !anyway && warned !== body) {
-      setWarned(body);
-      return;
+    // The first send of a body whose mentions reach nobody only warns; sending it again ("Send anyway") posts it.
+    if (warned?.body !== body) {
+      const warning = await mentionWarning(body, members);
+      if (warning) {
+        setWarned({ body, warning });
+        return;
+      }
     }
     if (await onSend(body)) {
       setText('');
       setWarned(null);
     }
   };
-  const warning = warned !== null && warned === text.trim() ? mentionWarning(warned, members) : null;
+  const warning = warned !== null && warned.body === text.trim() ? warned.warning : null;
   return (
-    <form onSubmit={(e) => submit(e)} className={multiline ? 'flex flex-col gap-1' : 'flex flex-col gap-1'}>
+    <form onSubmit={(e) => void submit(e)} className="flex flex-col gap-1">
       <div className={multiline ? 'flex flex-col gap-1' : 'flex gap-1'}>
         <MentionBox
           name="body"
