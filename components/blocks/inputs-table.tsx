@@ -1,13 +1,17 @@
 'use client';
 
 import dynamic from 'next/dynamic';
-import { useEffect, useMemo, useState } from 'react';
+import { useEffect, useState } from 'react';
 import { DatasetPicker } from '@/components/datasets/dataset-picker';
-import { UncertainInputHint } from '@/components/uncertainty/distribution-sketch';
-import { parseDistributionText } from '@/lib/plot/distribution-density';
 import type { CatalogInput, SheetBlock } from '@/lib/sheet/types';
 import { iconButton, type BlockCardActions } from './block-actions';
 import type { CompletionData } from './expression-language';
+
+// The density sketch of a declared distribution (and its quantile code) loads beside the field, not with the page.
+const InputHintFromText = dynamic(() => import('@/components/uncertainty/input-hint-from-text'), {
+  ssr: false,
+  loading: () => <div className="h-[30px] rounded-[3px] border border-rule bg-wash" aria-hidden="true" />,
+});
 
 // CodeMirror loads only on pages that show fields.
 const ExpressionField = dynamic(() => import('./expression-field'), {
@@ -110,8 +114,6 @@ function InputRow({
   const errorId = `in-${block.id}-${input.name}-error`;
   const describedBy = [free ? null : hintId, error ? errorId : null, warnings.length ? `${errorId}-w` : null].filter(Boolean).join(' ') || undefined;
   const value = block.inputs[input.name] ?? '';
-  // A declared distribution shows a small sketch of its density on hover or focus (CONTRACT §8.1).
-  const distribution = useMemo(() => parseDistributionText(value), [value]);
   const hint = [
     input.dimensionSymbol && input.dimensionSymbol !== 'varies' ? input.dimensionSymbol : null,
     input.unitHint ? `e.g. ${input.unitHint}` : null,
@@ -139,7 +141,8 @@ function InputRow({
       </div>
       <div className="min-w-0">
         {input.choices?.length && canEdit ? <WordChoice block={block} input={input} value={value} actions={actions} /> : null}
-        <UncertainInputHint distribution={distribution?.kind ?? null} parameters={distribution?.parameters ?? null} label={`${block.name}.${input.name}`}>
+        {/* A declared distribution shows a small sketch of its density on hover or focus (CONTRACT §8.1). */}
+        <InputHintFromText text={value} label={`${block.name}.${input.name}`}>
           <ExpressionField
             id={fieldId}
             labelId={labelId}
@@ -154,7 +157,7 @@ function InputRow({
             onChange={(next) => actions.setInput(block.id, input.name, next)}
             onBlur={onLeave ? () => onLeave(input.name) : undefined}
           />
-        </UncertainInputHint>
+        </InputHintFromText>
         {input.dimension === 'dataset' ? (
           <DatasetPicker kind={input.datasetKind} value={value} readOnly={!canEdit} labelId={labelId} onPick={(next) => actions.setInput(block.id, input.name, next)} />
         ) : null}
