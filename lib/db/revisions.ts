@@ -1,5 +1,5 @@
 import 'server-only';
-import { literal, UniqueConstraintError, type Transaction } from 'sequelize';
+import { literal, QueryTypes, UniqueConstraintError, type Transaction } from 'sequelize';
 import { AppError, conflict, notFound } from '@/lib/errors';
 import { ENGINE_VERSION, EngineError, hashSheetDocument, needsLongRun, type SheetDocument, type SheetResults } from '@/lib/engine';
 import { requireValidDocument } from '@/lib/sheet/evaluation.server';
@@ -163,6 +163,16 @@ export function requireStoredResults(revision: RevisionState): RevisionDetail {
 /** The review state of one revision (for the review bar). */
 export async function getReviewSummary({ sheetId, number }: { sheetId: string; number: number }): Promise<ReviewSummary> {
   return (await readRevision({ sheetId, number })).review;
+}
+
+/** Whether a sheet has a revision of that number (a cheap check for pages, before anything streams). */
+export async function revisionExists({ sheetId, number }: { sheetId: string; number: number }): Promise<boolean> {
+  if (!Number.isSafeInteger(number) || number < 1 || number > 2_147_483_647) return false;
+  const [row] = await db().query('SELECT 1 FROM sheet_revisions WHERE sheet_id = $1 AND number = $2', {
+    bind: [sheetId, number],
+    type: QueryTypes.SELECT,
+  });
+  return row !== undefined;
 }
 
 type Evaluated = { document: SheetDocument; hash: string; results: SheetResults; engineVersion: string };
