@@ -223,6 +223,11 @@ async function insertRevision(
   }: { sheet: Sheet; userId: string; baseRevision: number; evaluated: ToStore; message: string },
   transaction: Transaction,
 ): Promise<{ number: number; hash: string }> {
+  if (sheet.archivedAt !== null) {
+    throw conflict('This sheet is archived: no revision can be saved to it. Fork it to keep working on it.', {
+      current: { number: sheet.headRevision, archived: true },
+    });
+  }
   if (sheet.headRevision !== baseRevision) {
     throw conflict(`Revision ${sheet.headRevision} was saved since you started from revision ${baseRevision}.`, {
       current: { number: sheet.headRevision },

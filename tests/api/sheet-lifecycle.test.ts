@@ -1,4 +1,4 @@
-// Sheet lifecycle edges on the built app: an archived sheet's draft is not saved (409) and archiving
+// Sheet lifecycle edges on the built app: an archived sheet's draft and revisions are not saved (409) and archiving
 // twice records one audit entry; a fork never names a source sheet the reader cannot see; a revision
 // that does not exist on a visible sheet is a real 404 page (status, not only the screen).
 import { QueryTypes } from 'sequelize';
@@ -35,7 +35,7 @@ describe('archived sheets', () => {
     owner = (await newAccount('archiver')).client;
   });
 
-  it('should refuse a draft save to an archived sheet with 409 and change nothing', async () => {
+  it('should refuse a draft save and a revision save to an archived sheet with 409 and change nothing', async () => {
     const sheetId = await sheetWithRevision(owner, 'Archived draft');
     const before = await owner.get(`/api/sheets/${sheetId}`);
     const version = before.body.draft.version as number;
@@ -46,9 +46,13 @@ describe('archived sheets', () => {
     expect(save.body.error.code).toBe('conflict');
     expect(save.body.error.message).toMatch(/archived/);
     expect(save.body.current).toEqual({ version, archived: true });
+    const revision = await owner.post(`/api/sheets/${sheetId}/revisions`, { baseRevision: 1, document: sampleDocument({ title: 'Archived draft' }), message: 'late' });
+    expect(revision.status).toBe(409);
+    expect(revision.body.current).toEqual({ number: 1, archived: true });
     const after = await owner.get(`/api/sheets/${sheetId}`);
     expect(after.status).toBe(200);
     expect(after.body.draft).toEqual(before.body.draft);
+    expect(after.body.head.number).toBe(1);
     expect(after.body.sheet.archived).toBe(true);
   });
 
