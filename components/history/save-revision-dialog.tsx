@@ -35,7 +35,8 @@ export function SaveRevisionDialog({
   sheetId: string;
   baseRevision: number;
   document: Doc;
-  onSaved: (saved: { number: number; hash: string }, savedDocument: Doc) => void;
+  /** `evaluating`: saved over the cost limit; a long run stores the results (CONTRACT §6b). */
+  onSaved: (saved: { number: number; hash: string; evaluating?: boolean }, savedDocument: Doc) => void;
 }) {
   const [message, setMessage] = useState('');
   const [error, setError] = useState<string | null>(null);
@@ -51,13 +52,13 @@ export function SaveRevisionDialog({
       body: JSON.stringify({ baseRevision: base, document: doc, message }),
     });
     const payload = (await response.json().catch(() => null)) as
-      | { number: number; hash: string; error?: { message: string }; current?: { number: number } }
+      | { number: number; hash: string; evaluation?: 'evaluating'; error?: { message: string }; current?: { number: number } }
       | null;
     setPending(false);
     if (response.status === 201 && payload) {
       setConflict(null);
       setMessage('');
-      onSaved({ number: payload.number, hash: payload.hash }, doc);
+      onSaved({ number: payload.number, hash: payload.hash, ...(payload.evaluation === 'evaluating' ? { evaluating: true } : {}) }, doc);
       onClose();
       return;
     }
@@ -123,7 +124,8 @@ export function SaveRevisionDialog({
             <textarea value={message} onChange={(e) => setMessage(e.target.value)} maxLength={2000} rows={3} className="rounded-[3px] border border-rule bg-chalk px-2 py-1 text-[14px]" />
           </label>
           <p className="text-[12px] text-slate">
-            The sheet is evaluated and stored as revision {baseRevision + 1} with its results and hash. A new revision starts unsigned.
+            The sheet is evaluated and stored as revision {baseRevision + 1} with its results and hash (a sheet too costly to
+            evaluate at once is stored now and its results when its long run finishes). A new revision starts unsigned.
           </p>
           {error ? (
             <ErrorText>{error}</ErrorText>

@@ -124,11 +124,15 @@ export function SheetWorkspace({
   const { transferError, setTransferError, importRef, importFile, chooseImport, exportHead } = useSheetTransfer({ sheetId, teamId });
 
   const onRevisionSaved = useCallback(
-    (saved: { number: number; hash: string }, savedDocument: unknown) => {
+    (saved: { number: number; hash: string; evaluating?: boolean }, savedDocument: unknown) => {
       setSavedHead(saved.number);
       // After a 409 the saved document is the user's edits re-applied on the newest revision: the draft follows it.
       if (!sameJson(savedDocument, docRef.current)) apply(savedDocument as SheetDocument);
-      setNotice(`Saved revision r${saved.number} (${saved.hash.slice(0, 10)}). It starts unsigned: ask for a check in the sign-off bar.`);
+      setNotice(
+        saved.evaluating
+          ? `Saved revision r${saved.number} (${saved.hash.slice(0, 10)}). It is too costly to evaluate at once: a long run stores its results (see the revision page); a check can be asked for after that.`
+          : `Saved revision r${saved.number} (${saved.hash.slice(0, 10)}). It starts unsigned: ask for a check in the sign-off bar.`,
+      );
       router.refresh();
     },
     [apply, setNotice, router],
