@@ -6,23 +6,11 @@ import { Button } from '@/components/ui/button';
 import { ErrorText } from '@/components/ui/error-text';
 import { unresolvedMentions, type MentionPerson } from '@/lib/comments/mentions';
 import { MentionBox, MentionText } from './mention-box';
+import type { CommentItem, CommentThread, listCommentsBySheet } from '@/lib/db/comments';
 
-type Person = { id: string; name: string; email: string };
-type Comment = {
-  id: string;
-  blockId: string;
-  revision: number;
-  parentId: string | null;
-  author: Person | null;
-  body: string;
-  createdAt: string;
-  edited: boolean;
-  resolved: boolean;
-  resolvedBy: Person | null;
-  outdated: boolean;
-};
-type Thread = Comment & { replies: Comment[] };
-type Listing = { items: Thread[]; total: number; openByBlock: Record<string, number> };
+type Comment = CommentItem;
+type Thread = CommentThread;
+type Listing = Awaited<ReturnType<typeof listCommentsBySheet>>;
 
 export const commentsKey = (sheetId: string) => ['comments', sheetId] as const;
 

@@ -32,13 +32,13 @@ import { useSheetCommands } from './use-sheet-commands';
 import { useSheetDraft } from './use-sheet-draft';
 import { useSheetKeyboard } from './use-sheet-keyboard';
 import { useSheetTransfer } from './use-sheet-transfer';
+import type { TeamRole as Role } from '@/models';
+import type { PublicUser as Person } from '@/lib/db/users';
 
 // The dialogs load when first opened, so their code stays out of the page's first download.
 const SaveRevisionDialog = dynamic(() => import('@/components/history/save-revision-dialog').then((m) => m.SaveRevisionDialog), { ssr: false });
 const ForkDialog = dynamic(() => import('@/components/history/fork-dialog').then((m) => m.ForkDialog), { ssr: false });
 
-type Role = 'owner' | 'editor' | 'reviewer' | 'viewer';
-type Person = { id: string; name: string; email: string };
 
 export interface SheetWorkspaceProps {
   sheetId: string;

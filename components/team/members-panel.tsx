@@ -4,8 +4,8 @@ import { useRouter } from 'next/navigation';
 import { useState, type FormEvent } from 'react';
 import { Button } from '@/components/ui/button';
 import { Field } from '@/components/ui/field';
+import type { TeamRole as Role } from '@/models';
 
-type Role = 'owner' | 'editor' | 'reviewer' | 'viewer';
 type Member = { user: { id: string; name: string; email: string }; role: Role; joinedAt: string };
 type Pending = { id: string; email: string; role: Role; expiresAt: string };
 
