@@ -190,7 +190,7 @@ export async function evaluateForRevision(input: unknown, userId?: string, datas
     results = await runEvaluate(document, userId ? { userId } : undefined, datasets);
   } catch (error) {
     if (error instanceof EngineError) {
-      throw new AppError(/longer than|too much memory/.test(error.message) ? 'limit_exceeded' : 'validation', `document: ${error.message}`);
+      throw new AppError(error.code === 'limit_exceeded' ? 'limit_exceeded' : 'validation', `document: ${error.message}`);
     }
     throw error;
   }
