@@ -7,6 +7,7 @@ import { ErrorText } from '@/components/ui/error-text';
 import { unresolvedMentions, type MentionPerson } from '@/lib/comments/mentions';
 import { MentionBox, MentionText } from './mention-box';
 import type { CommentItem, CommentThread, listCommentsBySheet } from '@/lib/db/comments';
+import { apiFetch, failureOf, type ApiRequest } from '@/lib/api-client';
 
 type Comment = CommentItem;
 type Thread = CommentThread;
@@ -14,11 +15,13 @@ type Listing = Awaited<ReturnType<typeof listCommentsBySheet>>;
 
 export const commentsKey = (sheetId: string) => ['comments', sheetId] as const;
 
-async function call(url: string, method: string, body?: unknown) {
-  const response = await fetch(url, { method, headers: body ? { 'content-type': 'application/json' } : undefined, body: body ? JSON.stringify(body) : undefined });
-  const payload = await response.json().catch(() => null);
-  if (!response.ok) throw new Error(payload?.error?.message ?? 'That did not work. Try again.');
-  return payload;
+/** One comment route through the typed client; a failure keeps the server's message (or a general one). */
+async function call<T>(url: string, method: ApiRequest['method'], body?: unknown): Promise<T> {
+  try {
+    return await apiFetch<T>(url, { method, body: body ?? undefined });
+  } catch (error) {
+    throw new Error(failureOf(error, 'That did not work. Try again.').message);
+  }
 }
 
 /** How often the sheet page asks for other people's comments while the tab is visible. */
@@ -32,7 +35,7 @@ export const COMMENTS_REFRESH_MS = 20_000;
 export function useSheetComments(sheetId: string, { poll = false }: { poll?: boolean } = {}) {
   return useQuery<Listing>({
     queryKey: commentsKey(sheetId),
-    queryFn: () => call(`/api/sheets/${sheetId}/comments`, 'GET'),
+    queryFn: () => call<Listing>(`/api/sheets/${sheetId}/comments`, 'GET'),
     ...(poll ? { refetchInterval: COMMENTS_REFRESH_MS, refetchIntervalInBackground: false, refetchOnWindowFocus: true, staleTime: 5_000 } : {}),
   });
 }
@@ -71,8 +74,8 @@ export function useSheetMembers(sheetId: string, teamId?: string) {
   return useQuery<MentionPerson[]>({
     queryKey: ['sheet-members', sheetId, teamId ?? null],
     queryFn: async () => {
-      const team = teamId ?? (await call(`/api/sheets/${sheetId}`, 'GET')).sheet.teamId;
-      const listing = await call(`/api/teams/${team}/members`, 'GET');
+      const team = teamId ?? (await call<{ sheet: { teamId: string } }>(`/api/sheets/${sheetId}`, 'GET')).sheet.teamId;
+      const listing = await call<{ items: { user: MentionPerson }[] }>(`/api/teams/${team}/members`, 'GET');
       return (listing.items as { user: MentionPerson }[]).map((item) => item.user);
     },
     staleTime: 60_000,
@@ -254,7 +257,7 @@ export function CommentsPanel({
   const [showResolved, setShowResolved] = useState(false);
   const refresh = () => queryClient.invalidateQueries({ queryKey: commentsKey(sheetId) });
   const mutate = useMutation({
-    mutationFn: ({ url, method, body }: { url: string; method: string; body: unknown }) => call(url, method, body),
+    mutationFn: ({ url, method, body }: { url: string; method: ApiRequest['method']; body: unknown }) => call<unknown>(url, method, body),
     onSuccess: () => {
       setError(null);
       return refresh();

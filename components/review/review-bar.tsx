@@ -11,6 +11,7 @@ import type { TeamRole as Role } from '@/models';
 import { allowedReviewActions as allowedByRules, type ReviewAction } from '@/lib/auth/review-rules';
 import type { PublicUser as Person } from '@/lib/db/users';
 import type { ReviewSummary } from '@/lib/db/revisions';
+import { ApiError, apiFetch, failureOf } from '@/lib/api-client';
 
 export type { ReviewAction };
 
@@ -46,23 +47,21 @@ export function useReviewActions({ sheetId, revision, onChanged }: { sheetId: st
       setPending(action);
       setError(null);
       try {
-        const response = await fetch(`/api/sheets/${sheetId}/review`, {
-          method: 'POST',
-          headers: { 'content-type': 'application/json' },
-          body: JSON.stringify({
+        await apiFetch(`/api/sheets/${sheetId}/review`, {
+          body: {
             action,
             revision,
             ...(action === 'request' ? { reviewerId: options.reviewerId } : {}),
             ...(options.message?.trim() ? { message: options.message.trim() } : {}),
-          }),
+          },
         });
-        if (!response.ok) {
-          const payload = (await response.json().catch(() => null)) as { error?: { message: string } } | null;
-          setError(payload?.error?.message ?? `That did not work (the server answered ${response.status}). Try again.`);
-          return false;
-        }
-      } catch {
-        setError('The server could not be reached. Try again.');
+      } catch (failure) {
+        // A refusal (403, 409...) is shown as the server said it.
+        setError(
+          failure instanceof ApiError && failure.status === 0
+            ? 'The server could not be reached. Try again.'
+            : failureOf(failure, `That did not work (the server answered ${failure instanceof ApiError ? failure.status : 'oddly'}). Try again.`).message,
+        );
         return false;
       } finally {
         setPending(null);

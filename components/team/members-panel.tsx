@@ -5,6 +5,7 @@ import { useState, type FormEvent } from 'react';
 import { Button } from '@/components/ui/button';
 import { Field } from '@/components/ui/field';
 import type { TeamRole as Role } from '@/models';
+import { ApiError, apiFetch, type ApiRequest } from '@/lib/api-client';
 
 type Member = { user: { id: string; name: string; email: string }; role: Role; joinedAt: string };
 type Pending = { id: string; email: string; role: Role; expiresAt: string };
@@ -24,13 +25,13 @@ type TeamResponse = {
   link?: string;
 } | null;
 
-async function send(url: string, method: string, body?: unknown): Promise<{ ok: boolean; data: TeamResponse }> {
-  const response = await fetch(url, {
-    method,
-    headers: body ? { 'content-type': 'application/json' } : undefined,
-    body: body ? JSON.stringify(body) : undefined,
-  });
-  return { ok: response.ok, data: await response.json().catch(() => null) };
+async function send(url: string, method: ApiRequest['method'], body?: unknown): Promise<{ ok: boolean; data: TeamResponse }> {
+  try {
+    return { ok: true, data: await apiFetch<TeamResponse>(url, { method, body }) };
+  } catch (error) {
+    // The contract's error body (a network failure has none: the callers' own words are shown).
+    return { ok: false, data: error instanceof ApiError ? (error.body as TeamResponse) : null };
+  }
 }
 
 /** Members and roles; owners change roles, remove people and invite by e-mail. */
