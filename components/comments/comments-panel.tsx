@@ -8,6 +8,7 @@ import { unresolvedMentions, type MentionPerson } from '@/lib/comments/mentions'
 import { MentionBox, MentionText } from './mention-box';
 import type { CommentItem, CommentThread, listCommentsBySheet } from '@/lib/db/comments';
 import { apiFetch, failureOf, type ApiRequest } from '@/lib/api-client';
+import { formatMinute } from '@/lib/format/dates';
 
 type Comment = CommentItem;
 type Thread = CommentThread;
@@ -160,7 +161,7 @@ function CommentForm({
 }
 
 function when(iso: string) {
-  return iso.slice(0, 16).replace('T', ' ');
+  return formatMinute(iso);
 }
 
 function CommentBody({

@@ -12,13 +12,14 @@ import { allowedReviewActions as allowedByRules, type ReviewAction } from '@/lib
 import type { PublicUser as Person } from '@/lib/db/users';
 import type { ReviewSummary } from '@/lib/db/revisions';
 import { ApiError, apiFetch, failureOf } from '@/lib/api-client';
+import { formatDay } from '@/lib/format/dates';
 
 export type { ReviewAction };
 
 /** The sign-off of a revision, as lib/db answers it. */
 export type ReviewState = Omit<ReviewSummary, 'evaluating'> & { evaluating?: boolean };
 
-const day = (iso: string | null) => (iso ? iso.slice(0, 10) : '');
+const day = (iso: string | null) => formatDay(iso);
 
 /** Which review actions this person may take now (the rules of lib/auth/review-rules.ts; the server checks again). */
 export function allowedReviewActions({ role, userId, review, isHead }: { role: Role; userId: string; review: ReviewState; isHead: boolean }): ReviewAction[] {

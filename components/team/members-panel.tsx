@@ -6,6 +6,7 @@ import { Button } from '@/components/ui/button';
 import { Field } from '@/components/ui/field';
 import type { TeamRole as Role } from '@/models';
 import { ApiError, apiFetch, type ApiRequest } from '@/lib/api-client';
+import { formatDay } from '@/lib/format/dates';
 
 type Member = { user: { id: string; name: string; email: string }; role: Role; joinedAt: string };
 type Pending = { id: string; email: string; role: Role; expiresAt: string };
@@ -147,7 +148,7 @@ export function MembersPanel({
                     ROLES.find((r) => r.value === m.role)?.label
                   )}
                 </td>
-                <td className="num px-3 py-2">{m.joinedAt.slice(0, 10)}</td>
+                <td className="num px-3 py-2">{formatDay(m.joinedAt)}</td>
                 {canManage ? (
                   <td className="px-3 py-2 text-right">
                     <Button variant="danger" disabled={busy} onClick={() => remove(m)} aria-label={`Remove ${m.user.name}`}>
@@ -200,7 +201,7 @@ export function MembersPanel({
               <ul className="text-[13px]">
                 {invitations.map((i) => (
                   <li key={i.id}>
-                    {i.email} · {i.role} · <span className="text-slate">expires {i.expiresAt.slice(0, 10)}</span>
+                    {i.email} · {i.role} · <span className="text-slate">expires {formatDay(i.expiresAt)}</span>
                   </li>
                 ))}
               </ul>
