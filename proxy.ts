@@ -2,16 +2,20 @@ import { withAuth, type NextRequestWithAuth } from 'next-auth/middleware';
 import { NextResponse, type NextFetchEvent, type NextRequest } from 'next/server';
 import { withoutBadCallbackCookies, isUsableCallbackUrl } from '@/lib/http/auth-inputs';
 import { pageContentSecurityPolicy } from '@/lib/http/security-headers';
+import { cachedDecode } from '@/lib/auth/token-cache';
 
 // Runs before every page and API request (not static files):
-//  - a method the app does not serve is 405 with the contract's error body (TRACE, TRACK and CONNECT never
-//    reach this far: instrumentation.ts answers them);
+//  - a method the app does not serve is 405 with the contract's error body: any but GET, HEAD and POST on a
+//    page, any unknown one on the API (TRACE, TRACK, CONNECT, methods Node's parser refuses and writes to
+//    static files never reach this far: lib/http/method-guard.ts answers them);
 //  - an unparsable next-auth callback URL (cookie, or query of /api/auth) is dropped (lib/http/auth-inputs.ts);
 //  - API routes then pass straight on (they answer 401 JSON themselves: a redirect is no answer for an API client);
 //  - pages get a fresh nonce and the Content-Security-Policy that names it (Next.js puts the nonce on its
 //    own scripts when the request carries the policy), and all but the sign-in pages need a session.
 
 const METHODS = new Set(['GET', 'HEAD', 'POST', 'PUT', 'PATCH', 'DELETE', 'OPTIONS']);
+/** Pages are read (GET, HEAD) and take server actions (POST); Next.js would render them for any method. */
+const PAGE_METHODS = new Set(['GET', 'HEAD', 'POST']);
 const PUBLIC_PAGES = /^\/(sign-in|sign-up|reset-password|invitations)(\/|$)/;
 
 /** The request headers with bad callback-url cookies removed, and the names removed. */
@@ -53,17 +57,24 @@ function api(request: NextRequest): NextResponse {
   return forgetCookies(NextResponse.next({ request: { headers } }), dropped);
 }
 
-const signedInPage = withAuth((request: NextRequestWithAuth) => withPolicy(request), { pages: { signIn: '/sign-in' } });
+// The session token is decoded by next-auth's decode behind a bounded cache (the same token arrives with
+// every request of a signed-in browser).
+const signedInPage = withAuth((request: NextRequestWithAuth) => withPolicy(request), { pages: { signIn: '/sign-in' }, jwt: { decode: cachedDecode } });
+
+function methodNotAllowed(request: NextRequest, allowed: Set<string>): NextResponse {
+  return NextResponse.json(
+    { error: { code: 'method_not_allowed', message: `${request.method} is not a method this app serves here.` } },
+    { status: 405, headers: { Allow: [...allowed].join(', ') } },
+  );
+}
 
 export default async function proxy(request: NextRequest, event: NextFetchEvent) {
-  if (!METHODS.has(request.method.toUpperCase())) {
-    return NextResponse.json(
-      { error: { code: 'method_not_allowed', message: `${request.method} is not a method this app serves.` } },
-      { status: 405, headers: { Allow: [...METHODS].join(', ') } },
-    );
-  }
+  const method = request.method.toUpperCase();
   const { pathname } = request.nextUrl;
-  if (pathname === '/api' || pathname.startsWith('/api/')) return api(request);
+  const isApi = pathname === '/api' || pathname.startsWith('/api/');
+  if (!METHODS.has(method)) return methodNotAllowed(request, METHODS);
+  if (!isApi && !PAGE_METHODS.has(method)) return methodNotAllowed(request, PAGE_METHODS);
+  if (isApi) return api(request);
   if (PUBLIC_PAGES.test(pathname)) return withPolicy(request);
   return signedInPage(request as NextRequestWithAuth, event);
 }

@@ -44,7 +44,7 @@ export function apiErrorOf(status: number, body: unknown): ApiError {
 
 export interface ApiRequest {
   method?: 'GET' | 'POST' | 'PUT' | 'PATCH' | 'DELETE';
-  /** Sent as JSON. */
+  /** Sent as JSON, or as multipart when it is a FormData. */
   body?: unknown;
   signal?: AbortSignal;
 }
@@ -54,14 +54,19 @@ export interface ApiRequest {
  * its schema or a `lib/db` return type). Throws ApiError for any status outside 2xx and for network failures.
  */
 export async function apiFetch<T>(path: string, request: ApiRequest = {}): Promise<T> {
+  return (await apiResponse<T>(path, request)).body;
+}
+
+/** As apiFetch, with the 2xx status beside the answer (201 created or 200 already there, 202 accepted...). */
+export async function apiResponse<T>(path: string, request: ApiRequest = {}): Promise<{ status: number; body: T }> {
   const { method = request.body === undefined ? 'GET' : 'POST', body, signal } = request;
   let response: Response;
   try {
     response = await fetch(path, {
       method,
       signal,
-      headers: body === undefined ? undefined : { 'content-type': 'application/json' },
-      body: body === undefined ? undefined : JSON.stringify(body),
+      headers: body === undefined || body instanceof FormData ? undefined : { 'content-type': 'application/json' },
+      body: body === undefined ? undefined : body instanceof FormData ? body : JSON.stringify(body),
     });
   } catch (error) {
     if (error instanceof DOMException && error.name === 'AbortError') throw error;
@@ -77,7 +82,18 @@ export async function apiFetch<T>(path: string, request: ApiRequest = {}): Promi
     }
   }
   if (!response.ok) throw apiErrorOf(response.status, parsed);
-  return parsed as T;
+  return { status: response.status, body: parsed as T };
+}
+
+/**
+ * What to show for a failure: the contract's message and field when the server gave them (or the network
+ * message), otherwise `fallback`; with the status (0 for a network failure, -1 for anything not an ApiError).
+ */
+export function failureOf(error: unknown, fallback: string): { status: number; code: string; message: string; field?: string } {
+  if (error instanceof ApiError) {
+    return { status: error.status, code: error.code, message: error.code === 'error' ? fallback : error.message, field: error.field };
+  }
+  return { status: -1, code: 'error', message: fallback };
 }
 
 /** The message to show for anything thrown by apiFetch (or elsewhere). */

@@ -4,6 +4,7 @@ import Link from 'next/link';
 import { useState, type FormEvent } from 'react';
 import { Button } from '@/components/ui/button';
 import { Field } from '@/components/ui/field';
+import { apiFetch, failureOf } from '@/lib/api-client';
 
 /** Sets a new password with the token from the e-mailed link. */
 export function ResetPasswordForm({ token }: { token: string }) {
@@ -21,19 +22,16 @@ export function ResetPasswordForm({ token }: { token: string }) {
     }
     setPending(true);
     setErrors({});
-    const response = await fetch(`/api/password-reset/${encodeURIComponent(token)}`, {
-      method: 'POST',
-      headers: { 'content-type': 'application/json' },
-      body: JSON.stringify({ password }),
-    });
-    setPending(false);
-    if (response.ok) {
-      setDone(true);
+    try {
+      await apiFetch(`/api/password-reset/${encodeURIComponent(token)}`, { body: { password } });
+    } catch (error) {
+      setPending(false);
+      const { message, field } = failureOf(error, 'That did not work. Try again.');
+      setErrors(field === 'password' ? { password: message.replace(/^password: /, '') } : { form: message });
       return;
     }
-    const payload = (await response.json().catch(() => null)) as { error?: { message: string; field?: string } } | null;
-    const message = payload?.error?.message ?? 'That did not work. Try again.';
-    setErrors(payload?.error?.field === 'password' ? { password: message.replace(/^password: /, '') } : { form: message });
+    setPending(false);
+    setDone(true);
   }
 
   if (done) {

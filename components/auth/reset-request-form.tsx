@@ -4,6 +4,7 @@ import Link from 'next/link';
 import { useState, type FormEvent } from 'react';
 import { Button } from '@/components/ui/button';
 import { Field } from '@/components/ui/field';
+import { apiFetch, failureOf } from '@/lib/api-client';
 
 /** Asks for a link to set a new password; the answer is the same whether or not the account exists. */
 export function ResetRequestForm() {
@@ -16,15 +17,14 @@ export function ResetRequestForm() {
     const email = String(new FormData(event.currentTarget).get('email') ?? '');
     setPending(true);
     setError(undefined);
-    const response = await fetch('/api/password-reset', {
-      method: 'POST',
-      headers: { 'content-type': 'application/json' },
-      body: JSON.stringify({ email }),
-    });
-    const payload = (await response.json().catch(() => null)) as { message?: string; error?: { message: string; field?: string } } | null;
-    setPending(false);
-    if (response.status === 202) setSent(payload?.message ?? 'Check your e-mail.');
-    else setError(payload?.error?.message.replace(/^email: /, '') ?? 'That did not work. Try again.');
+    try {
+      const answer = await apiFetch<{ message?: string } | null>('/api/password-reset', { body: { email } });
+      setPending(false);
+      setSent(answer?.message ?? 'Check your e-mail.');
+    } catch (error) {
+      setPending(false);
+      setError(failureOf(error, 'That did not work. Try again.').message.replace(/^email: /, ''));
+    }
   }
 
   if (sent) {

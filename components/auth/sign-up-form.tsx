@@ -6,6 +6,7 @@ import { useRouter } from 'next/navigation';
 import { useState, type FormEvent } from 'react';
 import { Button } from '@/components/ui/button';
 import { Field } from '@/components/ui/field';
+import { apiFetch, failureOf } from '@/lib/api-client';
 
 type FieldErrors = Partial<Record<'email' | 'password' | 'name' | 'form', string>>;
 
@@ -24,18 +25,13 @@ export function SignUpForm({ next, email }: { next: string; email?: string }) {
     };
     setPending(true);
     setErrors({});
-    const response = await fetch('/api/users', {
-      method: 'POST',
-      headers: { 'content-type': 'application/json' },
-      body: JSON.stringify(body),
-    });
-    if (!response.ok) {
-      const payload = (await response.json().catch(() => null)) as { error?: { message: string; field?: string } } | null;
-      const message = payload?.error?.message ?? 'The account could not be created. Try again.';
-      const field = payload?.error?.field;
+    try {
+      await apiFetch('/api/users', { body });
+    } catch (error) {
+      const { status, message, field } = failureOf(error, 'The account could not be created. Try again.');
       const short = field ? message.replace(`${field}: `, '') : message;
       setErrors(
-        response.status === 409
+        status === 409
           ? { email: 'An account with that e-mail address already exists. Sign in instead.' }
           : field === 'email' || field === 'password' || field === 'name'
             ? { [field]: short }

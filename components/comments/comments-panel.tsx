@@ -6,6 +6,9 @@ import { Button } from '@/components/ui/button';
 import { ErrorText } from '@/components/ui/error-text';
 import dynamic from 'next/dynamic';
 import type { MentionPerson } from '@/lib/comments/mentions';
+import type { CommentItem, CommentThread, listCommentsBySheet } from '@/lib/db/comments';
+import { apiFetch, failureOf, type ApiRequest } from '@/lib/api-client';
+import { formatMinute } from '@/lib/format/dates';
 
 // The mention picker and highlighting load with the comments panel's first use, not with the sheet page.
 const MentionBox = dynamic(() => import('./mention-box').then((m) => m.MentionBox), {
@@ -14,30 +17,19 @@ const MentionBox = dynamic(() => import('./mention-box').then((m) => m.MentionBo
 });
 const MentionText = dynamic(() => import('./mention-box').then((m) => m.MentionText), { ssr: false });
 
-type Person = { id: string; name: string; email: string };
-type Comment = {
-  id: string;
-  blockId: string;
-  revision: number;
-  parentId: string | null;
-  author: Person | null;
-  body: string;
-  createdAt: string;
-  edited: boolean;
-  resolved: boolean;
-  resolvedBy: Person | null;
-  outdated: boolean;
-};
-type Thread = Comment & { replies: Comment[] };
-type Listing = { items: Thread[]; total: number; openByBlock: Record<string, number> };
+type Comment = CommentItem;
+type Thread = CommentThread;
+type Listing = Awaited<ReturnType<typeof listCommentsBySheet>>;
 
 export const commentsKey = (sheetId: string) => ['comments', sheetId] as const;
 
-async function call(url: string, method: string, body?: unknown) {
-  const response = await fetch(url, { method, headers: body ? { 'content-type': 'application/json' } : undefined, body: body ? JSON.stringify(body) : undefined });
-  const payload = await response.json().catch(() => null);
-  if (!response.ok) throw new Error(payload?.error?.message ?? 'That did not work. Try again.');
-  return payload;
+/** One comment route through the typed client; a failure keeps the server's message (or a general one). */
+async function call<T>(url: string, method: ApiRequest['method'], body?: unknown): Promise<T> {
+  try {
+    return await apiFetch<T>(url, { method, body: body ?? undefined });
+  } catch (error) {
+    throw new Error(failureOf(error, 'That did not work. Try again.').message);
+  }
 }
 
 /** How often the sheet page asks for other people's comments while the tab is visible. */
@@ -51,7 +43,7 @@ export const COMMENTS_REFRESH_MS = 20_000;
 export function useSheetComments(sheetId: string, { poll = false }: { poll?: boolean } = {}) {
   return useQuery<Listing>({
     queryKey: commentsKey(sheetId),
-    queryFn: () => call(`/api/sheets/${sheetId}/comments`, 'GET'),
+    queryFn: () => call<Listing>(`/api/sheets/${sheetId}/comments`, 'GET'),
     ...(poll ? { refetchInterval: COMMENTS_REFRESH_MS, refetchIntervalInBackground: false, refetchOnWindowFocus: true, staleTime: 5_000 } : {}),
   });
 }
@@ -91,8 +83,8 @@ export function useSheetMembers(sheetId: string, teamId?: string, enabled = true
     enabled,
     queryKey: ['sheet-members', sheetId, teamId ?? null],
     queryFn: async () => {
-      const team = teamId ?? (await call(`/api/sheets/${sheetId}`, 'GET')).sheet.teamId;
-      const listing = await call(`/api/teams/${team}/members`, 'GET');
+      const team = teamId ?? (await call<{ sheet: { teamId: string } }>(`/api/sheets/${sheetId}`, 'GET')).sheet.teamId;
+      const listing = await call<{ items: { user: MentionPerson }[] }>(`/api/teams/${team}/members`, 'GET');
       return (listing.items as { user: MentionPerson }[]).map((item) => item.user);
     },
     staleTime: 60_000,
@@ -181,7 +173,7 @@ function CommentForm({
 }
 
 function when(iso: string) {
-  return iso.slice(0, 16).replace('T', ' ');
+  return formatMinute(iso);
 }
 
 function CommentBody({
@@ -282,7 +274,7 @@ export function CommentsPanel({
   const [showResolved, setShowResolved] = useState(false);
   const refresh = () => queryClient.invalidateQueries({ queryKey: commentsKey(sheetId) });
   const mutate = useMutation({
-    mutationFn: ({ url, method, body }: { url: string; method: string; body: unknown }) => call(url, method, body),
+    mutationFn: ({ url, method, body }: { url: string; method: ApiRequest['method']; body: unknown }) => call<unknown>(url, method, body),
     onSuccess: () => {
       setError(null);
       return refresh();

@@ -3,15 +3,14 @@
 import { useQuery } from '@tanstack/react-query';
 import Link from 'next/link';
 import { useParams } from 'next/navigation';
+import { apiFetch } from '@/lib/api-client';
 
 type DatasetItem = { sha256: string; name: string; kind: string; rowCount: number; columns: { name: string; unit: string }[] };
 
 const DATA_INPUT = /^\s*dataset\(\s*"([0-9a-f]{64})"\s*\)\s*$/;
 
-async function getJson<T>(url: string): Promise<T> {
-  const response = await fetch(url);
-  if (!response.ok) throw new Error(`HTTP ${response.status}`);
-  return (await response.json()) as T;
+function getJson<T>(url: string): Promise<T> {
+  return apiFetch<T>(url);
 }
 
 /**

@@ -5,6 +5,7 @@ import { useRouter } from 'next/navigation';
 import { useState } from 'react';
 import { Button } from '@/components/ui/button';
 import { ErrorText } from '@/components/ui/error-text';
+import { ApiError, apiFetch, failureOf } from '@/lib/api-client';
 
 type Use = { sheetId: string; title: string; revisions: number[]; draft: boolean };
 
@@ -18,15 +19,18 @@ export function DeleteDatasetButton({ sha256, teamId, name }: { sha256: string; 
     if (!window.confirm(`Delete “${name}”? Sheets can no longer refer to it.`)) return;
     setBusy(true);
     setError(null);
-    const response = await fetch(`/api/datasets/${sha256}?team=${teamId}`, { method: 'DELETE' });
-    setBusy(false);
-    if (response.status === 204) {
-      router.push('/datasets');
-      router.refresh();
+    try {
+      await apiFetch(`/api/datasets/${sha256}?team=${teamId}`, { method: 'DELETE' });
+    } catch (failure) {
+      setBusy(false);
+      const body = failure instanceof ApiError ? (failure.body as { usedBy?: Use[] } | null) : null;
+      const status = failure instanceof ApiError ? failure.status : 0;
+      setError({ message: failureOf(failure, `The dataset could not be deleted (HTTP ${status}).`).message, usedBy: body?.usedBy });
       return;
     }
-    const body = (await response.json().catch(() => null)) as { error?: { message: string }; usedBy?: Use[] } | null;
-    setError({ message: body?.error?.message ?? `The dataset could not be deleted (HTTP ${response.status}).`, usedBy: body?.usedBy });
+    setBusy(false);
+    router.push('/datasets');
+    router.refresh();
   }
 
   return (

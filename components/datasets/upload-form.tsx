@@ -4,6 +4,7 @@ import { useRouter } from 'next/navigation';
 import { useRef, useState, type DragEvent, type FormEvent } from 'react';
 import { Button } from '@/components/ui/button';
 import { ErrorText } from '@/components/ui/error-text';
+import { ApiError, apiResponse, failureOf } from '@/lib/api-client';
 
 type Problem = { line: number; column: number | null; name: string | null; reason: string; message: string };
 type UploadAnswer = {
@@ -67,18 +68,25 @@ export function DatasetUploadForm({ teamId }: { teamId: string }) {
     setError(null);
     setNotice(null);
     try {
-      const response = await fetch('/api/datasets', { method: 'POST', body });
-      const answer = (await response.json().catch(() => null)) as UploadAnswer | null;
-      if (!response.ok || !answer?.dataset) {
-        setError(answer?.error ?? { code: 'internal', message: `The upload failed (HTTP ${response.status}).` });
+      let answer: { status: number; body: UploadAnswer | null };
+      try {
+        answer = await apiResponse<UploadAnswer | null>('/api/datasets', { body });
+      } catch (failure) {
+        const problem = failure instanceof ApiError ? (failure.body as UploadAnswer | null)?.error : undefined;
+        setError(problem ?? { code: 'internal', message: failure instanceof ApiError && failure.status > 0 ? `The upload failed (HTTP ${failure.status}).` : failureOf(failure, 'The upload failed.').message });
         return;
       }
-      setNotice(response.status === 201 ? `Stored “${answer.dataset.name}”.` : `The team already holds this data as “${answer.dataset.name}”.`);
+      const dataset = answer.body?.dataset;
+      if (!dataset) {
+        setError({ code: 'internal', message: `The upload failed (HTTP ${answer.status}).` });
+        return;
+      }
+      setNotice(answer.status === 201 ? `Stored “${dataset.name}”.` : `The team already holds this data as “${dataset.name}”.`);
       setFile(null);
       setName('');
       setDescription('');
       if (input.current) input.current.value = '';
-      router.push(`/datasets?sha=${answer.dataset.sha256}`);
+      router.push(`/datasets?sha=${dataset.sha256}`);
       router.refresh();
     } finally {
       setBusy(false);

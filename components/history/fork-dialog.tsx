@@ -6,6 +6,7 @@ import { Button } from '@/components/ui/button';
 import { Dialog } from '@/components/ui/dialog';
 import { Field } from '@/components/ui/field';
 import { ErrorText } from '@/components/ui/error-text';
+import { apiFetch, failureOf } from '@/lib/api-client';
 
 /** Forks a sheet for a new site: title and site; the fork starts from the chosen (default: newest) revision. */
 export function ForkDialog({
@@ -53,15 +54,18 @@ export function ForkDialog({
     };
     setPending(true);
     setErrors({});
-    const response = await fetch(`/api/sheets/${sheetId}/fork`, { method: 'POST', headers: { 'content-type': 'application/json' }, body: JSON.stringify(body) });
-    const payload = (await response.json().catch(() => null)) as { sheet?: { id: string }; error?: { message: string; field?: string } } | null;
-    setPending(false);
-    if (response.status === 201 && payload?.sheet) {
+    let failure: { message: string; field?: string };
+    try {
+      const created = await apiFetch<{ sheet: { id: string } }>(`/api/sheets/${sheetId}/fork`, { body });
+      setPending(false);
       onClose();
-      router.push(`/sheets/${payload.sheet.id}`);
+      router.push(`/sheets/${created.sheet.id}`);
       return;
+    } catch (error) {
+      setPending(false);
+      failure = failureOf(error, 'The fork could not be made.');
     }
-    const field = payload?.error?.field ?? 'form';
+    const field = failure.field ?? 'form';
     const key = field.startsWith('site.name')
       ? 'siteName'
       : field.startsWith('site.latitude')
@@ -71,7 +75,7 @@ export function ForkDialog({
           : field.startsWith('site.notes')
             ? 'siteNotes'
             : field;
-    setErrors({ [key]: (payload?.error?.message ?? 'The fork could not be made.').replace(/^[\w.]+: /, '') });
+    setErrors({ [key]: failure.message.replace(/^[\w.]+: /, '') });
   }
 
   return (

@@ -5,6 +5,7 @@ import { useCallback, useState } from 'react';
 import { RunProgress } from '@/components/runs/run-progress';
 import { Button } from '@/components/ui/button';
 import { ErrorText } from '@/components/ui/error-text';
+import { ApiError, apiFetch, failureOf } from '@/lib/api-client';
 
 export type RevisionEvaluationState = {
   status: 'done' | 'evaluating' | 'failed';
@@ -32,14 +33,15 @@ export function RevisionEvaluation({ sheetId, revision, evaluation }: { sheetId:
     setStarting(true);
     setProblem(null);
     try {
-      const response = await fetch(`/api/sheets/${sheetId}/runs`, {
-        method: 'POST',
-        headers: { 'content-type': 'application/json' },
-        body: JSON.stringify({ revision }),
-      });
-      const body = (await response.json().catch(() => null)) as { run?: { id: string; status: string }; error?: { message?: string } } | null;
-      if (!response.ok || !body?.run) {
-        setProblem(body?.error?.message ?? `The run could not be started (${response.status}).`);
+      let body: { run?: { id: string; status: string } } | null;
+      try {
+        body = await apiFetch<{ run?: { id: string; status: string } } | null>(`/api/sheets/${sheetId}/runs`, { body: { revision } });
+      } catch (failure) {
+        setProblem(failureOf(failure, `The run could not be started (${failure instanceof ApiError ? failure.status : 0}).`).message);
+        return;
+      }
+      if (!body?.run) {
+        setProblem('The run could not be started (200).');
         return;
       }
       setEnded(null);

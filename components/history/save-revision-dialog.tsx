@@ -6,15 +6,18 @@ import { Dialog } from '@/components/ui/dialog';
 import { compareSheets, type SheetComparison } from '@/lib/sheet/compare';
 import { mergeSheets, type MergeClash } from '@/lib/sheet/merge';
 import { ErrorText } from '@/components/ui/error-text';
+import { ApiError, apiFetch } from '@/lib/api-client';
 
 type Doc = { format: string; title: string; site?: { name: string; latitude?: number; longitude?: number; notes?: string }; blocks: { id: string; name: string; type: string; inputs: Record<string, string>; note?: string }[] };
 
 type Conflict = { current: number; latest: Doc; merged: Doc; clashes: MergeClash[]; theirChanges: SheetComparison };
 
 async function fetchRevision(sheetId: string, number: number): Promise<Doc> {
-  const response = await fetch(`/api/sheets/${sheetId}/revisions/${number}`);
-  if (!response.ok) throw new Error('The newest revision could not be loaded.');
-  return ((await response.json()) as { document: Doc }).document;
+  try {
+    return (await apiFetch<{ document: Doc }>(`/api/sheets/${sheetId}/revisions/${number}`)).document;
+  } catch {
+    throw new Error('The newest revision could not be loaded.');
+  }
 }
 
 /**
@@ -35,7 +38,8 @@ export function SaveRevisionDialog({
   sheetId: string;
   baseRevision: number;
   document: Doc;
-  onSaved: (saved: { number: number; hash: string }, savedDocument: Doc) => void;
+  /** `evaluating`: saved over the cost limit; a long run stores the results (CONTRACT §6b). */
+  onSaved: (saved: { number: number; hash: string; evaluating?: boolean }, savedDocument: Doc) => void;
 }) {
   const [message, setMessage] = useState('');
   const [error, setError] = useState<string | null>(null);
@@ -45,34 +49,30 @@ export function SaveRevisionDialog({
   async function save(doc: Doc, base: number) {
     setPending(true);
     setError(null);
-    const response = await fetch(`/api/sheets/${sheetId}/revisions`, {
-      method: 'POST',
-      headers: { 'content-type': 'application/json' },
-      body: JSON.stringify({ baseRevision: base, document: doc, message }),
-    });
-    const payload = (await response.json().catch(() => null)) as
-      | { number: number; hash: string; error?: { message: string }; current?: { number: number } }
-      | null;
-    setPending(false);
-    if (response.status === 201 && payload) {
-      setConflict(null);
-      setMessage('');
-      onSaved({ number: payload.number, hash: payload.hash }, doc);
-      onClose();
-      return;
-    }
-    if (response.status === 409 && payload?.current) {
-      try {
-        const current = payload.current.number;
-        const [latest, original] = await Promise.all([fetchRevision(sheetId, current), base > 0 ? fetchRevision(sheetId, base) : Promise.resolve({ ...doc, blocks: [] })]);
-        const { document: merged, clashes } = mergeSheets(original, doc, latest);
-        setConflict({ current, latest, merged, clashes, theirChanges: compareSheets({ document: original }, { document: latest }) });
-      } catch (e) {
-        setError(e instanceof Error ? e.message : 'The newest revision could not be loaded.');
+    let saved: { number: number; hash: string; evaluation?: 'evaluating' };
+    try {
+      saved = await apiFetch<{ number: number; hash: string; evaluation?: 'evaluating' }>(`/api/sheets/${sheetId}/revisions`, { body: { baseRevision: base, document: doc, message } });
+    } catch (failure) {
+      setPending(false);
+      const current = failure instanceof ApiError && failure.status === 409 ? (failure.body as { current?: { number: number } } | null)?.current : undefined;
+      if (current) {
+        try {
+          const [latest, original] = await Promise.all([fetchRevision(sheetId, current.number), base > 0 ? fetchRevision(sheetId, base) : Promise.resolve({ ...doc, blocks: [] })]);
+          const { document: merged, clashes } = mergeSheets(original, doc, latest);
+          setConflict({ current: current.number, latest, merged, clashes, theirChanges: compareSheets({ document: original }, { document: latest }) });
+        } catch (e) {
+          setError(e instanceof Error ? e.message : 'The newest revision could not be loaded.');
+        }
+        return;
       }
+      setError(failure instanceof ApiError && failure.code !== 'error' ? failure.message : 'The revision could not be saved. Try again.');
       return;
     }
-    setError(payload?.error?.message ?? 'The revision could not be saved. Try again.');
+    setPending(false);
+    setConflict(null);
+    setMessage('');
+    onSaved({ number: saved.number, hash: saved.hash, ...(saved.evaluation === 'evaluating' ? { evaluating: true } : {}) }, doc);
+    onClose();
   }
 
   return (
@@ -123,7 +123,8 @@ export function SaveRevisionDialog({
             <textarea value={message} onChange={(e) => setMessage(e.target.value)} maxLength={2000} rows={3} className="rounded-[3px] border border-rule bg-chalk px-2 py-1 text-[14px]" />
           </label>
           <p className="text-[12px] text-slate">
-            The sheet is evaluated and stored as revision {baseRevision + 1} with its results and hash. A new revision starts unsigned.
+            The sheet is evaluated and stored as revision {baseRevision + 1} with its results and hash (a sheet too costly to
+            evaluate at once is stored now and its results when its long run finishes). A new revision starts unsigned.
           </p>
           {error ? (
             <ErrorText>{error}</ErrorText>

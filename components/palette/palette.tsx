@@ -11,18 +11,12 @@ import { ShortcutsSheet } from './shortcuts-sheet';
 import { RegistryProvider, useRegistrySnapshot, type PaletteCommand } from './command-registry';
 import { isTypingTarget } from './shortcuts';
 import { isRiskyCommand, needsConfirmation, riskyCommandScore } from './command-safety';
+import { apiFetch } from '@/lib/api-client';
 
 const LOOKS_LIKE_EXPRESSION = /[0-9(]/;
 
-async function postQuick(expr: string, preview: boolean): Promise<QuickAnswer> {
-  const response = await fetch('/api/quick', {
-    method: 'POST',
-    headers: { 'content-type': 'application/json' },
-    body: JSON.stringify({ expr, preview }),
-  });
-  const body = await response.json().catch(() => null);
-  if (!response.ok) throw new Error(body?.error?.message ?? `The server answered ${response.status}.`);
-  return body as QuickAnswer;
+function postQuick(expr: string, preview: boolean): Promise<QuickAnswer> {
+  return apiFetch<QuickAnswer>('/api/quick', { body: { expr, preview } });
 }
 
 export function formatQuick(answer: QuickAnswer): string {
@@ -111,11 +105,10 @@ function Palette({
   });
   const recent = useQuery({
     queryKey: ['quick-recent'],
-    queryFn: async () => {
-      const response = await fetch('/api/quick/recent');
-      if (!response.ok) throw new Error('Could not load recent quick calculations.');
-      return (await response.json()) as { items: QuickRecord[] };
-    },
+    queryFn: () =>
+      apiFetch<{ items: QuickRecord[] }>('/api/quick/recent').catch(() => {
+        throw new Error('Could not load recent quick calculations.');
+      }),
     enabled: open,
     staleTime: 5_000,
   });

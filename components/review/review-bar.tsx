@@ -3,42 +3,27 @@
 import { useRouter } from 'next/navigation';
 import { useCallback, useState } from 'react';
 import { Button } from '@/components/ui/button';
-import { StatusTag, type SheetStatus } from '@/components/ui/status';
+import { StatusTag } from '@/components/ui/status';
 import { ErrorText } from '@/components/ui/error-text';
 import { Dialog } from '@/components/ui/dialog';
 import { ReviewNotes, type ReviewNote } from './review-notes';
+import type { TeamRole as Role } from '@/models';
+import { allowedReviewActions as allowedByRules, type ReviewAction } from '@/lib/auth/review-rules';
+import type { PublicUser as Person } from '@/lib/db/users';
+import type { ReviewSummary } from '@/lib/db/revisions';
+import { ApiError, apiFetch, failureOf } from '@/lib/api-client';
+import { formatDay } from '@/lib/format/dates';
 
-type Person = { id: string; name: string; email: string };
-type Role = 'owner' | 'editor' | 'reviewer' | 'viewer';
-export type ReviewState = {
-  status: Exclude<SheetStatus, 'draft'>;
-  preparedBy: Person | null;
-  preparedAt: string;
-  reviewer: Person | null;
-  requestedAt: string | null;
-  checkedBy: Person | null;
-  checkedAt: string | null;
-  approvedBy: Person | null;
-  approvedAt: string | null;
-  returnedBy: Person | null;
-  returnedAt: string | null;
-  /** True while the revision's long run has not stored its results (CONTRACT §6b): no check can be asked for. */
-  evaluating?: boolean;
-};
-export type ReviewAction = 'request' | 'check' | 'return' | 'approve';
+export type { ReviewAction };
 
-const day = (iso: string | null) => (iso ? iso.slice(0, 10) : '');
+/** The sign-off of a revision, as lib/db answers it. */
+export type ReviewState = Omit<ReviewSummary, 'evaluating'> & { evaluating?: boolean };
 
-/** Which review actions this person may take now (the server checks again; this only shapes the buttons). */
+const day = (iso: string | null) => formatDay(iso);
+
+/** Which review actions this person may take now (the rules of lib/auth/review-rules.ts; the server checks again). */
 export function allowedReviewActions({ role, userId, review, isHead }: { role: Role; userId: string; review: ReviewState; isHead: boolean }): ReviewAction[] {
-  if (!isHead) return [];
-  const isAuthor = review.preparedBy?.id === userId;
-  const actions: ReviewAction[] = [];
-  if ((role === 'owner' || role === 'editor') && (review.status === 'unsigned' || review.status === 'returned') && !review.evaluating) actions.push('request');
-  if ((role === 'owner' || role === 'reviewer') && !isAuthor && review.status === 'in_review') actions.push('check');
-  if ((role === 'owner' || role === 'reviewer') && !isAuthor && (review.status === 'in_review' || review.status === 'checked')) actions.push('return');
-  if (role === 'owner' && !isAuthor && review.checkedBy?.id !== userId && review.status === 'checked') actions.push('approve');
-  return actions;
+  return allowedByRules({ role, actorId: userId, authorId: review.preparedBy?.id ?? null, checkedById: review.checkedBy?.id ?? null, status: review.status, evaluating: review.evaluating ?? false, isHead });
 }
 
 export const LABELS: Record<ReviewAction, string> = { request: 'Ask for a check', check: 'Mark checked', return: 'Return for changes', approve: 'Approve' };
@@ -63,23 +48,21 @@ export function useReviewActions({ sheetId, revision, onChanged }: { sheetId: st
       setPending(action);
       setError(null);
       try {
-        const response = await fetch(`/api/sheets/${sheetId}/review`, {
-          method: 'POST',
-          headers: { 'content-type': 'application/json' },
-          body: JSON.stringify({
+        await apiFetch(`/api/sheets/${sheetId}/review`, {
+          body: {
             action,
             revision,
             ...(action === 'request' ? { reviewerId: options.reviewerId } : {}),
             ...(options.message?.trim() ? { message: options.message.trim() } : {}),
-          }),
+          },
         });
-        if (!response.ok) {
-          const payload = (await response.json().catch(() => null)) as { error?: { message: string } } | null;
-          setError(payload?.error?.message ?? `That did not work (the server answered ${response.status}). Try again.`);
-          return false;
-        }
-      } catch {
-        setError('The server could not be reached. Try again.');
+      } catch (failure) {
+        // A refusal (403, 409...) is shown as the server said it.
+        setError(
+          failure instanceof ApiError && failure.status === 0
+            ? 'The server could not be reached. Try again.'
+            : failureOf(failure, `That did not work (the server answered ${failure instanceof ApiError ? failure.status : 'oddly'}). Try again.`).message,
+        );
         return false;
       } finally {
         setPending(null);

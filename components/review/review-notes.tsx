@@ -1,3 +1,4 @@
+import { formatMinute } from '@/lib/format/dates';
 // The notes of each review action (request, check, return, approve) with who and when.
 export type ReviewNote = {
   id: string;
@@ -16,7 +17,7 @@ export const REVIEW_ACTION_WORDS: Record<ReviewNote['action'], string> = {
   approve: 'approved',
 };
 
-const when = (iso: string) => `${iso.slice(0, 16).replace('T', ' ')} UTC`;
+const when = (iso: string) => `${formatMinute(iso)} UTC`;
 
 export function ReviewNotes({ notes, showRevision = false }: { notes: ReviewNote[]; showRevision?: boolean }) {
   if (!notes.length) return null;

@@ -2,6 +2,7 @@
 
 import { useEffect, useRef, useState } from 'react';
 import type { SheetResults } from '@/lib/sheet/types';
+import { ApiError, apiFetch, failureOf } from '@/lib/api-client';
 
 /** How a long run looks to the page (CONTRACT §6b). */
 export interface RunState {
@@ -49,11 +50,10 @@ export function RunProgress({
     let timer: ReturnType<typeof setTimeout> | undefined;
     const poll = async () => {
       try {
-        const response = await fetch(`/api/runs/${runId}`);
-        const body = (await response.json().catch(() => null)) as { run?: RunState; results?: SheetResults; error?: { message?: string } } | null;
+        const body = await apiFetch<{ run?: RunState; results?: SheetResults } | null>(`/api/runs/${runId}`);
         if (stopped) return;
-        if (!response.ok || !body?.run) {
-          setProblem(body?.error?.message ?? `The run could not be read (${response.status}).`);
+        if (!body?.run) {
+          setProblem('The run could not be read (200).');
         } else {
           setProblem(null);
           setRun(body.run);
@@ -66,8 +66,14 @@ export function RunProgress({
             return;
           }
         }
-      } catch {
-        if (!stopped) setProblem('The server did not answer; trying again.');
+      } catch (failure) {
+        if (!stopped) {
+          setProblem(
+            failure instanceof ApiError && failure.status > 0
+              ? failureOf(failure, `The run could not be read (${failure.status}).`).message
+              : 'The server did not answer; trying again.',
+          );
+        }
       }
       if (!stopped) timer = setTimeout(poll, POLL_MS);
     };
@@ -81,9 +87,9 @@ export function RunProgress({
   const cancel = async () => {
     setCancelling(true);
     try {
-      const response = await fetch(`/api/runs/${runId}`, { method: 'DELETE' });
-      const body = (await response.json().catch(() => null)) as { run?: RunState; error?: { message?: string } } | null;
-      if (!response.ok) setProblem(body?.error?.message ?? `The run could not be cancelled (${response.status}).`);
+      await apiFetch(`/api/runs/${runId}`, { method: 'DELETE' });
+    } catch (failure) {
+      setProblem(failureOf(failure, `The run could not be cancelled (${failure instanceof ApiError ? failure.status : 0}).`).message);
     } finally {
       setCancelling(false);
     }

@@ -4,8 +4,8 @@ import { StatusTag, type SheetStatus } from '@/components/ui/status';
 import type { SiteInfo } from '@/lib/sheet/types';
 
 export interface ForkOrigin {
-  sheetId: string;
-  /** null when the source belongs to a team the reader is not in. */
+  /** null (as the title) when the source belongs to a team the reader is not in. */
+  sheetId: string | null;
   title: string | null;
   revision: number | null;
   visible: boolean;

@@ -36,13 +36,13 @@ import { DisplaySettings } from './display-settings';
 import { apiFetch } from '@/lib/api-client';
 import type { MentionPerson } from '@/lib/comments/mentions';
 import { DEFAULT_SHEET_PREFERENCES, type SheetPreferences } from '@/lib/sheet/preferences';
+import type { TeamRole as Role } from '@/models';
+import type { PublicUser as Person } from '@/lib/db/users';
 
 // The dialogs load when first opened, so their code stays out of the page's first download.
 const SaveRevisionDialog = dynamic(() => import('@/components/history/save-revision-dialog').then((m) => m.SaveRevisionDialog), { ssr: false });
 const ForkDialog = dynamic(() => import('@/components/history/fork-dialog').then((m) => m.ForkDialog), { ssr: false });
 
-type Role = 'owner' | 'editor' | 'reviewer' | 'viewer';
-type Person = { id: string; name: string; email: string };
 
 export interface SheetWorkspaceProps {
   sheetId: string;
@@ -158,11 +158,15 @@ export function SheetWorkspace({
   );
 
   const onRevisionSaved = useCallback(
-    (saved: { number: number; hash: string }, savedDocument: unknown) => {
+    (saved: { number: number; hash: string; evaluating?: boolean }, savedDocument: unknown) => {
       setSavedHead(saved.number);
       // After a 409 the saved document is the user's edits re-applied on the newest revision: the draft follows it.
       if (!sameJson(savedDocument, docRef.current)) apply(savedDocument as SheetDocument);
-      setNotice(`Saved revision r${saved.number} (${saved.hash.slice(0, 10)}). It starts unsigned: ask for a check in the sign-off bar.`);
+      setNotice(
+        saved.evaluating
+          ? `Saved revision r${saved.number} (${saved.hash.slice(0, 10)}). It is too costly to evaluate at once: a long run stores its results (see the revision page); a check can be asked for after that.`
+          : `Saved revision r${saved.number} (${saved.hash.slice(0, 10)}). It starts unsigned: ask for a check in the sign-off bar.`,
+      );
       router.refresh();
     },
     [apply, setNotice, router],

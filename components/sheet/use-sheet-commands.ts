@@ -8,9 +8,9 @@ import { allowedReviewActions, type ReviewAction, type ReviewState } from '@/com
 import type { SheetStatus } from '@/components/ui/status';
 import type { CatalogType, SheetBlock } from '@/lib/sheet/types';
 import type { ForkOrigin } from './sheet-header';
+import type { TeamRole as Role } from '@/models';
+import type { PublicUser as Person } from '@/lib/db/users';
 
-type Role = 'owner' | 'editor' | 'reviewer' | 'viewer';
-type Person = { id: string; name: string; email: string };
 
 /**
  * The sheet page's palette commands: evaluate, undo/redo, add a block of each type, act on the selected

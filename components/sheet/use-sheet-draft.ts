@@ -2,6 +2,7 @@
 
 import { useMutation } from '@tanstack/react-query';
 import { useCallback, useEffect, useRef, useState } from 'react';
+import { ApiError, apiFetch, apiResponse } from '@/lib/api-client';
 import { changedBlockIds, dependentsOf } from '@/lib/sheet/document-edits';
 import { mergeSheets, sameJson as same } from '@/lib/sheet/merge';
 import type { SheetDocument, SheetResults } from '@/lib/sheet/types';
@@ -38,11 +39,13 @@ function liveEvaluationOff(): boolean {
   }
 }
 
-async function fetchJson(url: string, init?: RequestInit) {
-  const response = await fetch(url, init);
-  const body = await response.json().catch(() => null);
-  return { status: response.status, body };
-}
+/** The answers of the routes this hook calls. */
+type EvaluateAnswer = { draftVersion: number; results: SheetResults; evaluatedBlockIds: string[] } | { run: { id: string }; draftVersion: number };
+type DraftAnswer = { version: number };
+type SheetAnswer = { draft: { version: number; document: SheetDocument } };
+
+/** The contract's message of a failure, or `fallback` when the server gave none. */
+const messageOf = (error: unknown, fallback: string) => (error instanceof ApiError && error.code !== 'error' && error.status > 0 ? error.message : fallback);
 
 /**
  * The sheet's draft on the client: local edits with undo/redo, saved to the server after a short
@@ -92,11 +95,17 @@ export function useSheetDraft({
 
   const evaluate = useMutation({
     mutationFn: async (stamp: number) => {
-      const { status, body } = await fetchJson(`/api/sheets/${sheetId}/evaluate`, { method: 'POST' });
+      let answer: { status: number; body: EvaluateAnswer };
+      try {
+        answer = await apiResponse<EvaluateAnswer>(`/api/sheets/${sheetId}/evaluate`, { method: 'POST' });
+      } catch (error) {
+        throw new Error(error instanceof ApiError && error.status === 0 ? error.message : messageOf(error, `Evaluation failed (${error instanceof ApiError ? error.status : 0}).`));
+      }
+      const { status, body } = answer;
       // 202: too costly for a request, the server started a long run (CONTRACT §6b).
-      if (status === 202 && body?.run?.id) return { kind: 'run' as const, run: { id: body.run.id as string, draftVersion: body.draftVersion as number, stamp } };
-      if (status !== 200) throw new Error(body?.error?.message ?? `Evaluation failed (${status}).`);
-      return { kind: 'results' as const, ...(body as { draftVersion: number; results: SheetResults; evaluatedBlockIds: string[] }), stamp };
+      if (status === 202 && 'run' in body && body.run?.id) return { kind: 'run' as const, run: { id: body.run.id, draftVersion: body.draftVersion, stamp } };
+      if (status !== 200 || !('results' in body)) throw new Error(`Evaluation failed (${status}).`);
+      return { kind: 'results' as const, ...body, stamp };
     },
     onSuccess: (data) => {
       if (data.kind === 'run') {
@@ -132,14 +141,12 @@ export function useSheetDraft({
     liveAbort.current = controller;
     setLiveEvaluating(true);
     try {
-      const response = await fetch(`/api/sheets/${sheetId}/evaluate`, {
+      const { status, body } = await apiResponse<{ results?: SheetResults }>(`/api/sheets/${sheetId}/evaluate`, {
         method: 'POST',
-        headers: { 'content-type': 'application/json' },
-        body: JSON.stringify({ document }),
+        body: { document },
         signal: controller.signal,
       });
-      const body = await response.json().catch(() => null);
-      if (controller.signal.aborted || response.status !== 200 || stamp !== editCounter.current || stamp < appliedStamp.current) return;
+      if (controller.signal.aborted || status !== 200 || !body.results || stamp !== editCounter.current || stamp < appliedStamp.current) return;
       appliedStamp.current = stamp;
       setResults(body.results as SheetResults);
       setStale(new Set());
@@ -181,15 +188,20 @@ export function useSheetDraft({
     const stamp = editCounter.current;
     setSaveState({ kind: 'saving' });
     try {
-      const { status, body } = await fetchJson(`/api/sheets/${sheetId}/draft`, {
-        method: 'PUT',
-        headers: { 'content-type': 'application/json' },
-        body: JSON.stringify({ baseVersion: versionRef.current, document }),
-      });
-      if (status === 200) {
+      let saved: DraftAnswer | null = null;
+      let refusal: ApiError | null = null;
+      try {
+        saved = await apiFetch<DraftAnswer>(`/api/sheets/${sheetId}/draft`, { method: 'PUT', body: { baseVersion: versionRef.current, document } });
+      } catch (error) {
+        // A network failure (status 0) goes on to the retry below.
+        if (!(error instanceof ApiError) || error.status === 0) throw error;
+        refusal = error;
+      }
+      const status = refusal?.status ?? 200;
+      if (saved) {
         retryDelay.current = 2;
-        versionRef.current = body.version;
-        setVersion(body.version);
+        versionRef.current = saved.version;
+        setVersion(saved.version);
         baseDocRef.current = document;
         if (stamp === editCounter.current) {
           writePending(sheetId, null);
@@ -200,21 +212,22 @@ export function useSheetDraft({
         // The unsaved document of this very edit was evaluated already (live): no second evaluation.
         if (appliedStamp.current !== stamp) evaluateRef.current(stamp);
       } else if (status === 409) {
-        const current = await fetchJson(`/api/sheets/${sheetId}`);
-        if (current.status === 200) {
-          const next: Conflict = { serverVersion: current.body.draft.version, serverDocument: current.body.draft.document, restored: false };
-          conflictRef.current = next;
-          setConflict(next);
-          setSaveState({ kind: 'conflict' });
-        } else {
-          throw new Error(current.body?.error?.message ?? 'Could not load the current version.');
+        let current: SheetAnswer;
+        try {
+          current = await apiFetch<SheetAnswer>(`/api/sheets/${sheetId}`);
+        } catch (error) {
+          throw new Error(messageOf(error, 'Could not load the current version.'));
         }
+        const next: Conflict = { serverVersion: current.draft.version, serverDocument: current.draft.document, restored: false };
+        conflictRef.current = next;
+        setConflict(next);
+        setSaveState({ kind: 'conflict' });
       } else if (status === 400 || status === 413) {
-        setSaveState({ kind: 'invalid', message: body?.error?.message ?? 'The server refused the draft.' });
+        setSaveState({ kind: 'invalid', message: messageOf(refusal, 'The server refused the draft.') });
       } else if (status === 401 || status === 403) {
-        setSaveState({ kind: 'invalid', message: body?.error?.message ?? 'You may not edit this sheet.' });
+        setSaveState({ kind: 'invalid', message: messageOf(refusal, 'You may not edit this sheet.') });
       } else {
-        throw new Error(body?.error?.message ?? `The server answered ${status}.`);
+        throw new Error(messageOf(refusal, `The server answered ${status}.`));
       }
     } catch (error) {
       const wait = retryDelay.current;

@@ -2,6 +2,7 @@
 
 import { useRouter } from 'next/navigation';
 import { useState } from 'react';
+import { apiFetch } from '@/lib/api-client';
 
 type Team = { id: string; name: string; role: string; current: boolean };
 
@@ -22,11 +23,8 @@ export function TeamSwitcher({ teams }: { teams: Team[] }) {
         disabled={pending}
         onChange={async (e) => {
           setPending(true);
-          await fetch('/api/teams/current', {
-            method: 'PUT',
-            headers: { 'content-type': 'application/json' },
-            body: JSON.stringify({ teamId: e.target.value }),
-          });
+          // A refusal leaves the current team as it was; the refresh shows which one that is.
+          await apiFetch('/api/teams/current', { method: 'PUT', body: { teamId: e.target.value } }).catch(() => null);
           setPending(false);
           router.refresh();
         }}

@@ -4,6 +4,7 @@ import { useRouter } from 'next/navigation';
 import { useState } from 'react';
 import { Button } from '@/components/ui/button';
 import { ErrorText } from '@/components/ui/error-text';
+import { apiFetch, failureOf } from '@/lib/api-client';
 
 export function AcceptInvitation({ token, teamName }: { token: string; teamName: string }) {
   const router = useRouter();
@@ -13,15 +14,15 @@ export function AcceptInvitation({ token, teamName }: { token: string; teamName:
   async function accept() {
     setPending(true);
     setError(null);
-    const response = await fetch(`/api/invitations/${encodeURIComponent(token)}/accept`, { method: 'POST' });
-    if (response.ok) {
-      router.replace('/sheets');
-      router.refresh();
+    try {
+      await apiFetch(`/api/invitations/${encodeURIComponent(token)}/accept`, { method: 'POST' });
+    } catch (error) {
+      setError(failureOf(error, 'The invitation could not be accepted. Try again.').message);
+      setPending(false);
       return;
     }
-    const payload = (await response.json().catch(() => null)) as { error?: { message: string } } | null;
-    setError(payload?.error?.message ?? 'The invitation could not be accepted. Try again.');
-    setPending(false);
+    router.replace('/sheets');
+    router.refresh();
   }
 
   return (

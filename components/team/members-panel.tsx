@@ -4,8 +4,10 @@ import { useRouter } from 'next/navigation';
 import { useState, type FormEvent } from 'react';
 import { Button } from '@/components/ui/button';
 import { Field } from '@/components/ui/field';
+import type { TeamRole as Role } from '@/models';
+import { ApiError, apiFetch, type ApiRequest } from '@/lib/api-client';
+import { formatDay } from '@/lib/format/dates';
 
-type Role = 'owner' | 'editor' | 'reviewer' | 'viewer';
 type Member = { user: { id: string; name: string; email: string }; role: Role; joinedAt: string };
 type Pending = { id: string; email: string; role: Role; expiresAt: string };
 
@@ -24,13 +26,13 @@ type TeamResponse = {
   link?: string;
 } | null;
 
-async function send(url: string, method: string, body?: unknown): Promise<{ ok: boolean; data: TeamResponse }> {
-  const response = await fetch(url, {
-    method,
-    headers: body ? { 'content-type': 'application/json' } : undefined,
-    body: body ? JSON.stringify(body) : undefined,
-  });
-  return { ok: response.ok, data: await response.json().catch(() => null) };
+async function send(url: string, method: ApiRequest['method'], body?: unknown): Promise<{ ok: boolean; data: TeamResponse }> {
+  try {
+    return { ok: true, data: await apiFetch<TeamResponse>(url, { method, body }) };
+  } catch (error) {
+    // The contract's error body (a network failure has none: the callers' own words are shown).
+    return { ok: false, data: error instanceof ApiError ? (error.body as TeamResponse) : null };
+  }
 }
 
 /** Members and roles; owners change roles, remove people and invite by e-mail. */
@@ -146,7 +148,7 @@ export function MembersPanel({
                     ROLES.find((r) => r.value === m.role)?.label
                   )}
                 </td>
-                <td className="num px-3 py-2">{m.joinedAt.slice(0, 10)}</td>
+                <td className="num px-3 py-2">{formatDay(m.joinedAt)}</td>
                 {canManage ? (
                   <td className="px-3 py-2 text-right">
                     <Button variant="danger" disabled={busy} onClick={() => remove(m)} aria-label={`Remove ${m.user.name}`}>
@@ -199,7 +201,7 @@ export function MembersPanel({
               <ul className="text-[13px]">
                 {invitations.map((i) => (
                   <li key={i.id}>
-                    {i.email} · {i.role} · <span className="text-slate">expires {i.expiresAt.slice(0, 10)}</span>
+                    {i.email} · {i.role} · <span className="text-slate">expires {formatDay(i.expiresAt)}</span>
                   </li>
                 ))}
               </ul>

@@ -2,7 +2,7 @@
 
 import dynamic from 'next/dynamic';
 import { intervalText, methodLabel, significant } from '@/lib/plot/uncertainty-plot';
-import type { BlockResult } from '@/lib/sheet/types';
+import { isTextSpread, type BlockResult } from '@/lib/sheet/types';
 
 const SpreadFigures = dynamic(() => import('./spread-figures'), {
   ssr: false,
@@ -24,7 +24,9 @@ export function OutputSpreads({ blockName, result, labelOf }: { blockName: strin
         const spread = output.spread!;
         const unit = output.unit;
         const nominal = typeof output.value === 'number' ? `${significant(output.value, 6)}${unit ? ` ${unit}` : ''}` : String(output.value);
-        const interval = intervalText(spread, unit);
+        const counts = isTextSpread(spread) ? spread.counts : null;
+        const numeric = isTextSpread(spread) ? null : spread;
+        const interval = numeric ? intervalText(numeric, unit) : null;
         return (
           <section key={name} className="rounded-[3px] border border-rule p-2 text-[13px]" data-spread={name} aria-label={`Uncertainty of ${blockName}.${name}`}>
             <p>
@@ -34,15 +36,15 @@ export function OutputSpreads({ blockName, result, labelOf }: { blockName: strin
               <span className="num font-semibold" data-testid="spread-nominal">{nominal}</span>
               <span className="text-slate"> nominal (inputs at their medians)</span>
             </p>
-            {spread.counts ? (
+            {counts ? (
               <p data-testid="spread-counts">
-                {Object.entries(spread.counts).map(([label, count]) => `${label}: ${count}`).join(' · ')}
+                {Object.entries(counts).map(([label, count]) => `${label}: ${count}`).join(' · ')}
               </p>
             ) : interval ? (
               <p>
                 <span className="num" data-testid="spread-interval">{interval}</span>
-                {spread.mean !== undefined && spread.sd !== undefined ? (
-                  <span className="text-slate num"> · mean {significant(spread.mean)} · sd {significant(spread.sd)}</span>
+                {numeric && numeric.mean !== undefined && numeric.sd !== undefined ? (
+                  <span className="text-slate num"> · mean {significant(numeric.mean)} · sd {significant(numeric.sd)}</span>
                 ) : null}
               </p>
             ) : null}
@@ -51,8 +53,8 @@ export function OutputSpreads({ blockName, result, labelOf }: { blockName: strin
               {methodLabel(spread)}
               {spread.method === 'linear' ? ' — blind to skew and curvature; compare with Monte Carlo before relying on the interval.' : ''}
             </p>
-            {spread.counts ? null : (
-              <SpreadFigures label={`${blockName}.${name}`} spread={spread} nominal={typeof output.value === 'number' ? output.value : 0} histogram={result.series?.[`hist_${name}`]} />
+            {!numeric ? null : (
+              <SpreadFigures label={`${blockName}.${name}`} spread={numeric} nominal={typeof output.value === 'number' ? output.value : 0} histogram={result.series?.[`hist_${name}`]} />
             )}
           </section>
         );

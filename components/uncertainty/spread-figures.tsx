@@ -3,7 +3,7 @@
 import * as Plot from '@observablehq/plot';
 import { useEffect, useRef, useState } from 'react';
 import { histogramPlot, sensitivityPlot } from '@/lib/plot/uncertainty-plot';
-import type { SeriesData, SpreadData } from '@/lib/sheet/types';
+import type { NumericSpreadData, SeriesData } from '@/lib/sheet/types';
 
 /** The histogram and the sensitivity bars of one uncertain output (Observable Plot, drawn in an effect). */
 export default function SpreadFigures({
@@ -13,7 +13,7 @@ export default function SpreadFigures({
   histogram,
 }: {
   label: string;
-  spread: SpreadData;
+  spread: NumericSpreadData;
   nominal: number;
   histogram: SeriesData | undefined;
 }) {

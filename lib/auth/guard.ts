@@ -1,24 +1,32 @@
 import 'server-only';
-import { getServerSession } from 'next-auth';
 import { forbidden, notFound, unauthenticated } from '@/lib/errors';
-import { getSessionUser, type PublicUser } from '@/lib/db/users';
+import type { PublicUser } from '@/lib/db/users';
 import { getMembershipRole } from '@/lib/db/teams';
 import { findSheetRecord, type SheetRecord } from '@/lib/db/sheets';
 import type { TeamRole } from '@/models';
-import { authOptions } from './options';
 import { roleAllows, type TeamAction } from './permissions';
+import { getSessionContext, sessionLookedUp, type SessionContext } from './session';
 
 /**
- * The signed-in user, or a 401. The user is re-read so a deleted account, or a session older than the
- * account's last password change, loses access at once.
+ * The signed-in user with their teams, or a 401. The user is re-read (once per request) so a deleted
+ * account, or a session older than the account's last password change, loses access at once.
  */
+export async function requireSession(): Promise<SessionContext> {
+  const context = await getSessionContext();
+  if (!context) throw unauthenticated();
+  return context;
+}
+
+/** The signed-in user, or a 401 (see requireSession). */
 export async function requireUser(): Promise<PublicUser> {
-  const session = await getServerSession(authOptions);
-  const id = session?.user?.id;
-  if (!id) throw unauthenticated();
-  const user = await getSessionUser({ id, signedInAt: session.signedInAt });
-  if (!user) throw unauthenticated();
-  return user;
+  return (await requireSession()).user;
+}
+
+/** The user's role in a team: from this request's session look-up when it is the caller, else a query. */
+async function membershipRole(userId: string, teamId: string): Promise<TeamRole | null> {
+  const context = await sessionLookedUp()?.catch(() => null);
+  if (context && context.user.id === userId) return context.teams.find((t) => t.id === teamId)?.role ?? null;
+  return getMembershipRole({ userId, teamId });
 }
 
 /** The user's role in a team if it allows the action: 404 when not a member, 403 when the role forbids. */
@@ -31,7 +39,7 @@ export async function requireTeamRole({
   teamId: string;
   action: TeamAction;
 }): Promise<TeamRole> {
-  const role = await getMembershipRole({ userId, teamId });
+  const role = await membershipRole(userId, teamId);
   if (!role) throw notFound('Team');
   if (!roleAllows(role, action)) throw forbidden();
   return role;
@@ -49,7 +57,7 @@ export async function requireSheetRole({
 }): Promise<{ sheet: SheetRecord; role: TeamRole }> {
   const sheet = await findSheetRecord({ sheetId });
   if (!sheet) throw notFound('Sheet');
-  const role = await getMembershipRole({ userId, teamId: sheet.teamId });
+  const role = await membershipRole(userId, sheet.teamId);
   if (!role) throw notFound('Sheet');
   if (!roleAllows(role, action)) throw forbidden();
   return { sheet, role };

@@ -3,6 +3,7 @@ import CredentialsProvider from 'next-auth/providers/credentials';
 import { z } from 'zod';
 import { verifyCredentials } from '@/lib/db/users';
 import { clientAddress, penaliseRateLimit } from '@/lib/rate-limit';
+import { cachedDecode } from './token-cache';
 
 const credentialsSchema = z.object({ email: z.string().trim().email(), password: z.string().min(1).max(200) });
 
@@ -29,6 +30,8 @@ const appUrl = process.env.NEXTAUTH_URL ?? process.env.DENUDATA_APP_URL ?? '';
 
 export const authOptions: NextAuthOptions = {
   session: { strategy: 'jwt', maxAge: 60 * 60 * 12 },
+  // next-auth's own decode behind a bounded cache of recent tokens (lib/auth/token-cache.ts).
+  jwt: { decode: cachedDecode },
   // Session and CSRF cookies carry Secure (and the __Secure-/__Host- names) whenever the app is served over https.
   useSecureCookies: appUrl.startsWith('https://'),
   pages: { signIn: '/sign-in' },

@@ -1,13 +1,14 @@
 import 'server-only';
 import { badRequest, conflict, forbidden, notFound } from '@/lib/errors';
 import { roleAllows } from '@/lib/auth/permissions';
+import { revisionRefusal, type ReviewAction } from '@/lib/auth/review-rules';
 import { Membership, Sheet, SheetRevision, User, type ReviewStatus } from '@/models';
 import { recordAudit } from './audit';
 import { recordReviewEvent } from './review-events';
 import { db } from './index';
 import { toPublicUser, type PublicUser } from './users';
 
-export type ReviewAction = 'request' | 'check' | 'return' | 'approve';
+export type { ReviewAction } from '@/lib/auth/review-rules';
 
 export type ReviewOutcome = {
   status: ReviewStatus;
@@ -25,14 +26,6 @@ export type ReviewNotice = {
   actor: PublicUser;
   recipients: PublicUser[];
   message?: string;
-};
-
-// Which statuses each action may start from (common practice of independent checking).
-const FROM: Record<ReviewAction, readonly ReviewStatus[]> = {
-  request: ['unsigned', 'returned'],
-  check: ['in_review'],
-  return: ['in_review', 'checked'],
-  approve: ['checked'],
 };
 
 const STATUS_WORDS: Record<ReviewStatus, string> = {
@@ -73,20 +66,27 @@ export async function applyReviewAction({
     if (revision !== sheet.headRevision) {
       throw conflict(`Only the newest revision (${sheet.headRevision}) can be reviewed.`, { current: { number: sheet.headRevision } });
     }
-    const isAuthor = row.authorId === actorId;
-    if (action !== 'request' && isAuthor) {
+    const refusal = revisionRefusal(action, {
+      actorId,
+      authorId: row.authorId,
+      checkedById: row.checkedBy ?? null,
+      status: row.reviewStatus as ReviewStatus,
+      evaluating: row.results === null,
+      isHead: true,
+    });
+    if (refusal === 'author') {
       throw forbidden('The author of a revision cannot check, return or approve it: another person must.');
     }
-    if (action === 'approve' && row.checkedBy === actorId) {
+    if (refusal === 'checker') {
       throw forbidden('The person who checked a revision cannot also approve it.');
     }
-    if (action === 'request' && row.results === null) {
+    if (refusal === 'evaluating') {
       // CONTRACT §6b: a revision saved over the cost limit has no results until its long run stores them.
       throw conflict(`Revision ${revision} is still being evaluated: ask for a check when its results are stored.`, {
         current: { number: revision, status: row.reviewStatus, evaluating: true },
       });
     }
-    if (!FROM[action].includes(row.reviewStatus)) {
+    if (refusal === 'status') {
       const needs = action === 'approve' ? 'Only a checked revision can be approved' : `This revision cannot be ${action === 'request' ? 'sent for review' : action === 'check' ? 'checked' : 'returned'} now`;
       throw conflict(`${needs}: revision ${revision} is ${STATUS_WORDS[row.reviewStatus as ReviewStatus]}.`, {
         current: { number: revision, status: row.reviewStatus },

@@ -1,5 +1,5 @@
 import 'server-only';
-import { literal, UniqueConstraintError, type Transaction } from 'sequelize';
+import { literal, QueryTypes, UniqueConstraintError, type Transaction } from 'sequelize';
 import { AppError, conflict, notFound } from '@/lib/errors';
 import { ENGINE_VERSION, EngineError, hashSheetDocument, needsLongRun, type SheetDocument, type SheetResults } from '@/lib/engine';
 import { requireValidDocument } from '@/lib/sheet/evaluation.server';
@@ -165,6 +165,16 @@ export async function getReviewSummary({ sheetId, number }: { sheetId: string; n
   return (await readRevision({ sheetId, number })).review;
 }
 
+/** Whether a sheet has a revision of that number (a cheap check for pages, before anything streams). */
+export async function revisionExists({ sheetId, number }: { sheetId: string; number: number }): Promise<boolean> {
+  if (!Number.isSafeInteger(number) || number < 1 || number > 2_147_483_647) return false;
+  const [row] = await db().query('SELECT 1 FROM sheet_revisions WHERE sheet_id = $1 AND number = $2', {
+    bind: [sheetId, number],
+    type: QueryTypes.SELECT,
+  });
+  return row !== undefined;
+}
+
 type Evaluated = { document: SheetDocument; hash: string; results: SheetResults; engineVersion: string };
 /** A revision to write: `results` null when a long run will store them (CONTRACT §6b). */
 type ToStore = Omit<Evaluated, 'results'> & { results: SheetResults | null };
@@ -180,7 +190,7 @@ export async function evaluateForRevision(input: unknown, userId?: string, datas
     results = await runEvaluate(document, userId ? { userId } : undefined, datasets);
   } catch (error) {
     if (error instanceof EngineError) {
-      throw new AppError(/longer than|too much memory/.test(error.message) ? 'limit_exceeded' : 'validation', `document: ${error.message}`);
+      throw new AppError(error.code === 'limit_exceeded' ? 'limit_exceeded' : 'validation', `document: ${error.message}`);
     }
     throw error;
   }
@@ -213,6 +223,11 @@ async function insertRevision(
   }: { sheet: Sheet; userId: string; baseRevision: number; evaluated: ToStore; message: string },
   transaction: Transaction,
 ): Promise<{ number: number; hash: string }> {
+  if (sheet.archivedAt !== null) {
+    throw conflict('This sheet is archived: no revision can be saved to it. Fork it to keep working on it.', {
+      current: { number: sheet.headRevision, archived: true },
+    });
+  }
   if (sheet.headRevision !== baseRevision) {
     throw conflict(`Revision ${sheet.headRevision} was saved since you started from revision ${baseRevision}.`, {
       current: { number: sheet.headRevision },

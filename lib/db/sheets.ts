@@ -1,11 +1,11 @@
 import 'server-only';
-import { Op, QueryTypes, type Transaction } from 'sequelize';
+import { QueryTypes, type Transaction } from 'sequelize';
 import { conflict, notFound } from '@/lib/errors';
-import { Sheet, SheetRevision, User, type ReviewStatus } from '@/models';
+import { Sheet, type ReviewStatus } from '@/models';
 import { recordAudit } from './audit';
 import { isUuid } from './ids';
 import { db } from './index';
-import { toPublicUser, type PublicUser } from './users';
+import type { PublicUser } from './users';
 
 export type SiteInput = { name: string; latitude?: number; longitude?: number; notes?: string };
 
@@ -141,11 +141,58 @@ export async function listSheetsByTeam({
   return { items, total: items.length };
 }
 
+/** The columns of a SheetRecord (never the draft document, which can be large), for raw queries on `s`. */
+const RECORD_COLUMNS = `s.id, s.team_id, s.title, s.site_name, s.site_latitude, s.site_longitude, s.site_notes, s.draft_version,
+  s.head_revision, s.archived_at, s.forked_from_sheet_id, s.forked_from_revision, s.created_at, s.updated_at`;
+
+type RecordRow = {
+  id: string;
+  team_id: string;
+  title: string;
+  site_name: string | null;
+  site_latitude: number | null;
+  site_longitude: number | null;
+  site_notes: string | null;
+  draft_version: number;
+  head_revision: number;
+  archived_at: Date | null;
+  forked_from_sheet_id: string | null;
+  forked_from_revision: number | null;
+  created_at: Date;
+  updated_at: Date;
+};
+
+function recordOfRow(row: RecordRow): SheetRecord {
+  return {
+    id: row.id,
+    teamId: row.team_id,
+    title: row.title,
+    site: row.site_name
+      ? {
+          name: row.site_name,
+          ...(row.site_latitude !== null ? { latitude: row.site_latitude } : {}),
+          ...(row.site_longitude !== null ? { longitude: row.site_longitude } : {}),
+          ...(row.site_notes ? { notes: row.site_notes } : {}),
+        }
+      : null,
+    draftVersion: row.draft_version,
+    headRevision: row.head_revision,
+    archived: row.archived_at !== null,
+    forkedFromSheetId: row.forked_from_sheet_id,
+    forkedFromRevision: row.forked_from_revision,
+    createdAt: new Date(row.created_at).toISOString(),
+    updatedAt: new Date(row.updated_at).toISOString(),
+  };
+}
+
+/** A sheet's record (no draft document), or null; one plain query, asked by every sheet route's guard. */
 export async function findSheetRecord({ sheetId }: { sheetId: string }): Promise<SheetRecord | null> {
-  db();
   if (!isUuid(sheetId)) return null;
-  const sheet = await Sheet.findByPk(sheetId);
-  return sheet ? toSheetRecord(sheet) : null;
+  const [row] = await db().query<RecordRow>(`SELECT ${RECORD_COLUMNS} FROM sheets s WHERE s.id = $1`, {
+    bind: [sheetId],
+    type: QueryTypes.SELECT,
+  });
+  return row ? recordOfRow(row) : null;
 }
 
 /**
@@ -221,11 +268,16 @@ export type SheetDetail = {
   draft: { version: number; document: unknown };
   /** `evaluating` (only when true): the head's results are not stored yet (its long run evaluates it, CONTRACT §6b). */
   head: { number: number; hash: string; status: ReviewStatus; evaluating?: true } | null;
-  forkedFrom?: { sheetId: string; title: string | null; revision: number | null; visible: boolean };
+  /** sheetId and title are null when the source belongs to a team the reader is not in. */
+  forkedFrom?: { sheetId: string | null; title: string | null; revision: number | null; visible: boolean };
   forks: { id: string; title: string; site: string | null; revision: number | null }[];
 };
 
-/** Everything the sheet page and `GET /api/sheets/{id}` show; forks from other teams are left out. */
+/**
+ * Everything the sheet page and `GET /api/sheets/{id}` show; forks from other teams are left out, and a
+ * source sheet the reader cannot see is named by nothing but the revision it was forked at (neither its
+ * id nor its title). One plain query (forks in a subquery).
+ */
 export async function getSheetDetail({
   sheetId,
   visibleTeamIds,
@@ -233,43 +285,71 @@ export async function getSheetDetail({
   sheetId: string;
   visibleTeamIds: string[];
 }): Promise<SheetDetail> {
-  db();
-  const sheet = await Sheet.findByPk(sheetId, {
-    include: [
-      { model: User, as: 'creator' },
-      { model: User, as: 'updater' },
-    ],
-  });
-  if (!sheet) throw notFound('Sheet');
-  const withUsers = sheet as Sheet & { creator?: User | null; updater?: User | null };
-  const [head, source, forks] = await Promise.all([
-    sheet.headRevision > 0 ? SheetRevision.findOne({ where: { sheetId, number: sheet.headRevision } }) : null,
-    sheet.forkedFromSheetId ? Sheet.findByPk(sheet.forkedFromSheetId) : null,
-    Sheet.findAll({
-      where: { forkedFromSheetId: sheetId, teamId: { [Op.in]: visibleTeamIds } },
-      order: [['createdAt', 'ASC']],
-    }),
-  ]);
-  const sourceVisible = source ? visibleTeamIds.includes(source.teamId) : false;
+  if (!isUuid(sheetId)) throw notFound('Sheet');
+  const [row] = await db().query<
+    RecordRow & {
+      draft_document: unknown;
+      creator_id: string | null;
+      creator_name: string | null;
+      creator_email: string | null;
+      updater_id: string | null;
+      updater_name: string | null;
+      updater_email: string | null;
+      head_number: number | null;
+      head_hash: string | null;
+      head_status: ReviewStatus | null;
+      head_evaluating: boolean | null;
+      source_team_id: string | null;
+      source_title: string | null;
+      forks: { id: string; title: string; site: string | null; revision: number | null }[];
+    }
+  >(
+    `SELECT ${RECORD_COLUMNS}, s.draft_document,
+            cu.id AS creator_id, cu.name AS creator_name, cu.email AS creator_email,
+            uu.id AS updater_id, uu.name AS updater_name, uu.email AS updater_email,
+            h.number AS head_number, h.hash AS head_hash, h.review_status AS head_status, (h.results IS NULL) AS head_evaluating,
+            src.team_id AS source_team_id, src.title AS source_title,
+            coalesce((SELECT json_agg(json_build_object('id', f.id, 'title', f.title, 'site', f.site_name, 'revision', f.forked_from_revision)
+                                      ORDER BY f.created_at, f.id)
+                        FROM sheets f
+                       WHERE f.forked_from_sheet_id = s.id AND f.team_id = ANY($2::uuid[])), '[]'::json) AS forks
+       FROM sheets s
+       LEFT JOIN users cu ON cu.id = s.created_by
+       LEFT JOIN users uu ON uu.id = s.updated_by
+       LEFT JOIN sheet_revisions h ON h.sheet_id = s.id AND h.number = s.head_revision AND s.head_revision > 0
+       LEFT JOIN sheets src ON src.id = s.forked_from_sheet_id
+      WHERE s.id = $1`,
+    { bind: [sheetId, visibleTeamIds.filter(isUuid)], type: QueryTypes.SELECT },
+  );
+  if (!row) throw notFound('Sheet');
+  const person = (id: string | null, name: string | null, email: string | null): PublicUser | null =>
+    id ? { id, name: name!, email: email! } : null;
+  const record = recordOfRow(row);
+  const sourceVisible = row.source_team_id !== null && visibleTeamIds.includes(row.source_team_id);
   return {
     sheet: {
-      ...toSheetRecord(sheet),
-      createdBy: withUsers.creator ? toPublicUser(withUsers.creator) : null,
-      updatedBy: withUsers.updater ? toPublicUser(withUsers.updater) : null,
+      ...record,
+      // The source of a fork is named only to a reader who can see it.
+      forkedFromSheetId: sourceVisible ? record.forkedFromSheetId : null,
+      createdBy: person(row.creator_id, row.creator_name, row.creator_email),
+      updatedBy: person(row.updater_id, row.updater_name, row.updater_email),
     },
-    draft: { version: sheet.draftVersion, document: sheet.draftDocument },
-    head: head ? { number: head.number, hash: head.hash, status: head.reviewStatus, ...(head.results === null ? { evaluating: true as const } : {}) } : null,
-    ...(sheet.forkedFromSheetId
+    draft: { version: row.draft_version, document: row.draft_document },
+    head:
+      row.head_number !== null
+        ? { number: row.head_number, hash: row.head_hash!, status: row.head_status!, ...(row.head_evaluating ? { evaluating: true as const } : {}) }
+        : null,
+    ...(row.forked_from_sheet_id
       ? {
           forkedFrom: {
-            sheetId: sheet.forkedFromSheetId,
-            title: sourceVisible ? source!.title : null,
-            revision: sheet.forkedFromRevision,
+            sheetId: sourceVisible ? row.forked_from_sheet_id : null,
+            title: sourceVisible ? row.source_title : null,
+            revision: row.forked_from_revision,
             visible: sourceVisible,
           },
         }
       : {}),
-    forks: forks.map((f) => ({ id: f.id, title: f.title, site: f.siteName, revision: f.forkedFromRevision })),
+    forks: row.forks.map((f) => ({ id: f.id, title: f.title, site: f.site, revision: f.revision })),
   };
 }
 
@@ -278,7 +358,8 @@ export const DRAFT_SAVED = 'draft.saved';
 
 /**
  * Saves the working draft if nobody saved since `baseVersion`; otherwise 409 with the current version
- * and nothing written. The sheet's title and site follow the document's.
+ * and nothing written. An archived sheet's draft is not saved either (409, `current.archived`). The
+ * sheet's title and site follow the document's.
  */
 export async function saveDraft({
   sheetId,
@@ -301,11 +382,16 @@ export async function saveDraft({
         ...siteColumns(document.site),
         updatedBy: userId,
       },
-      { where: { id: sheetId, draftVersion: baseVersion }, transaction },
+      { where: { id: sheetId, draftVersion: baseVersion, archivedAt: null }, transaction },
     );
     if (count === 0) {
-      const current = await Sheet.findByPk(sheetId, { transaction });
+      const current = await Sheet.findByPk(sheetId, { attributes: ['id', 'draftVersion', 'archivedAt'], transaction });
       if (!current) throw notFound('Sheet');
+      if (current.archivedAt !== null) {
+        throw conflict('This sheet is archived: its draft can no longer be saved. Fork it to keep working on it.', {
+          current: { version: current.draftVersion, archived: true },
+        });
+      }
       throw conflict('The draft was saved by someone else since you loaded it.', {
         current: { version: current.draftVersion },
       });
@@ -327,12 +413,14 @@ export async function saveDraft({
   });
 }
 
-/** Archives a sheet that has revisions (still readable by link); removes one that has none. */
+/** Archives a sheet that has revisions (still readable by link; once: again is a no-op); removes one that has none. */
 export async function deleteSheet({ sheetId, userId }: { sheetId: string; userId: string }): Promise<'archived' | 'deleted'> {
   const sequelize = db();
   return sequelize.transaction(async (transaction) => {
     const sheet = await Sheet.findByPk(sheetId, { transaction, lock: transaction.LOCK.UPDATE });
     if (!sheet) throw notFound('Sheet');
+    // Archiving an archived sheet again changes nothing and records nothing.
+    if (sheet.archivedAt !== null) return 'archived';
     const outcome = sheet.headRevision > 0 ? 'archived' : 'deleted';
     if (outcome === 'archived') {
       await sheet.update({ archivedAt: new Date(), updatedBy: userId }, { transaction });

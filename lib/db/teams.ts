@@ -1,24 +1,67 @@
 import 'server-only';
+import { QueryTypes } from 'sequelize';
 import { notFound } from '@/lib/errors';
 import { Membership, Team, User, type TeamRole } from '@/models';
 import { recordAudit } from './audit';
+import { isUuid } from './ids';
 import { db } from './index';
+import type { PublicUser } from './users';
 
 export type TeamSummary = { id: string; name: string; role: TeamRole; current: boolean };
 
+type UserTeamRow = {
+  id: string;
+  name: string;
+  email: string;
+  current_team_id: string | null;
+  password_changed_at: Date | null;
+  team_id: string | null;
+  team_name: string | null;
+  role: TeamRole | null;
+};
+
+/** One query: the user and each of their memberships with the team's name, teams by name. */
+async function userWithTeams(userId: string): Promise<UserTeamRow[]> {
+  if (!isUuid(userId)) return [];
+  return db().query<UserTeamRow>(
+    `SELECT u.id, u.name, u.email, u.current_team_id, u.password_changed_at, t.id AS team_id, t.name AS team_name, m.role
+       FROM users u
+       LEFT JOIN memberships m ON m.user_id = u.id
+       LEFT JOIN teams t ON t.id = m.team_id
+      WHERE u.id = $1
+      ORDER BY t.name ASC, t.id ASC`,
+    { bind: [userId], type: QueryTypes.SELECT },
+  );
+}
+
+function teamsOf(rows: UserTeamRow[]): TeamSummary[] {
+  const teams = rows
+    .filter((r) => r.team_id !== null && r.role !== null)
+    .map((r) => ({ id: r.team_id!, name: r.team_name!, role: r.role!, current: false }));
+  const stored = rows[0]?.current_team_id;
+  const currentId = teams.some((t) => t.id === stored) ? stored : teams[0]?.id;
+  return teams.map((t) => ({ ...t, current: t.id === currentId }));
+}
+
 /** The teams a user belongs to, with their role, and which one is current. */
 export async function listTeamsForUser({ userId }: { userId: string }): Promise<TeamSummary[]> {
-  db();
-  const [user, memberships] = await Promise.all([
-    User.findByPk(userId),
-    Membership.findAll({ where: { userId }, include: [Team], order: [[Team, 'name', 'ASC']] }),
-  ]);
-  const rows = memberships.map((m) => {
-    const team = (m as Membership & { Team: Team }).Team;
-    return { id: team.id, name: team.name, role: m.role, current: false };
-  });
-  const currentId = rows.some((r) => r.id === user?.currentTeamId) ? user?.currentTeamId : rows[0]?.id;
-  return rows.map((r) => ({ ...r, current: r.id === currentId }));
+  return teamsOf(await userWithTeams(userId));
+}
+
+/** What a request needs to know about its caller: the user, their teams and the current one. */
+export type SessionContext = { user: PublicUser; teams: TeamSummary[]; current: TeamSummary | null };
+
+/**
+ * The user behind a session with their teams, in one query; null when the account is gone or its
+ * password changed after the session began (as getSessionUser).
+ */
+export async function loadSessionContext({ id, signedInAt }: { id: string; signedInAt?: number }): Promise<SessionContext | null> {
+  const rows = await userWithTeams(id);
+  const row = rows[0];
+  if (!row) return null;
+  if (row.password_changed_at && (signedInAt === undefined || signedInAt < row.password_changed_at.getTime())) return null;
+  const teams = teamsOf(rows);
+  return { user: { id: row.id, name: row.name, email: row.email }, teams, current: teams.find((t) => t.current) ?? null };
 }
 
 /** The user's current team: the stored one while they still belong to it, else their first. */
@@ -28,9 +71,12 @@ export async function getCurrentTeam({ userId }: { userId: string }): Promise<Te
 }
 
 export async function getMembershipRole({ userId, teamId }: { userId: string; teamId: string }): Promise<TeamRole | null> {
-  db();
-  const membership = await Membership.findOne({ where: { userId, teamId } });
-  return membership?.role ?? null;
+  if (!isUuid(userId) || !isUuid(teamId)) return null;
+  const [row] = await db().query<{ role: TeamRole }>('SELECT role FROM memberships WHERE user_id = $1 AND team_id = $2', {
+    bind: [userId, teamId],
+    type: QueryTypes.SELECT,
+  });
+  return row?.role ?? null;
 }
 
 export async function createTeam({ userId, name }: { userId: string; name: string }): Promise<TeamSummary> {

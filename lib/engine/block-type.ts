@@ -88,7 +88,7 @@ export interface WorkedExample {
 }
 
 /** One computed output: an SI value (unit optional when the type sets it from the inputs), or text. */
-export type OutputValue = { si: number; unit?: string } | { text: string };
+export type ComputedOutput = { si: number; unit?: string } | { text: string };
 
 export interface Series {
   x: number[];
@@ -100,7 +100,7 @@ export interface Series {
 }
 
 export interface BlockOutcome {
-  outputs: Record<string, OutputValue>;
+  outputs: Record<string, ComputedOutput>;
   series?: Record<string, Series>;
   warnings: string[];
 }

@@ -2,7 +2,17 @@
  * Engine errors carry data: which block, which input, what was expected and what was given.
  * Their messages are safe to show to users (never a stack trace).
  */
+/**
+ * What kind of failure it is, so callers never classify by message text: `invalid` (the document, an input or
+ * an expression is at fault: the message says which), `limit_exceeded` (a time, memory or size limit stopped
+ * the work, not a fault of the document), `cancelled` (stopped on request).
+ */
+export const ENGINE_ERROR_CODES = ['invalid', 'limit_exceeded', 'cancelled'] as const;
+export type EngineErrorCode = (typeof ENGINE_ERROR_CODES)[number];
+
 export interface EngineErrorDetails {
+  /** Default `invalid`. */
+  code?: EngineErrorCode;
   block?: string;
   input?: string;
   expected?: string;
@@ -12,6 +22,7 @@ export interface EngineErrorDetails {
 }
 
 export class EngineError extends Error {
+  readonly code: EngineErrorCode;
   readonly block?: string;
   readonly input?: string;
   readonly expected?: string;
@@ -21,6 +32,7 @@ export class EngineError extends Error {
   constructor(message: string, details: EngineErrorDetails = {}) {
     super(message);
     this.name = 'EngineError';
+    this.code = details.code ?? 'invalid';
     this.block = details.block;
     this.input = details.input;
     this.expected = details.expected;

@@ -95,11 +95,11 @@ export async function runOnPool<T>(
     reply = (await pool.run({ ...task, port: port2 }, { transferList: [port2], signal: controller.signal })) as EvaluationReply;
   } catch (error) {
     // Piscina terminates the worker thread running an aborted task.
-    if (stoppedBy === 'time') throw new EngineError(`evaluation took longer than ${timeLimitMs / 1000} s and was stopped`);
-    if (stoppedBy === 'cancel') throw new EngineError('evaluation was cancelled');
+    if (stoppedBy === 'time') throw new EngineError(`evaluation took longer than ${timeLimitMs / 1000} s and was stopped`, { code: 'limit_exceeded' });
+    if (stoppedBy === 'cancel') throw new EngineError('evaluation was cancelled', { code: 'cancelled' });
     const code = (error as { code?: string } | null)?.code;
-    if (code === 'ERR_WORKER_OUT_OF_MEMORY') throw new EngineError(MEMORY_MESSAGE);
-    if (error instanceof Error && /out of memory/i.test(error.message)) throw new EngineError(MEMORY_MESSAGE);
+    if (code === 'ERR_WORKER_OUT_OF_MEMORY') throw new EngineError(MEMORY_MESSAGE, { code: 'limit_exceeded' });
+    if (error instanceof Error && /out of memory/i.test(error.message)) throw new EngineError(MEMORY_MESSAGE, { code: 'limit_exceeded' });
     throw error;
   } finally {
     clearTimeout(limitTimer);
@@ -107,7 +107,7 @@ export async function runOnPool<T>(
     signal?.removeEventListener('abort', onCancel);
     port1.close();
   }
-  if (!reply.ok) throw new EngineError(reply.message, reply.position === undefined ? {} : { position: reply.position });
+  if (!reply.ok) throw new EngineError(reply.message, { code: reply.code ?? 'invalid', ...(reply.position === undefined ? {} : { position: reply.position }) });
   return reply.value as T;
 }
 

@@ -7,7 +7,7 @@
  */
 import type { MessagePort } from 'node:worker_threads';
 import { EngineError, evaluateQuick, evaluateSheet, evaluateSheetIncremental } from '../engine';
-import type { SheetDocument, SheetResults } from '../engine';
+import type { EngineErrorCode, SheetDocument, SheetResults } from '../engine';
 import type { DatasetLookup } from '../engine/dataset';
 
 // `datasets` crosses to the worker thread by structured clone (a Map of plain canonical objects).
@@ -16,7 +16,7 @@ export type EvaluationTask =
   | { kind: 'incremental'; document: SheetDocument; previous: SheetResults | null; changedBlockIds: string[]; datasets?: DatasetLookup }
   | { kind: 'quick'; expr: string };
 
-export type EvaluationReply = { ok: true; value: unknown } | { ok: false; message: string; position?: number };
+export type EvaluationReply = { ok: true; value: unknown } | { ok: false; message: string; code?: EngineErrorCode; position?: number };
 
 export type WorkerMessage = { type: 'started' } | { type: 'progress'; fraction: number };
 
@@ -47,6 +47,8 @@ export default function runEvaluationTask(task: EvaluationTask & { port?: Messag
     }
   } catch (error) {
     if (!(error instanceof EngineError)) return { ok: false, message: 'the evaluation failed unexpectedly' };
-    return error.position === undefined ? { ok: false, message: error.message } : { ok: false, message: error.message, position: error.position };
+    return error.position === undefined
+      ? { ok: false, message: error.message, code: error.code }
+      : { ok: false, message: error.message, code: error.code, position: error.position };
   }
 }

@@ -3,6 +3,7 @@ import { NextResponse } from 'next/server';
 import { z, type ZodType } from 'zod';
 import { AppError, badRequest } from '@/lib/errors';
 import { checkRequest, type RequestRules } from './request-guard';
+import { runInRequestScope } from './request-scope';
 
 export { checkRequest, type RequestRules } from './request-guard';
 export { safeText } from '@/lib/engine/text';
@@ -158,17 +159,19 @@ type Handler<Ctx> = (request: Request, context: Ctx) => Promise<Response>;
 /**
  * Wraps a route handler: the request-forgery and content-type rules first (403 `forbidden_origin`,
  * 415 `unsupported_media_type`; lib/http/request-guard.ts), and every error leaves as the contract's
- * JSON shape. `rules.multipart` lets an upload route take multipart/form-data.
+ * JSON shape. `rules.multipart` lets an upload route take multipart/form-data. The handler runs in a
+ * request scope (lib/http/request-scope.ts), so the caller's session is looked up once per request.
  */
 export function route<Ctx>(handler: Handler<Ctx>, rules: RequestRules = {}): Handler<Ctx> {
-  return async (request, context) => {
-    try {
-      checkRequest(request, rules);
-      return await handler(request, context);
-    } catch (error) {
-      return errorResponse(error);
-    }
-  };
+  return (request, context) =>
+    runInRequestScope(async () => {
+      try {
+        checkRequest(request, rules);
+        return await handler(request, context);
+      } catch (error) {
+        return errorResponse(error);
+      }
+    });
 }
 
 export const uuidParam = z.string().uuid('must be a valid id');

@@ -15,7 +15,12 @@ export const QUEUES = {
   passwordReset: { name: 'password-reset', retryLimit: 3, retryDelay: 5, retryBackoff: true },
   /** A long evaluation (CONTRACT §6b): never retried (a failed run is reported, not repeated). */
   evaluationRun: { name: 'evaluation-run', retryLimit: 0, retryDelay: 0, retryBackoff: false },
+  /** Deletes rate-limit counters whose window has ended (scheduled, RATE_LIMIT_PRUNE_CRON). */
+  rateLimitPrune: { name: 'rate-limits-prune', retryLimit: 1, retryDelay: 60, retryBackoff: false },
 } as const;
+
+/** When the rate-limit counters are pruned: every 10 minutes (pg-boss sends one job per slot, whichever instance). */
+export const RATE_LIMIT_PRUNE_CRON = '*/10 * * * *';
 
 export type QueueName = (typeof QUEUES)[keyof typeof QUEUES]['name'];
 

@@ -4,7 +4,8 @@ import { createPasswordReset } from '@/lib/db/password-resets';
 import { deliverMail } from '@/lib/mail';
 import { getOutboxMessage, markOutboxAttemptFailed, markOutboxSent } from '@/lib/mail/outbox';
 import { notifyPasswordReset } from '@/lib/notifications';
-import { QUEUES, jobQueue } from './queue';
+import { pruneRateLimits } from '@/lib/rate-limit';
+import { QUEUES, RATE_LIMIT_PRUNE_CRON, jobQueue } from './queue';
 import { startRunWorker } from './runs';
 
 /** Sends one outbox message; throws (so pg-boss retries) when the SMTP server does not take it. */
@@ -44,5 +45,14 @@ export async function startJobWorkers(): Promise<void> {
   await boss.work<{ email: string }>(QUEUES.passwordReset.name, { pollingIntervalSeconds: 0.5 }, async (jobs) => {
     for (const job of jobs) await runPasswordResetJob(job.data);
   });
+  await scheduleRateLimitPruning(boss);
   await startRunWorker();
+}
+
+/** Schedules the pruning of ended rate-limit windows and works its jobs (every instance may; one job per slot). */
+export async function scheduleRateLimitPruning(boss: PgBoss): Promise<void> {
+  await boss.schedule(QUEUES.rateLimitPrune.name, RATE_LIMIT_PRUNE_CRON, {}, { tz: 'UTC' });
+  await boss.work(QUEUES.rateLimitPrune.name, { pollingIntervalSeconds: 10 }, async () => {
+    await pruneRateLimits();
+  });
 }

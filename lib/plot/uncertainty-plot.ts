@@ -3,7 +3,7 @@
  * words, the Monte Carlo histogram and the sensitivity bars as Observable Plot options (no DOM).
  */
 import * as Plot from '@observablehq/plot';
-import type { SeriesData, SpreadData } from '@/lib/sheet/types';
+import type { NumericSpreadData, SeriesData, SpreadData } from '@/lib/sheet/types';
 import type { PlotSize, SeriesPlot } from './series-plot';
 
 /** Groups of three digits separated by a space: 10000 → "10 000". */
@@ -12,7 +12,7 @@ export function groupDigits(n: number): string {
 }
 
 /** The label every spread travels with: "Monte Carlo, N = 10 000, seed 7" or the linear one. */
-export function methodLabel(spread: SpreadData): string {
+export function methodLabel(spread: Pick<SpreadData, 'method'> & { samples?: number; seed?: number }): string {
   if (spread.method === 'linear') return 'linear (first order), normal approximation';
   return `Monte Carlo, N = ${groupDigits(spread.samples ?? 0)}, seed ${spread.seed ?? 0}`;
 }
@@ -27,7 +27,7 @@ export function significant(value: number, digits = 4): string {
 }
 
 /** "5.737 – 28.95 kyr (95 %)". */
-export function intervalText(spread: SpreadData, unit: string): string | null {
+export function intervalText(spread: NumericSpreadData, unit: string): string | null {
   if (spread.p2_5 === undefined || spread.p97_5 === undefined) return null;
   return `${significant(spread.p2_5)} – ${significant(spread.p97_5)}${unit ? ` ${unit}` : ''} (95 %)`;
 }
@@ -36,7 +36,7 @@ const BAR = 'var(--river)';
 const MARK = 'var(--ochre)';
 
 /** A Monte Carlo histogram: counts per bin, with the nominal value and the 95 % interval marked. */
-export function histogramPlot(series: SeriesData, spread: SpreadData, nominal: number, size: PlotSize): SeriesPlot {
+export function histogramPlot(series: SeriesData, spread: NumericSpreadData, nominal: number, size: PlotSize): SeriesPlot {
   const n = Math.min(series.x.length, series.y.length);
   const width = n > 1 ? series.x[1]! - series.x[0]! : 1;
   const bins = Array.from({ length: n }, (_, i) => ({ x1: series.x[i]! - width / 2, x2: series.x[i]! + width / 2, count: series.y[i]! }));
@@ -67,7 +67,7 @@ export function histogramPlot(series: SeriesData, spread: SpreadData, nominal: n
 }
 
 /** Inputs by how much they matter: Spearman ρ (Monte Carlo) or share of variance (linear). */
-export function sensitivityEntries(spread: SpreadData): Array<{ input: string; value: number }> {
+export function sensitivityEntries(spread: NumericSpreadData): Array<{ input: string; value: number }> {
   const source = spread.method === 'linear' ? spread.contributions : spread.sensitivity;
   return Object.entries(source ?? {})
     .map(([input, value]) => ({ input, value }))
@@ -75,7 +75,7 @@ export function sensitivityEntries(spread: SpreadData): Array<{ input: string; v
 }
 
 /** Horizontal bars: Spearman ρ in −1…1, or contributions in 0…1, largest first. */
-export function sensitivityPlot(spread: SpreadData, size: PlotSize): SeriesPlot {
+export function sensitivityPlot(spread: NumericSpreadData, size: PlotSize): SeriesPlot {
   const entries = sensitivityEntries(spread);
   const linear = spread.method === 'linear';
   const label = linear ? 'share of the variance' : 'Spearman ρ';

@@ -124,6 +124,18 @@ export async function penaliseRateLimit(...entries: [RateLimitName, string | nul
 }
 
 /**
+ * Deletes the counters whose window has ended (`expire` in the past): they count nothing any more, and
+ * without this the table keeps one row per key ever seen (every client address, e-mail address and
+ * user). A job of the queue runs it every 10 minutes (lib/jobs/workers.ts). Safe beside live limits: a
+ * counter written again at the same moment has a new `expire` and no longer matches. Returns the rows
+ * deleted.
+ */
+export async function pruneRateLimits(sequelize: Sequelize = getSequelize(), now = Date.now()): Promise<number> {
+  const [, result] = await sequelize.query(`DELETE FROM ${RATE_LIMIT_TABLE} WHERE expire IS NOT NULL AND expire < $1`, { bind: [now] });
+  return (result as { rowCount?: number } | undefined)?.rowCount ?? 0;
+}
+
+/**
  * The client's address for per-address limits: the last entry of X-Forwarded-For. Next.js fills that
  * header from the socket when a request arrives without one; behind a reverse proxy, the proxy must
  * set it (nginx: `proxy_set_header X-Forwarded-For $remote_addr`), since a client can send its own.

@@ -2,11 +2,16 @@
  * The inputs of a revision as evaluated: each input expression of each block evaluated again by the
  * current engine, other blocks' outputs read from the given (current) results. Pure.
  */
+import { datasetOfInput } from '@/lib/datasets/references';
 import type { SheetDocument, SheetResults } from '@/lib/engine';
 import { checkExpression } from '@/lib/engine/expression';
 import { formatValue, valueFromFormatted, type FormattedOutput } from '@/lib/engine/units';
 
-export type EvaluatedInput = { ok: true; value: FormattedOutput } | { ok: false; message: string };
+/** A data input is shown by the dataset it pins (its rows are not a value to print). */
+export type EvaluatedInput =
+  | { ok: true; value: FormattedOutput }
+  | { ok: true; dataset: string }
+  | { ok: false; message: string };
 
 /** Evaluated inputs by block name, then input name. Inputs left empty are absent. */
 export function evaluateInputs(document: SheetDocument, results: SheetResults): Record<string, Record<string, EvaluatedInput>> {
@@ -27,6 +32,11 @@ export function evaluateInputs(document: SheetDocument, results: SheetResults): 
     const inputs: Record<string, EvaluatedInput> = {};
     for (const [name, text] of Object.entries(block.inputs)) {
       if (text.trim() === '') continue;
+      const dataset = datasetOfInput(text);
+      if (dataset) {
+        inputs[name] = { ok: true, dataset };
+        continue;
+      }
       try {
         const checked = checkExpression(text);
         const scope = new Map<string, unknown>();

@@ -329,6 +329,7 @@ export function buildReport({
       if (declared) shownValue = declared;
       else if (written.trim() === '') shownValue = spec?.default !== undefined ? `default ${spec.default}` : spec?.optional ? 'left out' : 'empty';
       else if (!value) shownValue = 'not evaluated';
+      else if (value.ok && 'dataset' in value) shownValue = `dataset ${value.dataset.slice(0, 12)}… (pinned by SHA-256)`;
       else if (value.ok) shownValue = withUnit(value.value.value, value.value.unit);
       else shownValue = `not evaluated: ${value.message}`;
       return { name, label: spec?.label ?? name, written: written.trim() === '' ? '(empty)' : written, evaluated: shownValue };

@@ -2,7 +2,9 @@
 // usable on the server and in client components. The results are keyed by block name, so each side's
 // outputs are looked up through that side's own names (a renamed block still matches by id).
 
-export type OutputValue = { value: number | string; unit: string; si: number | string; siUnit: string };
+import type { OutputValue } from './types';
+
+export type { OutputValue };
 
 type BlockLike = { id: string; name: string; type: string; inputs?: Record<string, string>; note?: string; display?: Record<string, string> };
 type DocumentLike = { title?: string; site?: { name?: string }; blocks: BlockLike[] };

@@ -1,6 +1,6 @@
 import 'server-only';
 import { AppError, badRequest } from '@/lib/errors';
-import { parseSheetDocument, type SheetDocument, type SheetResults } from '@/lib/engine';
+import { parseSheetDocument, type EngineError, type SheetDocument, type SheetResults } from '@/lib/engine';
 import type { DatasetLookup } from '@/lib/engine/dataset';
 import { runEvaluate, runEvaluateIncremental } from '@/lib/evaluation/pool';
 import { changedBlockIds } from './document-edits';
@@ -20,10 +20,12 @@ export function requireValidDocument(input: unknown, prefix = 'document'): Sheet
 /** Engine faults become a 400 with the engine's message; time limits and the rest pass through. */
 export function asEvaluationError(error: unknown): Error {
   if (error instanceof AppError) return error;
+  // By name: an error may come from another copy of the engine module (the worker bundle, a route chunk).
   if (error instanceof Error && (error.name === 'EngineError' || error.name === 'InputError')) {
+    const engineError = error as EngineError;
     // The pool's time and memory limits are not faults of the document: 422 with the reason.
-    if (/^evaluation (took longer|needed too much memory)/.test(error.message)) return new AppError('limit_exceeded', error.message);
-    const position = (error as { position?: unknown }).position;
+    if (engineError.code === 'limit_exceeded') return new AppError('limit_exceeded', error.message);
+    const position = engineError.position;
     if (typeof position === 'number') return new AppError('validation', error.message, { detail: { position } });
     return badRequest(error.message);
   }

@@ -3,92 +3,25 @@
  * catalog the server passes to the sheet page. Nothing here imports the engine or mathjs.
  */
 
-export interface SiteInfo {
-  name: string;
-  latitude?: number;
-  longitude?: number;
-  notes?: string;
-}
+import type { BlockResult, NumericSpread, OutputResult, Series, SheetBlock, SheetDocument, SheetResults, Spread, TextSpread } from '@/lib/engine';
 
-export interface SheetBlock {
-  id: string;
-  name: string;
-  type: string;
-  inputs: Record<string, string>;
-  note?: string;
-  display?: Record<string, string>;
-}
+// The document and results types come from the engine (type-only imports are erased at build, so mathjs never
+// reaches the browser bundle).
+export type { SheetBlock, SheetDocument, SheetResults, BlockResult };
+/** One output in the results (value and unit as displayed, SI value, spread when uncertain). */
+export type OutputValue = OutputResult;
+export type SeriesData = Series;
+export type SiteInfo = NonNullable<SheetDocument['site']>;
+export type UncertaintySettingsData = NonNullable<SheetDocument['uncertainty']>;
+/** The spread of an uncertain output (CONTRACT §8.5). */
+export type SpreadData = Spread;
+/** A spread of a quantity: statistics in the display unit and in SI, sensitivities. */
+export type NumericSpreadData = NumericSpread;
+/** A spread of a text output (Monte Carlo): samples per label. */
+export type TextSpreadData = TextSpread;
 
-/** The document's uncertainty settings (CONTRACT §8.2); absent: Monte Carlo, 10 000 samples, seed 1. */
-export interface UncertaintySettingsData {
-  method?: 'monte_carlo' | 'linear';
-  samples?: number;
-  seed?: number;
-}
-
-export interface SheetDocument {
-  format: 'denudata-sheet@1';
-  title: string;
-  site?: SiteInfo;
-  blocks: SheetBlock[];
-  uncertainty?: UncertaintySettingsData;
-}
-
-export interface SpreadNumbers {
-  mean: number;
-  sd: number;
-  p2_5: number;
-  p16: number;
-  p50: number;
-  p84: number;
-  p97_5: number;
-}
-
-/** The spread of an uncertain output (CONTRACT §8.5): numbers in the output's display unit. */
-export interface SpreadData extends Partial<SpreadNumbers> {
-  method: 'monte_carlo' | 'linear';
-  samples?: number;
-  seed?: number;
-  si?: SpreadNumbers;
-  outside?: [number, number];
-  sensitivity?: Record<string, number>;
-  contributions?: Record<string, number>;
-  /** Text outputs (Monte Carlo): samples per label. */
-  counts?: Record<string, number>;
-}
-
-export interface OutputValue {
-  value: number | string;
-  unit: string;
-  si: number | string;
-  siUnit: string;
-  spread?: SpreadData;
-}
-
-export interface SeriesData {
-  x: number[];
-  y: number[];
-  xLabel: string;
-  yLabel: string;
-  xUnit: string;
-  yUnit: string;
-}
-
-export interface BlockResult {
-  id: string;
-  type: string;
-  status: 'ok' | 'error' | 'blocked';
-  error?: string;
-  warnings: string[];
-  outputs: Record<string, OutputValue>;
-  series?: Record<string, SeriesData>;
-}
-
-export interface SheetResults {
-  format: 'denudata-results@1';
-  sheetHash: string;
-  engine: string;
-  blocks: Record<string, BlockResult>;
+export function isTextSpread(spread: SpreadData): spread is TextSpreadData {
+  return 'counts' in spread;
 }
 
 export interface QuickAnswer {

@@ -6,7 +6,36 @@ import { QueryTypes } from 'sequelize';
 import { closeSequelize, getSequelize } from '@/lib/db/sequelize';
 import { afterAll } from 'vitest';
 import { ApiClient, appUrl, newAccount, signedInAs } from '../support/http';
+import net from 'node:net';
 import { rawRequest } from '../support/raw-http';
+
+/** Writes a request line by hand (methods Node's client or parser would not pass) and reads the whole answer. */
+function rawSocket(method: string, path: string, cookie?: string): Promise<{ status: number; allow: string | null; body: any }> {
+  const url = new URL(appUrl());
+  return new Promise((resolve, reject) => {
+    const socket = net.connect(Number(url.port), url.hostname);
+    const chunks: Buffer[] = [];
+    socket.setTimeout(15_000, () => socket.destroy(new Error(`${method} ${path}: no answer`)));
+    socket.on('connect', () =>
+      socket.write(`${method} ${path} HTTP/1.1\r\nHost: ${url.host}\r\n${cookie ? `Cookie: ${cookie}\r\n` : ''}Connection: close\r\n\r\n`),
+    );
+    socket.on('data', (chunk: Buffer) => chunks.push(chunk));
+    socket.on('error', reject);
+    socket.on('close', () => {
+      const text = Buffer.concat(chunks).toString('utf8');
+      const [head = '', rest = ''] = text.split('\r\n\r\n');
+      const status = Number(/^HTTP\/1\.1 (\d{3})/.exec(head)?.[1] ?? 0);
+      const allow = /\r\nallow: ([^\r]*)/i.exec(head)?.[1] ?? null;
+      let body: unknown = null;
+      try {
+        body = JSON.parse(rest);
+      } catch {
+        body = rest;
+      }
+      resolve({ status, allow, body });
+    });
+  });
+}
 
 let outsider: ApiClient;
 let owner: ApiClient;
@@ -107,6 +136,43 @@ describe('methods', () => {
       expect(answer.body?.error?.code, `${method} ${path}`).toBe('method_not_allowed');
       expect(answer.headers.allow, `${method} ${path}`).toBeTruthy();
     }
+  });
+
+  it("should answer 405 to methods Node's parser refuses or hands elsewhere (TRACK, made-up tokens, CONNECT), everywhere", async () => {
+    for (const method of ['TRACK', 'FOO', 'CONNECT', 'TRACE']) {
+      for (const path of ['/api/teams', '/sheets', '/', '/fonts/JetBrainsMono-Regular.woff2']) {
+        const answer = await rawSocket(method, path);
+        expect(answer.status, `${method} ${path}`).toBe(405);
+        expect(answer.body?.error?.code, `${method} ${path}`).toBe('method_not_allowed');
+        expect(answer.allow, `${method} ${path}`).toBeTruthy();
+      }
+    }
+  });
+
+  it('should answer 405 to writes on static files (Next.js answered 500) and to methods a page does not take', async () => {
+    const html = String((await new ApiClient().get('/sign-in')).body);
+    const asset = /\/_next\/static\/[^"']+\.js/.exec(html)?.[0];
+    expect(asset).toBeTruthy();
+    for (const method of ['POST', 'PUT', 'DELETE', 'PATCH', 'OPTIONS', 'PROPFIND']) {
+      for (const path of ['/fonts/JetBrainsMono-Regular.woff2', '/icon.svg', asset!]) {
+        const answer = await rawRequest({ method, path });
+        expect(answer.status, `${method} ${path}`).toBe(405);
+        expect(answer.headers.allow, `${method} ${path}`).toBe('GET, HEAD');
+        expect(answer.body?.error?.code, `${method} ${path}`).toBe('method_not_allowed');
+      }
+    }
+    // Pages are read and take server actions (POST); signed in, other methods used to render the page with 200.
+    for (const method of ['PUT', 'DELETE', 'PATCH', 'OPTIONS']) {
+      for (const path of ['/sheets', `/sheets/${demoSheetId}`, '/sign-in']) {
+        const answer = await rawRequest({ method, path, headers: { cookie: owner.cookieHeader() } });
+        expect(answer.status, `${method} ${path}`).toBe(405);
+        expect(answer.headers.allow, `${method} ${path}`).toBe('GET, HEAD, POST');
+        expect(answer.body?.error?.code, `${method} ${path}`).toBe('method_not_allowed');
+      }
+    }
+    // What is served stays served.
+    expect((await rawRequest({ method: 'HEAD', path: '/fonts/JetBrainsMono-Regular.woff2' })).status).toBe(200);
+    expect((await rawRequest({ method: 'GET', path: '/sheets', headers: { cookie: owner.cookieHeader() } })).status).toBe(200);
   });
 });
 

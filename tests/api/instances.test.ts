@@ -53,5 +53,29 @@ describe('two app instances on one database', () => {
     const theirs = await onSecond.put(`/api/sheets/${sheetId}/draft`, { baseVersion: base.body.version, document: sampleDocument({ title: 'Conflict across instances', K: '0.006 m^2/yr' }) });
     expect(theirs.status).toBe(409);
     expect(theirs.body.current.version).toBe(mine.body.version);
+    // As on one instance: the same stale save sent to the first instance gets the same answer, and
+    // neither refused save changed the draft.
+    const onOne = await onFirst.put(`/api/sheets/${sheetId}/draft`, { baseVersion: base.body.version, document: sampleDocument({ title: 'Conflict across instances', K: '0.006 m^2/yr' }) });
+    expect(onOne.status).toBe(409);
+    expect(theirs.body).toEqual(onOne.body);
+    for (const client of [onFirst, onSecond]) {
+      const draft = (await client.get(`/api/sheets/${sheetId}`)).body.draft;
+      expect(draft.version).toBe(mine.body.version);
+      expect(draft.document.blocks[0].inputs.K).toBe('0.005 m^2/yr');
+    }
+  });
+
+  it('should answer 409 to the second of two revision saves from the same base, one on each instance', async () => {
+    const created = await onFirst.post('/api/sheets', { title: 'Revision race across instances' });
+    const sheetId = created.body.sheet.id as string;
+    const [a, b] = await Promise.all([
+      onFirst.post(`/api/sheets/${sheetId}/revisions`, { baseRevision: 0, document: sampleDocument({ title: 'Revision race across instances', K: '0.005 m^2/yr' }), message: 'first' }),
+      onSecond.post(`/api/sheets/${sheetId}/revisions`, { baseRevision: 0, document: sampleDocument({ title: 'Revision race across instances', K: '0.006 m^2/yr' }), message: 'second' }),
+    ]);
+    expect([a.status, b.status].sort()).toEqual([201, 409]);
+    const refused = a.status === 409 ? a : b;
+    expect(refused.body.error.code).toBe('conflict');
+    const list = await onSecond.get(`/api/sheets/${sheetId}/revisions`);
+    expect(list.body.total).toBe(1);
   });
 });

@@ -56,6 +56,11 @@ describe('revisions saved over the cost limit (HTTP)', () => {
     // What needs results waits for them; the document exports at once with its hash.
     expect((await reviewer.get(`/api/sheets/${sheetId}/revisions/1/results.csv`)).status).toBe(409);
     expect((await reviewer.get(`/api/sheets/${sheetId}/export?revision=1&format=record`)).status).toBe(409);
+    // The report page says the revision is still being evaluated (not the not-found screen).
+    const reportPage = await reviewer.get(`/sheets/${sheetId}/revisions/1/report`);
+    expect(reportPage.status).toBe(200);
+    expect(String(reportPage.body)).toContain('Report of r1 not ready');
+    expect(String(reportPage.body)).toContain('still being evaluated');
     const exported = await reviewer.get(`/api/sheets/${sheetId}/export?revision=1`);
     expect(exported.status).toBe(200);
     expect(exported.headers.get('x-denudata-hash')).toBe(saved.body.hash);

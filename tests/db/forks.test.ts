@@ -53,7 +53,12 @@ describe('forks (lib/db/forks)', () => {
     const source = await makeSheet(other.teamId, other.people.editor.id);
     const fork = await forkSheet({ sourceSheetId: source.id, teamId: team.teamId, userId: team.people.editor.id, title: 'Copied across' });
     const detail = await getSheetDetail({ sheetId: fork.sheet.id, visibleTeamIds: [team.teamId] });
-    expect(detail.forkedFrom).toEqual({ sheetId: source.id, title: null, revision: null, visible: false });
+    // Neither the source's id nor its title reaches a reader outside its team (only the revision, here none).
+    expect(detail.forkedFrom).toEqual({ sheetId: null, title: null, revision: null, visible: false });
+    expect(detail.sheet.forkedFromSheetId).toBeNull();
+    expect(JSON.stringify(detail)).not.toContain(source.id);
+    const both = await getSheetDetail({ sheetId: fork.sheet.id, visibleTeamIds: [team.teamId, other.teamId] });
+    expect(both.forkedFrom).toEqual({ sheetId: source.id, title: source.title, revision: null, visible: true });
     expect((await getSheetDetail({ sheetId: source.id, visibleTeamIds: [other.teamId] })).forks).toEqual([]);
   });
 });

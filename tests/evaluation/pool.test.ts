@@ -36,6 +36,8 @@ describe('evaluation pool', () => {
     expect(quick.value).toBeCloseTo(0.9506, 3);
     await expect(runQuick('evaluate("1")')).rejects.toThrow(/not available/);
     await expect(runQuick('evaluate("1")')).rejects.toBeInstanceOf(EngineError);
+    // The kind of failure travels as a code from the worker, so no caller reads the message to classify it.
+    await expect(runQuick('evaluate("1")')).rejects.toMatchObject({ code: 'invalid' });
   });
 
   it('should stop an evaluation that takes longer than 5 s and stay usable', async () => {
@@ -43,7 +45,7 @@ describe('evaluation pool', () => {
     // about 4 s on the project machine when quiet; twelve stay far over 5 s on a machine several times faster.
     const slow = Array.from({ length: 12 }, () => 'sum(ones(316, 316)^1000000)').join(' + ');
     const started = Date.now();
-    await expect(runQuick(slow)).rejects.toThrow('evaluation took longer than 5 s and was stopped');
+    await expect(runQuick(slow)).rejects.toMatchObject({ code: 'limit_exceeded', message: 'evaluation took longer than 5 s and was stopped' });
     expect(Date.now() - started).toBeLessThan(9000);
     const again = await runQuick('2 m + 3 m');
     expect(again.value).toBe(5);

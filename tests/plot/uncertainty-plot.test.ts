@@ -1,7 +1,7 @@
 import { describe, expect, it } from 'vitest';
 import { evaluateSheet, type NumericSpread } from '@/lib/engine';
 import { groupDigits, histogramPlot, intervalText, methodLabel, sensitivityEntries, sensitivityPlot } from '@/lib/plot/uncertainty-plot';
-import type { SeriesData, SpreadData } from '@/lib/sheet/types';
+import type { SeriesData } from '@/lib/sheet/types';
 import { caseSheet } from '../engine/uncertainty/cases';
 
 type MarkWithData = { data?: unknown[] };
@@ -18,7 +18,7 @@ describe('methodLabel (CONTRACT §8.5 labels)', () => {
 describe('histogramPlot and sensitivityPlot on P48 (lognormal K through scarp_age)', () => {
   const results = evaluateSheet(caseSheet('P48'));
   const age = results.blocks.age!;
-  const spread = age.outputs.age!.spread as NumericSpread as SpreadData;
+  const spread = age.outputs.age!.spread as NumericSpread;
   const series = age.series!.hist_age! as SeriesData;
 
   it('should draw 40 bins of the engine’s counts, edges half a bin around each centre', () => {
@@ -41,7 +41,7 @@ describe('histogramPlot and sensitivityPlot on P48 (lognormal K through scarp_ag
     const mc = sensitivityPlot(spread, { width: 400 });
     expect(mc.options.x).toMatchObject({ domain: [-1, 1] });
     expect(sensitivityEntries(spread)).toEqual([{ input: 'age.diffusivity', value: -1 }]);
-    const linear = evaluateSheet(caseSheet('P52')).blocks.total!.outputs.value!.spread as SpreadData;
+    const linear = evaluateSheet(caseSheet('P52')).blocks.total!.outputs.value!.spread as NumericSpread;
     const entries = sensitivityEntries(linear);
     expect(entries.map((e) => e.input)).toEqual(['q.A', 'q.B']);
     expect(entries[0]!.value).toBeCloseTo(0.64, 9);

@@ -8,6 +8,7 @@ import { roleAllows } from '@/lib/auth/permissions';
 import { SHA256_PATTERN } from '@/lib/engine/dataset';
 import { getDatasetDetail, listDatasetsByTeam, type DatasetDetail } from '@/lib/db/datasets';
 import { AppError } from '@/lib/errors';
+import { formatDay, formatMinute } from '@/lib/format/dates';
 
 export const metadata: Metadata = { title: 'Datasets' };
 
@@ -72,7 +73,7 @@ export default async function DatasetsPage({ searchParams }: { searchParams: Pro
                     <td className="px-2 py-1.5">
                       {d.createdBy?.name ?? '—'}
                       <time dateTime={d.createdAt} className="num block text-[12px] text-slate">
-                        {d.createdAt.slice(0, 10)}
+                        {formatDay(d.createdAt)}
                       </time>
                     </td>
                     <td className="num px-2 py-1.5 text-right">{d.usedByCount === 1 ? '1 sheet' : `${d.usedByCount} sheets`}</td>
@@ -99,7 +100,7 @@ function DatasetPanel({ dataset, canEdit, teamId }: { dataset: DatasetDetail; ca
         </h2>
         <p className="text-[13px] text-slate">
           {KIND_LABELS[dataset.kind]} · {dataset.rowCount.toLocaleString('en-US')} rows · uploaded by {dataset.createdBy?.name ?? 'someone no longer in the team'} on{' '}
-          {dataset.createdAt.slice(0, 16).replace('T', ' ')} UTC
+          {formatMinute(dataset.createdAt)} UTC
         </p>
       </div>
       {dataset.description ? <p className="whitespace-pre-line text-[13px]">{dataset.description}</p> : null}

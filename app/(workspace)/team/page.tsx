@@ -5,6 +5,7 @@ import { requirePageUser } from '@/lib/auth/page';
 import { roleAllows } from '@/lib/auth/permissions';
 import { listActivityByTeam } from '@/lib/db/activity';
 import { listMembersByTeam, listPendingInvitationsByTeam } from '@/lib/db/members';
+import { formatMinute } from '@/lib/format/dates';
 
 export const metadata: Metadata = { title: 'Team' };
 
@@ -38,7 +39,7 @@ export default async function TeamPage() {
               <li key={a.id} className="px-3 py-2">
                 <span className="font-medium">{a.actor?.name ?? 'Someone'}</span> {describeActivity(a)}
                 <time dateTime={a.createdAt} className="num block text-[12px] text-slate">
-                  {a.createdAt.slice(0, 16).replace('T', ' ')} UTC
+                  {formatMinute(a.createdAt)} UTC
                 </time>
               </li>
             ))}

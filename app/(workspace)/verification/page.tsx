@@ -1,6 +1,7 @@
 import type { Metadata } from 'next';
 import { requirePageUser } from '@/lib/auth/page';
 import { getVerificationRun } from '@/lib/report/verification';
+import { formatMinute } from '@/lib/format/dates';
 
 export const metadata: Metadata = { title: 'Method checks' };
 
@@ -16,7 +17,7 @@ export default async function VerificationPage() {
         <h1 className="text-[20px] font-semibold tracking-tight">Method checks</h1>
         <p className="text-[14px] text-slate">
           Each block type&apos;s published worked example, calculated by engine <span className="num">{run.engine}</span> on{' '}
-          {run.ranAt.slice(0, 16).replace('T', ' ')} UTC. The run is repeated whenever the engine version changes; reports quote this run.
+          {formatMinute(run.ranAt)} UTC. The run is repeated whenever the engine version changes; reports quote this run.
         </p>
         <p className="text-[14px]" data-verification-summary="">
           <span className={run.failed ? 'text-oxide' : 'text-moss'}>

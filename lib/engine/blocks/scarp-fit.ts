@@ -3,7 +3,7 @@
  * 95 % interval on Kt (CONTRACT "Additions" §4.1; FORMULAS §14).
  */
 import tQuantile from '@stdlib/stats-base-dists-t-quantile';
-import { BlockFailure, STANDING_CAUTION, type BlockOutcome, type BlockTypeDefinition, type OutputValue, type Series } from '../block-type';
+import { BlockFailure, STANDING_CAUTION, type BlockOutcome, type BlockTypeDefinition, type ComputedOutput, type Series } from '../block-type';
 import { erfModel, fitErfScarp } from '../numerics/erf-fit';
 import { DATA_INPUT_HELP, estimatedRows, median, short } from './data-shared';
 import { SCARP_SOURCES, SLOPE_LIMIT, YEARS_PER_KYR_SECONDS } from './scarp-shared';
@@ -208,7 +208,7 @@ export const scarpFit: BlockTypeDefinition = {
       sumR2 += residual[i]! * residual[i]!;
     }
 
-    const outputs: Record<string, OutputValue> = {
+    const outputs: Record<string, ComputedOutput> = {
       kt: { si: fit.kt },
       kt_se: { si: seKt },
       kt_lo95: { si: ktLo },

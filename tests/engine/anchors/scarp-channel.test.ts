@@ -156,3 +156,65 @@ describe('advective_geotherm boundary conditions (Turcotte & Schubert 2002: T(0)
     expect(result.warnings).toEqual([]);
   });
 });
+
+describe('the dimension named when K does not fit (SI Brochure, 9th ed. 2019, Table 3: dimension symbols)', () => {
+  it('should name each base dimension by its SI symbol (M, L, T, I, Θ, J, N) and mathjs angle and bit, in the order mathjs keeps', () => {
+    const given = (unit: string): string | undefined =>
+      runBlock('stream_power', { coefficient: `1e-5 ${unit}`, drainage_area: '1e6 m^2', slope: '0.1', m: '0.5', n: '1' }).error;
+    expect(given('kg')).toMatch(/dimension M$/);
+    expect(given('m^2')).toMatch(/dimension L\^2$/);
+    expect(given('A/s')).toMatch(/dimension T\^-1·I$/);
+    expect(given('K/s')).toMatch(/dimension T\^-1·Θ$/);
+    expect(given('cd/s')).toMatch(/dimension T\^-1·J$/);
+    expect(given('mol/s')).toMatch(/dimension T\^-1·N$/);
+    expect(given('rad/s')).toMatch(/dimension T\^-1·angle$/);
+    expect(given('bit/s')).toMatch(/dimension T\^-1·bit$/);
+  });
+});
+
+describe('exponents other than n = 1 (Whipple & Tucker 1999: concavity θ = m/n)', () => {
+  it('should judge the concavity m/n, not m·n: m = 0.9, n = 2 gives θ = 0.45, inside 0.35–0.6', () => {
+    const power = ok(runBlock('stream_power', { coefficient: '1e-5 m^-0.8/yr', drainage_area: '1e6 m^2', slope: '0.1', m: '0.9', n: '2' }));
+    expect(power.warnings).toEqual([]);
+    const channel = ok(runBlock('steady_state_channel', { uplift_rate: '1 mm/yr', coefficient: '1e-5 m^-0.8/yr', m: '0.9', n: '2', drainage_area: '1e6 m^2' }));
+    expectClose(outputValue(channel, 'concavity'), 0.45, 1e-12);
+    expect(channel.outputs.steepness!.unit).toBe('m^0.9');
+    expect(channel.warnings).toEqual([]);
+  });
+
+  it('should warn in steady_state_channel outside 0.35–0.6 and not at its ends', () => {
+    const channel = (m: string, coefficient: string): BlockResult =>
+      ok(runBlock('steady_state_channel', { uplift_rate: '1 mm/yr', coefficient, m, n: '1', drainage_area: '1e6 m^2' }));
+    expect(channel('0.35', '1e-5 m^0.3/yr').warnings).toEqual([]);
+    expect(channel('0.6', '1e-5 m^-0.2/yr').warnings).toEqual([]);
+    expect(channel('0.3', '1e-5 m^0.4/yr').warnings).toEqual([expect.stringMatching(/m\/n = 0\.300 lies outside/)]);
+    expect(channel('0.65', '1e-5 m^-0.3/yr').warnings).toEqual([expect.stringMatching(/m\/n = 0\.650 lies outside/)]);
+  });
+
+  it('should refuse K with a mass in it even when its length and time fit (m = 0.5: kg/yr)', () => {
+    expect(runBlock('stream_power', { coefficient: '1e-5 kg/yr', drainage_area: '1e6 m^2', slope: '0.1', m: '0.5', n: '1' }).error).toMatch(/dimension M·T\^-1$/);
+  });
+});
+
+describe('advective_geotherm at |Pe| = 1000 (no overflow; limits of the closed form)', () => {
+  const inputs = { thickness: '30 km', diffusivity: '1e-6 m^2/s', surface_temperature: '10 degC', base_temperature: '610 degC', depth: '15 km' };
+  // v = Pe·κ/L: Pe = 1000 needs v = 1000·1e-6/3e4 m/s = 3.333e-5 m/s.
+  it('should give T → TL at mid-depth for strong exhumation and T → T0 for strong burial (boundary layers)', () => {
+    const up = ok(runBlock('advective_geotherm', { ...inputs, velocity: `${1000 * 1e-6 / 3e4} m/s` }));
+    expectClose(outputValue(up, 'Pe'), 1000, 1e-9);
+    expectClose(outputValue(up, 'temperature_at_depth'), 610, 1e-12);
+    const down = ok(runBlock('advective_geotherm', { ...inputs, velocity: `${-1000 * 1e-6 / 3e4} m/s` }));
+    expectClose(outputValue(down, 'Pe'), -1000, 1e-9);
+    expectClose(outputValue(down, 'temperature_at_depth'), 10, 1e-12);
+    expect(down.series!.geotherm!.y.every(Number.isFinite)).toBe(true);
+    expect(up.series!.geotherm!.y.every(Number.isFinite)).toBe(true);
+  });
+});
+
+describe('cosmogenic_denudation saturation message (Lal 1991: N_sat = P/λ)', () => {
+  it('should state P/N, λ and N_sat in SI: P = 4 atoms/(g yr), λ = 1e-6 /yr, N = 5e6 atoms/g', () => {
+    const result = runBlock('cosmogenic_denudation', { production_rate: '4 atoms/(g yr)', density: '2.7 g/cm^3', attenuation_length: '160 g/cm^2', decay_constant: '1e-6 /yr', concentration: '5e6 atoms/g' });
+    // P/N = 8e-7 /yr = 2.535e-14 /s; λ = 3.169e-14 /s; P/λ = 4e6 per g = 4e9 per kg (Julian year, 31 557 600 s).
+    expect(result.error).toContain('P/N = 2.535e-14 /s ≤ λ = 3.169e-14 /s, N ≥ P/λ = 4.000e+9 per kg');
+  });
+});

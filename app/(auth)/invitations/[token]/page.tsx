@@ -6,6 +6,7 @@ import { authOptions } from '@/lib/auth/options';
 import { ROLE_LABELS } from '@/lib/auth/permissions';
 import { getInvitationPreview } from '@/lib/db/invitations';
 import { getUserById } from '@/lib/db/users';
+import { formatDay } from '@/lib/format/dates';
 
 export const metadata: Metadata = { title: 'Team invitation' };
 
@@ -57,7 +58,7 @@ export default async function InvitationPage({ params }: { params: Promise<{ tok
           </Link>
         </div>
       )}
-      <p className="text-[12px] text-slate">The invitation expires on {preview.expiresAt.slice(0, 10)}.</p>
+      <p className="text-[12px] text-slate">The invitation expires on {formatDay(preview.expiresAt)}.</p>
     </div>
   );
 }

@@ -5,6 +5,7 @@ import { StatusTag, STATUS_WORDS, type SheetStatus } from '@/components/ui/statu
 import { requirePageUser } from '@/lib/auth/page';
 import { roleAllows } from '@/lib/auth/permissions';
 import { listSheetsByTeam, type SheetSort } from '@/lib/db/sheets';
+import { formatMinute } from '@/lib/format/dates';
 
 export const metadata: Metadata = { title: 'Sheets' };
 
@@ -132,7 +133,7 @@ export default async function SheetsPage({ searchParams }: { searchParams: Promi
                   </td>
                   <td className="num px-3 py-2">{sheet.revision > 0 ? `r${sheet.revision}` : <span className="text-slate">—</span>}</td>
                   <td className="num px-3 py-2 whitespace-nowrap">
-                    <time dateTime={sheet.updatedAt}>{sheet.updatedAt.slice(0, 16).replace('T', ' ')} UTC</time>
+                    <time dateTime={sheet.updatedAt}>{formatMinute(sheet.updatedAt)} UTC</time>
                   </td>
                   <td className="px-3 py-2">{sheet.author?.name ?? '—'}</td>
                 </tr>

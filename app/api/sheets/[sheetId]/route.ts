@@ -1,16 +1,21 @@
-import { requireSheetRole, requireUser } from '@/lib/auth/guard';
+import { requireSession, requireSheetRole, requireUser } from '@/lib/auth/guard';
+import { roleAllows } from '@/lib/auth/permissions';
 import { deleteSheet, getSheetDetail } from '@/lib/db/sheets';
-import { listTeamsForUser } from '@/lib/db/teams';
+import { forbidden, notFound } from '@/lib/errors';
 import { json, notAllowed, route } from '@/lib/http';
 
 type Context = { params: Promise<{ sheetId: string }> };
 
+// Two queries: the caller with their teams, then the sheet with everything shown; the sheet's team is
+// checked against the caller's memberships before anything is answered (another team's sheet is 404).
 export const GET = route(async (_request, { params }: Context) => {
-  const user = await requireUser();
+  const { teams } = await requireSession();
   const { sheetId } = await params;
-  await requireSheetRole({ userId: user.id, sheetId, action: 'read' });
-  const teams = await listTeamsForUser({ userId: user.id });
-  return json(await getSheetDetail({ sheetId, visibleTeamIds: teams.map((t) => t.id) }));
+  const detail = await getSheetDetail({ sheetId, visibleTeamIds: teams.map((t) => t.id) });
+  const role = teams.find((t) => t.id === detail.sheet.teamId)?.role;
+  if (!role) throw notFound('Sheet');
+  if (!roleAllows(role, 'read')) throw forbidden();
+  return json(detail);
 });
 
 export const DELETE = route(async (_request, { params }: Context) => {

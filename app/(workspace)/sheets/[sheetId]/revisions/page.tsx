@@ -5,6 +5,7 @@ import { listRevisionsBySheet } from '@/lib/db/revisions';
 import { listReviewEvents } from '@/lib/db/review-events';
 import { ReviewNotes } from '@/components/review/review-notes';
 import { requireSheetPage } from '@/lib/sheet/page-access';
+import { formatMinute } from '@/lib/format/dates';
 
 export const metadata: Metadata = { title: 'Revisions' };
 
@@ -68,7 +69,7 @@ export default async function RevisionsPage({ params }: { params: Promise<{ shee
                     </td>
                     <td className="px-3 py-2">{r.message || <span className="text-slate">—</span>}</td>
                     <td className="px-3 py-2">{r.author?.name ?? '—'}</td>
-                    <td className="num px-3 py-2 whitespace-nowrap"><time dateTime={r.createdAt}>{r.createdAt.slice(0, 16).replace('T', ' ')} UTC</time></td>
+                    <td className="num px-3 py-2 whitespace-nowrap"><time dateTime={r.createdAt}>{formatMinute(r.createdAt)} UTC</time></td>
                     <td className="px-3 py-2">
                       <StatusTag status={r.review.status} />
                       {r.evaluation.status !== 'done' ? (

@@ -40,8 +40,10 @@ export const POST = route(async (request, { params }: Context) => {
     const document = requireValidDocument(unsaved, 'document');
     // Too costly for a request: an unsaved document cannot become a run (runs evaluate stored
     // drafts and revisions), so nothing is evaluated now; saving starts the long run.
-    if (needsLongRun(document)) return json({ draftVersion: draft.version, unsaved: true, run: null, longRun: true }, 202);
     const { lookup } = await resolveDocumentDatasets({ teamId: sheet.teamId, document });
+    if (needsLongRun(document, { datasetRows: (sha256) => lookup.get(sha256)?.rows.length })) {
+      return json({ draftVersion: draft.version, unsaved: true, run: null, longRun: true }, 202);
+    }
     return json(await evaluateUnsaved({ sheetId, draftVersion: draft.version, document, userId: user.id, datasets: lookup }));
   }
   const document = requireValidDocument(draft.document, 'draft');

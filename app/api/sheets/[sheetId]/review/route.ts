@@ -1,20 +1,18 @@
 import { requireSheetRole, requireUser } from '@/lib/auth/guard';
-import type { TeamAction } from '@/lib/auth/permissions';
-import { applyReviewAction, type ReviewAction } from '@/lib/db/review';
+import { REVIEW_RIGHT } from '@/lib/auth/review-rules';
+import { applyReviewAction } from '@/lib/db/review';
 import { json, notAllowed, readJson, route } from '@/lib/http';
 import { notifyReview } from '@/lib/notifications';
 import { reviewSchema } from './schema';
 
 type Context = { params: Promise<{ sheetId: string }> };
 
-const RIGHT: Record<ReviewAction, TeamAction> = { request: 'request_review', check: 'check', return: 'check', approve: 'approve' };
-
 export const POST = route(async (request, { params }: Context) => {
   const user = await requireUser();
   const { sheetId } = await params;
   await requireSheetRole({ userId: user.id, sheetId, action: 'read' });
   const body = await readJson(request, reviewSchema);
-  await requireSheetRole({ userId: user.id, sheetId, action: RIGHT[body.action] });
+  await requireSheetRole({ userId: user.id, sheetId, action: REVIEW_RIGHT[body.action] });
   const { outcome, notice } = await applyReviewAction({ sheetId, actorId: user.id, ...body, message: body.message || undefined });
   const mail = await notifyReview(notice);
   return json({ ...outcome, mailDelivered: mail.delivered });

@@ -12,6 +12,7 @@ import { readRevision } from '@/lib/db/revisions';
 import { listReviewEvents } from '@/lib/db/review-events';
 import { latestApprovedRevision } from '@/lib/sheet/draft-standing.server';
 import { requireSheetPage } from '@/lib/sheet/page-access';
+import { formatMinute } from '@/lib/format/dates';
 
 export const metadata: Metadata = { title: 'Revision' };
 
@@ -47,7 +48,7 @@ export default async function RevisionPage({ params }: { params: Promise<{ sheet
           {document.title} <span className="num text-slate">r{number}</span>
         </h1>
         <p className="text-[13px] text-slate">
-          {document.site ? `${document.site.name} · ` : ''}read-only record · saved {revision.createdAt.slice(0, 16).replace('T', ' ')} UTC by{' '}
+          {document.site ? `${document.site.name} · ` : ''}read-only record · saved {formatMinute(revision.createdAt)} UTC by{' '}
           {revision.author?.name ?? '—'} · engine {revision.engineVersion} ·{' '}
           <span className="num" title={revision.hash}>
             {revision.hash.slice(0, 12)}

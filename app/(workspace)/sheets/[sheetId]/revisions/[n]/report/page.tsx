@@ -4,6 +4,7 @@ import { notFound } from 'next/navigation';
 import { PrintButton } from '@/components/report/print-button';
 import { PrintPageStyle } from '@/components/report/print-page-style';
 import { ReportView } from '@/components/report/report-view';
+import { AppError } from '@/lib/errors';
 import { loadReport } from '@/lib/report/load.server';
 import { prepareReportPdf } from '@/lib/report/pdf-pool.server';
 import { requireSheetPage } from '@/lib/sheet/page-access';
@@ -16,7 +17,25 @@ export default async function ReportPage({ params }: { params: Promise<{ sheetId
   const { user, sheet } = await requireSheetPage(sheetId);
   if (!/^[1-9][0-9]{0,8}$/.test(n)) notFound();
   const number = Number(n);
-  const loaded = await loadReport({ sheetId, teamId: sheet.teamId, number, userId: user.id }).catch(() => null);
+  let loaded: Awaited<ReturnType<typeof loadReport>> | null = null;
+  try {
+    loaded = await loadReport({ sheetId, teamId: sheet.teamId, number, userId: user.id });
+  } catch (error) {
+    // A revision saved over the synchronous cost limit has no results until its long run stores them (409):
+    // say so, rather than pretend the revision does not exist.
+    if (error instanceof AppError && error.status === 409) {
+      return (
+        <div className="flex flex-col gap-3" role="status">
+          <h1 className="text-[18px] font-semibold">{`Report of r${number} not ready`}</h1>
+          <p className="text-[14px]">{error.message}</p>
+          <Link href={`/sheets/${sheetId}/revisions/${number}`} className="text-[13px] text-river hover:underline">
+            ← Revision r{number}
+          </Link>
+        </div>
+      );
+    }
+    if (!(error instanceof AppError) || error.status !== 404) throw error;
+  }
   if (!loaded) notFound();
   const { model } = loaded;
   // Lay the PDF out in the report worker now, in the background, so "Download PDF" is usually answered from the

@@ -3,8 +3,6 @@ import { notFound, redirect } from 'next/navigation';
 import { cache } from 'react';
 import { SheetWorkspace } from '@/components/sheet/sheet-workspace';
 import { getSheetPreferences } from '@/lib/db/sheet-preferences';
-import { requireSheetRole } from '@/lib/auth/guard';
-import { requirePageUser } from '@/lib/auth/page';
 import { roleAllows } from '@/lib/auth/permissions';
 import { listMembersByTeam } from '@/lib/db/members';
 import { getReviewSummary } from '@/lib/db/revisions';
@@ -13,16 +11,17 @@ import { getDraftStanding, latestApprovedRevision } from '@/lib/sheet/draft-stan
 import { getSheetDetail, listSheetsByTeam } from '@/lib/db/sheets';
 import { AppError } from '@/lib/errors';
 import { clientCatalog } from '@/lib/sheet/catalog.server';
+import { requireSheetPage } from '@/lib/sheet/page-access';
 import type { SheetDocument } from '@/lib/sheet/types';
 
 type Params = { params: Promise<{ sheetId: string }>; searchParams?: Promise<Record<string, string | string[] | undefined>> };
 
-// One load per request, shared by generateMetadata and the page.
+// One load per request, shared by generateMetadata and the page; the access check is the layout's
+// (requireSheetPage, cached for the request: a sheet the user may not see is a 404 there).
 const loadSheet = cache(async (sheetId: string) => {
-  const { user, teams } = await requirePageUser();
+  const { user, teams, sheet, role, visibleTeamIds } = await requireSheetPage(sheetId);
   try {
-    const { sheet, role } = await requireSheetRole({ userId: user.id, sheetId, action: 'read' });
-    const detail = await getSheetDetail({ sheetId, visibleTeamIds: teams.map((t) => t.id) });
+    const detail = await getSheetDetail({ sheetId, visibleTeamIds });
     return { user, teams, sheet, role, detail };
   } catch (error) {
     if (error instanceof AppError && (error.status === 404 || error.status === 403)) notFound();

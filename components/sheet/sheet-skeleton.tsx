@@ -1,4 +1,5 @@
-export default function Loading() {
+/** The sheet pages' loading state (their loading.tsx files). */
+export function SheetSkeleton() {
   return (
     <div aria-busy="true" aria-label="Loading the sheet" className="flex flex-col gap-3">
       <div className="h-7 w-72 animate-pulse rounded bg-wash" />

@@ -1,0 +1,5 @@
+import { SheetSkeleton } from '@/components/sheet/sheet-skeleton';
+
+export default function Loading() {
+  return <SheetSkeleton />;
+}
