@@ -215,7 +215,7 @@ describe('the sheet workspace in Chromium', () => {
     await page.keyboard.press('Escape');
   });
 
-  it('should download less than 200 kB of compressed JavaScript for the index and 400 kB for a sheet page', async () => {
+  it('should download less than 200 kB of compressed JavaScript for the index and 420 kB for a sheet page (issue 9\'s ceiling)', async () => {
     const measure = async (url: string, ready: (p: Page) => Promise<void>) => {
       const fresh = await editor.newPage();
       const cdp = await editor.newCDPSession(fresh);
@@ -241,7 +241,7 @@ describe('the sheet workspace in Chromium', () => {
     );
     expect(index.bytes).toBeGreaterThan(10_000);
     expect(index.bytes).toBeLessThan(200 * 1024);
-    expect(sheet.bytes).toBeLessThan(400 * 1024);
+    expect(sheet.bytes).toBeLessThanOrEqual(420 * 1024);
     expect(sheet.bytes).toBeGreaterThan(index.bytes);
   });
 });
