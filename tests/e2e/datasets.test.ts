@@ -101,8 +101,10 @@ describe('the datasets page', () => {
     expect(await march.getByTestId('dataset-chosen').innerText()).toContain(`P10 reach ${sha.slice(0, 12)}`);
     await settled(page);
     await page.waitForFunction(() => document.querySelector('section[data-block-name="march"]')?.getAttribute('data-state') === 'ok', null, { timeout: 30_000 });
-    const saved = await api.get(`/api/sheets/${sheetId}`);
-    expect(saved.body.draft.document.blocks[0].inputs.data).toBe(`dataset("${sha}")`);
+    // The result shows as soon as the edited document is evaluated (before the draft is saved): wait for the save.
+    await expect
+      .poll(async () => (await api.get(`/api/sheets/${sheetId}`)).body.draft.document.blocks[0].inputs.data, { timeout: 20_000 })
+      .toBe(`dataset("${sha}")`);
     expect(await march.getByTestId('outputs').innerText()).toContain('1.411');
   });
 });
