@@ -41,6 +41,21 @@ const unsavedCache = (globalUnsaved.__denudataUnsaved ??= new ResultsCache<Sheet
 /** Which of the document's datasets were available: results depend on it besides the draft version. */
 const datasetKeyOf = (datasets: DatasetLookup | undefined) => (datasets ? [...datasets.keys()].sort().join(',') : '');
 
+/** Recomputes only the blocks changed since `previous` (and what depends on them), or everything without one. */
+async function evaluateFrom(
+  previous: { document: SheetDocument; results: SheetResults } | undefined,
+  document: SheetDocument,
+  owner: { userId: string; key: string },
+  datasets: DatasetLookup | undefined,
+): Promise<{ results: SheetResults; evaluatedBlockIds: string[] }> {
+  if (previous) {
+    const changed = changedBlockIds(previous.document as ClientDocument, document as ClientDocument);
+    return runEvaluateIncremental(document, previous.results, changed, owner, datasets);
+  }
+  const results = await runEvaluate(document, owner, datasets);
+  return { results, evaluatedBlockIds: document.blocks.filter((b) => b.type !== 'note').map((b) => b.id) };
+}
+
 /**
  * Results of a sheet's stored draft, recomputing only what changed since the last evaluation of
  * that sheet in this process (by block id), or nothing when the draft version and the datasets it
@@ -67,15 +82,9 @@ export async function evaluateDraft({
     if (previous && previous.draftVersion === draftVersion && (previous.datasetKey ?? '') === datasetKey) {
       return { draftVersion, results: previous.results, evaluatedBlockIds: [] };
     }
-    if (previous) {
-      const changed = changedBlockIds(previous.document as ClientDocument, document as ClientDocument);
-      const { results, evaluatedBlockIds } = await runEvaluateIncremental(document, previous.results, changed, { userId, key: sheetId }, datasets);
-      cache.set(sheetId, { draftVersion, document, results, datasetKey });
-      return { draftVersion, results, evaluatedBlockIds };
-    }
-    const results = await runEvaluate(document, { userId, key: sheetId }, datasets);
+    const { results, evaluatedBlockIds } = await evaluateFrom(previous, document, { userId, key: sheetId }, datasets);
     cache.set(sheetId, { draftVersion, document, results, datasetKey });
-    return { draftVersion, results, evaluatedBlockIds: document.blocks.filter((b) => b.type !== 'note').map((b) => b.id) };
+    return { draftVersion, results, evaluatedBlockIds };
   } catch (error) {
     throw asEvaluationError(error);
   }
@@ -107,15 +116,7 @@ export async function evaluateUnsaved({
   const previous = candidates.find((entry) => entry && (entry.datasetKey ?? '') === datasetKey);
   const owner = { userId, key: `${sheetId}:unsaved` };
   try {
-    let results: SheetResults;
-    let evaluatedBlockIds: string[];
-    if (previous) {
-      const changed = changedBlockIds(previous.document as ClientDocument, document as ClientDocument);
-      ({ results, evaluatedBlockIds } = await runEvaluateIncremental(document, previous.results, changed, owner, datasets));
-    } else {
-      results = await runEvaluate(document, owner, datasets);
-      evaluatedBlockIds = document.blocks.filter((b) => b.type !== 'note').map((b) => b.id);
-    }
+    const { results, evaluatedBlockIds } = await evaluateFrom(previous, document, owner, datasets);
     // Kept per user with version 0, so any stored draft's entry stays separate and authoritative.
     unsavedCache.set(slot, { draftVersion: 0, document, results, datasetKey });
     return { draftVersion, unsaved: true, results, evaluatedBlockIds };
