@@ -11,7 +11,7 @@
  */
 import type { SheetDocument } from './document';
 import { getBlockType } from './registry';
-import { DISTRIBUTION_CALL, uncertaintySettings } from './uncertainty/propagate';
+import { DISTRIBUTION_CALL, uncertaintySettings } from './uncertainty/plan';
 
 /**
  * Units a synchronous evaluation may take: one unit is about 0.1 ms here (a 20-block sheet's

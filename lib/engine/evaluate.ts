@@ -14,16 +14,10 @@ import { getBlockType } from './registry';
 import { quoteAdvice, withQuoteAdvice } from './text-words';
 import { formatValue, valueFromFormatted, type FormattedOutput } from './units';
 import { isDistributionName, makeDistribution, valueOf, type Distribution } from './uncertainty/distributions';
-import {
-  DISTRIBUTION_CALL,
-  planUncertainty,
-  propagateUncertainty,
-  type Spread,
-  type UncertaintyEcho,
-  type UncertaintyPlan,
-} from './uncertainty/propagate';
+import { DISTRIBUTION_CALL, planUncertainty, type Spread, type UncertaintyEcho, type UncertaintyPlan } from './uncertainty/plan';
+import { propagateUncertainty } from './uncertainty/propagate';
 
-export type { Spread, UncertaintyEcho } from './uncertainty/propagate';
+export type { Spread, UncertaintyEcho } from './uncertainty/plan';
 
 export const ENGINE_VERSION = '1.0.0';
 /** CONTRACT §3 Limits: the size of a results document (UTF-8 bytes of its JSON). */

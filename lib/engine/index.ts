@@ -20,8 +20,8 @@ import { DIMENSIONS, formatValue, type DimensionInfo, type FormattedOutput } fro
 
 export { ENGINE_VERSION, RESULTS_FORMAT } from './evaluate';
 export type { BlockResult, BlockStatus, OutputResult, EvaluateOptions, SheetResults, Spread, UncertaintyEcho } from './evaluate';
-export type { NumericSpread, TextSpread, UncertaintyMethod, UncertaintySettings } from './uncertainty/propagate';
-export { DEFAULT_UNCERTAINTY } from './uncertainty/propagate';
+export type { NumericSpread, TextSpread, UncertaintyMethod, UncertaintySettings } from './uncertainty/plan';
+export { DEFAULT_UNCERTAINTY } from './uncertainty/plan';
 export { MAX_RESULTS_BYTES } from './evaluate';
 export { SYNC_COST_LIMIT, estimateEvaluationCost, needsLongRun } from './cost';
 export { MAX_MATRIX_ELEMENTS, MAX_STRING_LENGTH } from './expression';
