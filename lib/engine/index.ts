@@ -24,7 +24,7 @@ export type { NumericSpread, TextSpread, UncertaintyMethod, UncertaintySettings 
 export { DEFAULT_UNCERTAINTY } from './uncertainty/plan';
 export { MAX_RESULTS_BYTES } from './evaluate';
 export { SYNC_COST_LIMIT, estimateEvaluationCost, needsLongRun } from './cost';
-export { MAX_MATRIX_ELEMENTS, MAX_STRING_LENGTH } from './expression';
+export { MAX_MATRIX_ELEMENTS, MAX_STRING_LENGTH } from './value-size';
 export {
   SHEET_FORMAT,
   checkBlockName,
