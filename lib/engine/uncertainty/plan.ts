@@ -60,7 +60,7 @@ export interface UncertaintyEcho extends UncertaintySettings {
   inputs: Array<{ block: string; input: string; distribution: string; parameters: Record<string, FormattedOutput> }>;
 }
 
-/** What the sampling pass needs of a prepared block (evaluate.ts's PreparedBlock). */
+/** What the sampling pass needs of a prepared block (prepare.ts's PreparedBlock). */
 export interface SampledBlock {
   block: { id: string; name: string; type: string; inputs: Record<string, string>; display?: Record<string, string> };
   type: BlockTypeDefinition;
