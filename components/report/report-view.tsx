@@ -2,7 +2,8 @@
 // A server component: no client code, figures are inline SVG from the shared figure geometry.
 import { NoteMarkdown } from '@/components/blocks/note-markdown';
 import type { FigureModel } from '@/lib/report/figure';
-import { reportTime, type ReportBlock, type ReportModel } from '@/lib/report/model';
+import { reportTime } from '@/lib/report/time';
+import type { ReportBlock, ReportModel } from '@/lib/report/types';
 
 function Figure({ figure }: { figure: FigureModel }) {
   const { plot } = figure;

@@ -6,7 +6,8 @@ import { listReviewEvents, type ReviewEvent } from '@/lib/db/review-events';
 import { getRevision, type RevisionDetail } from '@/lib/db/revisions';
 import { Team } from '@/models';
 import { evaluateInputs, type EvaluatedInput } from './inputs';
-import { buildReport, type ReportModel, type ReviewTrailEntry } from './model';
+import { buildReport } from './model';
+import type { ReportModel, ReviewTrailEntry } from './types';
 import { getVerificationRun } from './verification';
 
 type Current = { results: SheetResults; inputs: Record<string, Record<string, EvaluatedInput>>; alternative: SheetResults | null };

@@ -3,251 +3,30 @@
  * registry, the review trail and the verification run, and drawn three ways (the print page, the PDF
  * and the CSV files). Pure: the caller loads and evaluates; this only arranges.
  */
-import type { BlockTypeInfo, SheetDocument, SheetResults } from '@/lib/engine';
+import type { BlockTypeInfo, SheetResults } from '@/lib/engine';
 import { STANDING_CAUTION } from '@/lib/engine/block-type';
-import { formatNumber } from '@/lib/sheet/format';
-import { buildFigure, type FigureModel } from './figure';
+import { buildFigure } from './figure';
 import type { EvaluatedInput } from './inputs';
+import {
+  GENERAL_CAUTION,
+  NOT_APPROVED_BANNER,
+  STATUS_WORDS,
+  type ReportBlock,
+  type ReportInput,
+  type ReportModel,
+  type ReportOutput,
+  type ReportRevisionInput,
+  type ReviewActionName,
+  type ReviewTrailEntry,
+  type ReportSource,
+  type SignOffRow,
+} from './types';
+import { compareResults, shown, spreadLabel, spreadOf, withUnit } from './values';
 import { verificationLine, type VerificationRun } from './verification';
-
-export type ReviewStatusName = 'unsigned' | 'in_review' | 'checked' | 'approved' | 'returned';
-export type ReviewActionName = 'request' | 'check' | 'return' | 'approve';
-
-export interface ReportPerson {
-  name: string;
-}
-
-/** One review action with its note, as the trail holds it. */
-export interface ReviewTrailEntry {
-  action: ReviewActionName;
-  by: ReportPerson | null;
-  at: string;
-  message: string;
-}
-
-export interface ReportRevisionInput {
-  number: number;
-  hash: string;
-  engineVersion: string;
-  message: string;
-  createdAt: string;
-  author: ReportPerson | null;
-  document: SheetDocument;
-  results: SheetResults;
-  review: {
-    status: ReviewStatusName;
-    checkedBy: ReportPerson | null;
-    checkedAt: string | null;
-    approvedBy: ReportPerson | null;
-    approvedAt: string | null;
-  };
-}
-
-export interface SignOffRow {
-  role: 'Prepared by' | 'Checked by' | 'Approved by';
-  name: string | null;
-  at: string | null;
-  note: string;
-}
-
-export interface ReportOutput {
-  name: string;
-  label: string;
-  /** The value as displayed (six significant figures) with its unit. */
-  value: string;
-  unit: string;
-  si: string;
-  siUnit: string;
-  /** The recorded spread (CONTRACT §8.5), always with its method label. */
-  spread: ReportSpread | null;
-  /** The same output by the other method, recomputed for comparison (a Monte Carlo sheet also shows the linear interval). */
-  alternative: ReportSpread | null;
-}
-
-export interface ReportSpread {
-  method: 'monte_carlo' | 'linear';
-  label: string;
-  /** "95 % interval 10.2 … 31.4 kyr (median 17.9 kyr)" or, for a text output, the counts per label. */
-  text: string;
-  p2_5: string;
-  p50: string;
-  p97_5: string;
-  /** Spearman sensitivities (Monte Carlo) or contributions (linear), largest first, as "K 0.98". */
-  drivers: string;
-}
-
-export interface ReportInput {
-  name: string;
-  label: string;
-  written: string;
-  /** Value and unit as the current engine evaluates it; a message when it cannot. */
-  evaluated: string;
-}
-
-export interface ReportBlock {
-  id: string;
-  name: string;
-  type: string;
-  typeTitle: string;
-  note: string | null;
-  formula: string | null;
-  inputs: ReportInput[];
-  outputs: ReportOutput[];
-  status: 'ok' | 'error' | 'blocked' | 'note';
-  error: string | null;
-  warnings: string[];
-  validity: string[];
-  cautions: string[];
-  /** Numbers in the reference list. */
-  sources: number[];
-  verification: string | null;
-  figures: FigureModel[];
-}
-
-export interface ReportSource {
-  number: number;
-  text: string;
-  /** Block type titles that rest on it. */
-  usedBy: string[];
-}
-
-export interface ReportDifference {
-  block: string;
-  output: string;
-  recorded: string;
-  computed: string;
-}
-
-export interface ReportModel {
-  sheetId: string;
-  title: string;
-  site: { name: string; latitude?: number; longitude?: number; notes?: string } | null;
-  team: string;
-  revision: { number: number; hash: string; shortHash: string; message: string; createdAt: string; author: string | null };
-  engine: { recorded: string; current: string; changed: boolean };
-  generatedAt: string;
-  status: ReviewStatusName;
-  statusWords: string;
-  approved: boolean;
-  /** Shown on every page of a revision that is not approved. */
-  banner: string | null;
-  signOff: SignOffRow[];
-  trail: ReviewTrailEntry[];
-  differences: ReportDifference[];
-  /** Outputs differ, or the engine version differs: the cover says so. */
-  recomputeNotice: string | null;
-  generalCaution: string;
-  blocks: ReportBlock[];
-  sources: ReportSource[];
-  verification: { engine: string; lines: { typeTitle: string; line: string; pass: boolean }[] };
-  /** The sheet's uncertainty settings and its declared distributions, when it has any. */
-  uncertainty: { method: string; inputs: string[]; note: string } | null;
-}
-
-export const NOT_APPROVED_BANNER = 'Not approved: for checking only';
-
-export const GENERAL_CAUTION =
-  'The results in this report are estimates from published, simplified methods under their stated assumptions and validity limits, ' +
-  'which are listed with each block. They are not a substitute for site investigation or engineering judgement. ' +
-  STANDING_CAUTION;
-
-export const STATUS_WORDS: Record<ReviewStatusName, string> = {
-  unsigned: 'Not yet sent for review',
-  in_review: 'Awaiting a check',
-  checked: 'Checked, awaiting approval',
-  approved: 'Approved',
-  returned: 'Returned for changes',
-};
-
-/** Relative tolerance for "the current engine gives the same output" (CONTRACT §6b). */
-export const RECOMPUTE_TOLERANCE = 1e-12;
-
-export const shown = (value: number | string) => (typeof value === 'number' ? formatNumber(value) : value);
-const withUnit = (value: number | string, unit: string) => (unit ? `${shown(value)} ${unit}` : shown(value));
-
-type Spread = {
-  method?: string;
-  samples?: number;
-  seed?: number;
-  p2_5?: number;
-  p50?: number;
-  p97_5?: number;
-  counts?: Record<string, number>;
-  sensitivity?: Record<string, number>;
-  contributions?: Record<string, number>;
-};
-
-const groupDigits = (n: number) => String(n).replace(/\B(?=(\d{3})+(?!\d))/g, ' ');
-
-/** The label every spread travels with (CONTRACT §8.5). */
-export function spreadLabel(spread: Spread): string {
-  if (spread.method === 'linear') return 'linear (first order), normal approximation';
-  const samples = spread.samples !== undefined ? String(spread.samples).replace(/\B(?=(\d{3})+(?!\d))/g, ' ') : '?';
-  return `Monte Carlo, N = ${samples}, seed ${spread.seed ?? '?'}`;
-}
-
-/** The interval of a spread as the report prints it, never without its label. */
-export function spreadOf(output: { unit: string; spread?: unknown } | undefined): ReportSpread | null {
-  const spread = output?.spread as Spread | undefined;
-  if (!spread) return null;
-  const method = spread.method === 'linear' ? 'linear' : 'monte_carlo';
-  const label = spreadLabel(spread);
-  const unit = output!.unit ? ` ${output!.unit}` : '';
-  if (spread.counts) {
-    const counts = Object.entries(spread.counts).map(([name, n]) => `${name} ${groupDigits(n)}`).join(', ');
-    return { method, label, text: `samples by result: ${counts}`, p2_5: '', p50: '', p97_5: '', drivers: '' };
-  }
-  if (typeof spread.p2_5 !== 'number' || typeof spread.p97_5 !== 'number') return null;
-  const p2_5 = shown(spread.p2_5);
-  const p97_5 = shown(spread.p97_5);
-  const p50 = typeof spread.p50 === 'number' ? shown(spread.p50) : '';
-  const weights = spread.sensitivity ?? spread.contributions ?? {};
-  const drivers = Object.entries(weights)
-    .sort((a, b) => Math.abs(b[1]) - Math.abs(a[1]))
-    .slice(0, 6)
-    .map(([name, w]) => `${name} ${shown(Number(w.toPrecision(2)))}`)
-    .join(', ');
-  const median = p50 && method === 'monte_carlo' ? ` (median ${p50}${unit})` : '';
-  return { method, label, text: `95 % interval ${p2_5} … ${p97_5}${unit}${median}`, p2_5, p50, p97_5, drivers };
-}
 
 /** Parameters in the order of the call's arguments (CONTRACT §8.1): normal(mean, sd), lognormal(median, factor), … */
 const ARGUMENT_ORDER = ['mean', 'median', 'lo', 'mode', 'hi', 'sd', 'factor'];
 const argumentRank = (name: string) => (ARGUMENT_ORDER.includes(name) ? ARGUMENT_ORDER.indexOf(name) : ARGUMENT_ORDER.length);
-
-function differs(a: number | string, b: number | string): boolean {
-  if (typeof a !== 'number' || typeof b !== 'number') return a !== b;
-  if (a === b) return false;
-  return Math.abs(a - b) > RECOMPUTE_TOLERANCE * Math.max(Math.abs(a), Math.abs(b));
-}
-
-/** Outputs whose current value differs from the recorded one (and blocks whose status changed). */
-export function compareResults(recorded: SheetResults, current: SheetResults): ReportDifference[] {
-  const differences: ReportDifference[] = [];
-  const names = new Set([...Object.keys(recorded.blocks), ...Object.keys(current.blocks)]);
-  for (const block of names) {
-    const before = recorded.blocks[block];
-    const after = current.blocks[block];
-    if (!before || !after || before.status !== after.status) {
-      differences.push({ block, output: '', recorded: before?.status ?? 'absent', computed: after?.status ?? 'absent' });
-      continue;
-    }
-    const outputs = new Set([...Object.keys(before.outputs), ...Object.keys(after.outputs)]);
-    for (const output of outputs) {
-      const r = before.outputs[output];
-      const c = after.outputs[output];
-      if (!r || !c || differs(r.si, c.si) || r.unit !== c.unit) {
-        differences.push({
-          block,
-          output,
-          recorded: r ? withUnit(r.value, r.unit) : 'absent',
-          computed: c ? withUnit(c.value, c.unit) : 'absent',
-        });
-      }
-    }
-  }
-  return differences;
-}
 
 function lastNote(trail: ReviewTrailEntry[], action: ReviewActionName): string {
   for (let i = trail.length - 1; i >= 0; i -= 1) if (trail[i]!.action === action) return trail[i]!.message;

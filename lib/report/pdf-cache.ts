@@ -5,7 +5,7 @@
  * pushed out.
  */
 import { createHash } from 'node:crypto';
-import type { ReportModel } from './model';
+import type { ReportModel } from './types';
 
 export interface BytesCacheLimits {
   maxEntries: number;

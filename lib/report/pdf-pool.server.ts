@@ -4,7 +4,7 @@ import path from 'node:path';
 import { pathToFileURL } from 'node:url';
 import { Piscina } from 'piscina';
 import { AppError } from '@/lib/errors';
-import type { ReportModel } from './model';
+import type { ReportModel } from './types';
 import { BoundedBytesCache, reportCacheKey } from './pdf-cache';
 
 /**

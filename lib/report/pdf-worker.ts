@@ -4,7 +4,7 @@
  * scripts/build-worker.mjs (Node 20 workers cannot load TypeScript); @react-pdf/renderer and React stay
  * external and load from node_modules.
  */
-import type { ReportModel } from './model';
+import type { ReportModel } from './types';
 import { renderReportPdf } from './pdf';
 
 export default async function renderReportTask({ model }: { model: ReportModel }): Promise<Uint8Array> {

@@ -7,7 +7,7 @@
 import path from 'node:path';
 import { Document, Font, G, Line, Page, Polyline, Rect, StyleSheet, Svg, Text, View, renderToBuffer } from '@react-pdf/renderer';
 import type { FigureModel } from './figure';
-import type { ReportBlock, ReportModel } from './model';
+import type { ReportBlock, ReportModel } from './types';
 import { reportTime } from './time';
 import { PdfMarkdown } from './pdf-markdown';
 

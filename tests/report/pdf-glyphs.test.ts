@@ -1,7 +1,7 @@
 import { describe, expect, it } from 'vitest';
 import * as fontkit from 'fontkit';
 import { blockCatalog } from '@/lib/engine';
-import { GENERAL_CAUTION, NOT_APPROVED_BANNER } from '@/lib/report/model';
+import { GENERAL_CAUTION, NOT_APPROVED_BANNER } from '@/lib/report/types';
 import { PDF_FONT_FILES } from '@/lib/report/pdf';
 
 type Font = { hasGlyphForCodePoint(codePoint: number): boolean };

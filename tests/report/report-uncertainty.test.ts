@@ -11,7 +11,7 @@ import { evaluateSheet, parseSheetDocument, type SheetDocument, type SheetResult
 import { saveRevision } from '@/lib/db/revisions';
 import { RESULTS_CSV_COLUMNS, resultsCsv } from '@/lib/report/csv';
 import { loadReport } from '@/lib/report/load.server';
-import type { ReportModel } from '@/lib/report/model';
+import type { ReportModel } from '@/lib/report/types';
 import { renderReportPdf } from '@/lib/report/pdf';
 import { buildRecord, compareRecordedOutputs, recordSchema } from '@/lib/report/record';
 import { makeSheet, useTeamFixture } from '../support/review-fixtures';
