@@ -13,7 +13,8 @@ import {
   hashDataset,
   type DatasetCanonical,
 } from '@/lib/engine/dataset';
-import { parseDatasetText, summariseProblems, type DatasetProblem } from './parse';
+import { parseDatasetText } from './parse';
+import { summariseProblems, type DatasetProblem } from './problems';
 
 /** A number in ECMAScript shortest form, as RFC 8785 writes it (so -0 is "0"). */
 export function shortestNumber(value: number): string {

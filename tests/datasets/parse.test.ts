@@ -4,7 +4,8 @@ import { describe, expect, it } from 'vitest';
 import { hashDataset } from '@/lib/engine/dataset';
 import { checkUnitDimension } from '@/lib/engine';
 import { canonicalCsv, checkCanonicalDataset } from '@/lib/datasets/canonical';
-import { DATASET_REASONS, parseDatasetFile, parseDatasetText, type DatasetReason } from '@/lib/datasets/parse';
+import { parseDatasetFile, parseDatasetText } from '@/lib/datasets/parse';
+import { DATASET_REASONS, type DatasetReason } from '@/lib/datasets/problems';
 import cases from '../fixtures/datasets/cases.json';
 
 // Validation rules: CONTRACT §7.2–§7.4 (the product's binding format). The canonical form and hash are

@@ -1,6 +1,6 @@
 import { requireUser } from '@/lib/auth/guard';
 import { resolveTeam } from '@/lib/auth/team';
-import { DATASET_LIMITS } from '@/lib/datasets/parse';
+import { DATASET_LIMITS } from '@/lib/datasets/problems';
 import { nameFromFilename } from '@/lib/datasets/text';
 import { datasetNameSchema } from '@/lib/datasets/schema';
 import { createDatasetFromUpload, listDatasetsByTeam } from '@/lib/db/datasets';
