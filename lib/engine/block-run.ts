@@ -10,7 +10,8 @@ import { EngineError } from './errors';
 import { checkExpression, defineExpressionFunction } from './expression';
 import { BLOCK_TYPES } from './registry';
 import { BARE_HILLSLOPE_LIMIT, BARE_SLOPE_LIMIT, CHANNEL_SLOPE_INPUTS, isImplausible, typicalRange } from './typical-ranges';
-import { coerceInput, describeValue, formatFromSI, quantityFromSI, sameDimension, type FormattedOutput, type Quantity } from './units';
+import { coerceInput, describeValue, type Quantity } from './units';
+import { formatFromSI, quantityFromSI, sameDimension, type FormattedOutput } from './unit-format';
 
 function inRange(spec: InputSpec, quantity: Quantity): boolean {
   const range = spec.range;

@@ -10,7 +10,7 @@ import { hashSheetDocument, type SheetBlock, type SheetDocument } from './docume
 import { EngineError, toSafeMessage } from './errors';
 import type { DependencyGraph } from './graph';
 import { blockMessage, prepare, type PreparedBlock } from './prepare';
-import { formatValue, valueFromFormatted, type FormattedOutput } from './units';
+import { formatValue, valueFromFormatted, type FormattedOutput } from './unit-format';
 import { isDistributionName, makeDistribution, valueOf, type Distribution } from './uncertainty/distributions';
 import { DISTRIBUTION_CALL, planUncertainty, type Spread, type UncertaintyEcho, type UncertaintyPlan } from './uncertainty/plan';
 import { propagateUncertainty } from './uncertainty/propagate';

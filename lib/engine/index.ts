@@ -16,7 +16,8 @@ import { checkExpression } from './expression';
 import { BLOCK_TYPES } from './registry';
 import { quoteAdvice, withQuoteAdvice } from './text-words';
 import { typicalRange } from './typical-ranges';
-import { DIMENSIONS, formatValue, type DimensionInfo, type FormattedOutput } from './units';
+import { DIMENSIONS, type DimensionInfo } from './units';
+import { formatValue, type FormattedOutput } from './unit-format';
 
 export { ENGINE_VERSION, RESULTS_FORMAT } from './evaluate';
 export type { BlockResult, BlockStatus, OutputResult, EvaluateOptions, SheetResults, Spread, UncertaintyEcho } from './evaluate';

@@ -5,7 +5,7 @@
 import { datasetOfInput } from '@/lib/datasets/references';
 import type { SheetDocument, SheetResults } from '@/lib/engine';
 import { checkExpression } from '@/lib/engine/expression';
-import { formatValue, valueFromFormatted, type FormattedOutput } from '@/lib/engine/units';
+import { formatValue, valueFromFormatted, type FormattedOutput } from '@/lib/engine/unit-format';
 
 /** A data input is shown by the dataset it pins (its rows are not a value to print). */
 export type EvaluatedInput =

@@ -2,7 +2,7 @@ import { describe, expect, it } from 'vitest';
 import { blockCatalog, evaluateSheet, hashDataset, type SheetBlock } from '@/lib/engine';
 import { coerceBlockInput, defaultValue } from '@/lib/engine/block-run';
 import { BLOCK_TYPES } from '@/lib/engine/registry';
-import { unitTemplate } from '@/lib/engine/units';
+import { unitTemplate } from '@/lib/engine/unit-format';
 import { isClose } from '../support/approx';
 import { sheet } from '../support/engine-sheets';
 

@@ -1,7 +1,7 @@
 import type { Unit } from 'mathjs';
 import { describe, expect, it } from 'vitest';
 import { checkExpression, math } from '@/lib/engine/expression';
-import { formatUnit, formatValue, quantityFromSI, unitTemplate, valueFromFormatted } from '@/lib/engine/units';
+import { formatUnit, formatValue, quantityFromSI, unitTemplate, valueFromFormatted } from '@/lib/engine/unit-format';
 
 // Reference library: mathjs 15.2.0 (Unit.toSI, Unit.to, Unit.toNumber, Unit.formatUnits). The
 // engine takes shortcuts through them on its hot path; these checks hold it to mathjs's own

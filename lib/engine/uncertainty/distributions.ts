@@ -7,7 +7,8 @@
 import type { Unit } from 'mathjs';
 import { EngineError } from '../errors';
 import { math } from '../expression';
-import { describeValue, quantityFromSI, type FormattedOutput } from '../units';
+import { describeValue } from '../units';
+import { quantityFromSI, type FormattedOutput } from '../unit-format';
 import { normalQuantile } from './stream';
 
 export const DISTRIBUTION_NAMES = ['normal', 'lognormal', 'uniform', 'triangular'] as const;

@@ -5,7 +5,7 @@
 import type { BlockTypeDefinition, Series } from '../block-type';
 import type { SheetDocument } from '../document';
 import type { CheckedExpression } from '../expression';
-import type { FormattedOutput } from '../units';
+import type { FormattedOutput } from '../unit-format';
 
 export type UncertaintyMethod = 'monte_carlo' | 'linear';
 

@@ -3,7 +3,7 @@
  * first-order (linear) interval and each input's share of the variance; in the output's display unit.
  */
 import { EngineError } from '../errors';
-import { formatFromSI, unitTemplate, type FormattedOutput } from '../units';
+import { formatFromSI, unitTemplate, type FormattedOutput } from '../unit-format';
 import type { NumericSpread, SpreadStatistics, UncertaintyPlan, UncertaintySettings } from './plan';
 import { averageRanks, histogram, mean, quantileSorted, sortedCopy, spearmanFromRanks, standardDeviation } from './statistics';
 import { normalQuantile } from './stream';
