@@ -156,16 +156,16 @@ export async function getRunDocument({ runId }: { runId: string }): Promise<Shee
 /** queued → running; false when the run is no longer queued (cancelled, or taken by another worker). */
 export async function markRunStarted({ runId }: { runId: string }): Promise<boolean> {
   const [, count] = await db().query(
-    `UPDATE runs SET status = 'running', started_at = now(), progress = 0 WHERE id = :runId AND status = 'queued'`,
+    `UPDATE runs SET status = 'running', started_at = now(), heartbeat_at = now(), progress = 0 WHERE id = :runId AND status = 'queued'`,
     { replacements: { runId }, type: QueryTypes.UPDATE },
   );
   return count === 1;
 }
 
-/** Records progress of a running run; false when it is no longer running (it was cancelled). */
+/** Records progress (and the heartbeat) of a running run; false when it is no longer running (it was cancelled). */
 export async function recordRunProgress({ runId, progress }: { runId: string; progress: number }): Promise<boolean> {
   const [, count] = await db().query(
-    `UPDATE runs SET progress = GREATEST(progress, :progress) WHERE id = :runId AND status = 'running'`,
+    `UPDATE runs SET progress = GREATEST(progress, :progress), heartbeat_at = now() WHERE id = :runId AND status = 'running'`,
     { replacements: { runId, progress: Math.min(1, Math.max(0, progress)) }, type: QueryTypes.UPDATE },
   );
   return count === 1;
@@ -264,4 +264,40 @@ export async function latestRevisionRuns({ sheetId, numbers }: { sheetId: string
     { replacements: { sheetId, numbers }, type: QueryTypes.SELECT },
   );
   return new Map(rows.map((row) => [row.revision_number!, toRecord(row)]));
+}
+
+/** The message of a run failed by the sweeper because its instance stopped writing its heartbeat. */
+export const STALLED_RUN_MESSAGE = 'the evaluation stopped: the app instance running it ended before it finished; evaluate again';
+
+/**
+ * Runs marked running whose heartbeat is older than `staleSeconds` (their instance ended mid-run)
+ * become failed with STALLED_RUN_MESSAGE; returns their ids.
+ */
+export async function failStalledRuns({ staleSeconds }: { staleSeconds: number }): Promise<string[]> {
+  const rows = await db().query<{ id: string }>(
+    `UPDATE runs SET status = 'failed', error = :error, finished_at = now()
+     WHERE status = 'running' AND COALESCE(heartbeat_at, started_at) < now() - make_interval(secs => :staleSeconds)
+     RETURNING id`,
+    { replacements: { error: STALLED_RUN_MESSAGE, staleSeconds }, type: QueryTypes.SELECT },
+  );
+  return rows.map((row) => row.id);
+}
+
+/**
+ * Runs still queued after `graceSeconds` with no job waiting or active for them on the queue (the
+ * instance that saved them ended before it sent the job), oldest first, at most `limit`. Reads
+ * pg-boss 10's job table (schema pgboss, `job`: name, data, state), read-only.
+ */
+export async function findOrphanedQueuedRuns({ queue, graceSeconds, limit }: { queue: string; graceSeconds: number; limit: number }): Promise<RunRecord[]> {
+  const rows = await db().query<RunRow>(
+    `SELECT ${COLUMNS} FROM runs r
+     WHERE r.status = 'queued' AND r.created_at < now() - make_interval(secs => :graceSeconds)
+       AND NOT EXISTS (
+         SELECT 1 FROM pgboss.job j
+         WHERE j.name = :queue AND j.data->>'runId' = r.id::text AND j.state IN ('created', 'retry', 'active')
+       )
+     ORDER BY r.created_at LIMIT :limit`,
+    { replacements: { queue, graceSeconds, limit }, type: QueryTypes.SELECT },
+  );
+  return rows.map(toRecord);
 }

@@ -17,6 +17,8 @@ export const QUEUES = {
   evaluationRun: { name: 'evaluation-run', retryLimit: 0, retryDelay: 0, retryBackoff: false },
   /** Deletes rate-limit counters whose window has ended (scheduled, RATE_LIMIT_PRUNE_CRON). */
   rateLimitPrune: { name: 'rate-limits-prune', retryLimit: 1, retryDelay: 60, retryBackoff: false },
+  /** Fails stalled long runs and queues again runs whose job was never sent (scheduled, lib/jobs/run-sweeper.ts). */
+  runSweep: { name: 'runs-sweep', retryLimit: 1, retryDelay: 30, retryBackoff: false },
 } as const;
 
 /** When the rate-limit counters are pruned: every 10 minutes (pg-boss sends one job per slot, whichever instance). */

@@ -6,6 +6,7 @@ import { getOutboxMessage, markOutboxAttemptFailed, markOutboxSent } from '@/lib
 import { notifyPasswordReset } from '@/lib/notifications';
 import { pruneRateLimits } from '@/lib/rate-limit';
 import { QUEUES, RATE_LIMIT_PRUNE_CRON, jobQueue } from './queue';
+import { RUN_SWEEP_CRON, sweepRuns } from './run-sweeper';
 import { startRunWorker } from './runs';
 
 /** Sends one outbox message; throws (so pg-boss retries) when the SMTP server does not take it. */
@@ -46,7 +47,16 @@ export async function startJobWorkers(): Promise<void> {
     for (const job of jobs) await runPasswordResetJob(job.data);
   });
   await scheduleRateLimitPruning(boss);
+  await scheduleRunSweeps(boss);
   await startRunWorker();
+}
+
+/** Schedules the sweep of stalled and unqueued long runs and works its jobs (every instance may; one job per minute). */
+export async function scheduleRunSweeps(boss: PgBoss): Promise<void> {
+  await boss.schedule(QUEUES.runSweep.name, RUN_SWEEP_CRON, {}, { tz: 'UTC' });
+  await boss.work(QUEUES.runSweep.name, { pollingIntervalSeconds: 10 }, async () => {
+    await sweepRuns();
+  });
 }
 
 /** Schedules the pruning of ended rate-limit windows and works its jobs (every instance may; one job per slot). */
