@@ -18,7 +18,3 @@ export interface BlockCardActions {
   /** Starts (id) or ends (null) editing a calculation block's caption. */
   setCaptionEditing: (id: string | null) => void;
 }
-
-/** The small square icon buttons of a block card. */
-export const iconButton =
-  'grid size-7 place-items-center rounded-[3px] text-slate hover:bg-wash hover:text-basalt disabled:opacity-40 disabled:hover:bg-transparent';

@@ -1,11 +1,12 @@
 'use client';
 
+import { Button } from '@/components/ui/button';
 import { useEffect, useRef, useState, type DragEvent } from 'react';
 import { OpenCommentCount } from '@/components/comments/comments-panel';
 import { BlockStatusBadge, type BlockState } from '@/components/sheet/block-status';
 import { ErrorText } from '@/components/ui/error-text';
 import type { CatalogType, SheetBlock } from '@/lib/sheet/types';
-import { iconButton, type BlockCardActions } from './block-actions';
+import type { BlockCardActions } from './block-actions';
 
 /** A block card's top row: drag handle, name (or the rename form), type, open comments, state and the edit buttons. */
 export function BlockHeader({
@@ -41,13 +42,14 @@ export function BlockHeader({
   return (
     <div className="flex flex-wrap items-center gap-x-2 gap-y-1">
       {canEdit ? (
-        <button
-          type="button"
+        <Button
+          variant="tool"
+          size="icon"
           draggable
           onDragStart={onDragStart}
           aria-label={`Move ${block.name}: drag, or Alt+Up / Alt+Down`}
           title="Drag to reorder (Alt+↑ / Alt+↓)"
-          className={`${iconButton} cursor-grab`}
+          className="cursor-grab"
           onKeyDown={(e) => {
             if (e.key === 'ArrowUp' || e.key === 'ArrowDown') {
               e.preventDefault();
@@ -56,17 +58,17 @@ export function BlockHeader({
           }}
         >
           <span aria-hidden="true">⠿</span>
-        </button>
+        </Button>
       ) : null}
       {renaming ? (
         <RenameForm block={block} onCancel={() => actions.setRenaming(null)} onRename={(name) => actions.rename(block.id, name)} />
       ) : (
         <h2 id={headingId} className="num text-[14px] font-semibold">
           {canEdit ? (
-            <button type="button" onClick={() => actions.setRenaming(block.id)} className="rounded-[2px] hover:underline" title="Rename (F2)">
+            <Button variant="text" size="inline" onClick={() => actions.setRenaming(block.id)} title="Rename (F2)">
               {block.name}
               <span className="sr-only"> (rename)</span>
-            </button>
+            </Button>
           ) : (
             block.name
           )}
@@ -81,38 +83,32 @@ export function BlockHeader({
         {canEdit ? (
           <>
             {!isNote ? (
-              <button
-                type="button"
-                className={iconButton}
+              <Button
+                variant="tool"
+                size="icon"
                 aria-label={block.note ? `Edit the caption of ${block.name}` : `Add a caption to ${block.name}`}
                 title={block.note ? 'Edit the caption' : 'Add a caption'}
                 aria-pressed={editingCaption}
                 onClick={() => actions.setCaptionEditing(editingCaption ? null : block.id)}
               >
                 <span aria-hidden="true">¶</span>
-              </button>
+              </Button>
             ) : null}
-            <button type="button" className={iconButton} aria-label={`Move ${block.name} up`} disabled={index === 0} onClick={() => actions.move(block.id, -1)}>
+            <Button variant="tool" size="icon" aria-label={`Move ${block.name} up`} disabled={index === 0} onClick={() => actions.move(block.id, -1)}>
               <span aria-hidden="true">↑</span>
-            </button>
-            <button
-              type="button"
-              className={iconButton}
-              aria-label={`Move ${block.name} down`}
-              disabled={index === count - 1}
-              onClick={() => actions.move(block.id, 1)}
-            >
+            </Button>
+            <Button variant="tool" size="icon" aria-label={`Move ${block.name} down`} disabled={index === count - 1} onClick={() => actions.move(block.id, 1)}>
               <span aria-hidden="true">↓</span>
-            </button>
-            <button type="button" className={iconButton} aria-label={`Duplicate ${block.name}`} title="Duplicate (Shift+D)" onClick={() => actions.duplicate(block.id)}>
+            </Button>
+            <Button variant="tool" size="icon" aria-label={`Duplicate ${block.name}`} title="Duplicate (Shift+D)" onClick={() => actions.duplicate(block.id)}>
               <svg aria-hidden="true" width="14" height="14" viewBox="0 0 16 16" fill="none" stroke="currentColor" strokeWidth="1.5">
                 <rect x="5" y="5" width="9" height="9" rx="1" />
                 <path d="M11 5V3a1 1 0 0 0-1-1H3a1 1 0 0 0-1 1v7a1 1 0 0 0 1 1h2" />
               </svg>
-            </button>
-            <button type="button" className={`${iconButton} hover:text-oxide`} aria-label={`Delete ${block.name}`} title="Delete (Delete; undo with Ctrl+Z)" onClick={() => actions.remove(block.id)}>
+            </Button>
+            <Button variant="tool-danger" size="icon" aria-label={`Delete ${block.name}`} title="Delete (Delete; undo with Ctrl+Z)" onClick={() => actions.remove(block.id)}>
               <span aria-hidden="true">✕</span>
-            </button>
+            </Button>
           </>
         ) : null}
       </span>
@@ -167,12 +163,12 @@ function RenameForm({ block, onCancel, onRename }: { block: SheetBlock; onCancel
         aria-describedby={error ? errorId : undefined}
         className="num h-7 w-56 rounded-[3px] border border-rule bg-chalk px-2 text-[13px]"
       />
-      <button type="submit" disabled={busy} className="h-7 rounded-[3px] bg-river px-2 text-[12px] text-river-ink">
+      <Button type="submit" variant="primary" size="sm" disabled={busy}>
         Rename
-      </button>
-      <button type="button" onClick={onCancel} className="h-7 rounded-[3px] border border-rule px-2 text-[12px]">
+      </Button>
+      <Button size="sm" onClick={onCancel}>
         Cancel
-      </button>
+      </Button>
       {error ? (
         <ErrorText id={errorId} size="sm" className="w-full">
           {error}

@@ -1,10 +1,11 @@
 'use client';
 
+import { Button } from '@/components/ui/button';
 import dynamic from 'next/dynamic';
 import { useEffect, useState } from 'react';
 import { DatasetPicker } from '@/components/datasets/dataset-picker';
 import type { CatalogInput, SheetBlock } from '@/lib/sheet/types';
-import { iconButton, type BlockCardActions } from './block-actions';
+import type { BlockCardActions } from './block-actions';
 import type { CompletionData } from './expression-language';
 
 // The density sketch of a declared distribution (and its quantile code) loads beside the field, not with the page.
@@ -72,9 +73,9 @@ export function InputsTable({
       ))}
       {free && canEdit ? (
         <div>
-          <button type="button" onClick={() => actions.addParameter(block.id)} className="h-7 rounded-[3px] border border-dashed border-rule px-2 text-[12px] text-slate hover:text-basalt">
+          <Button variant="dashed" size="sm" onClick={() => actions.addParameter(block.id)}>
             + Add parameter
-          </button>
+          </Button>
         </div>
       ) : null}
     </div>
@@ -233,9 +234,9 @@ function ParameterName({ block, name, canEdit, labelId, actions }: { block: Shee
             title={error ?? undefined}
             className={`num h-7 w-full rounded-[3px] border bg-chalk px-2 text-[13px] ${error ? 'border-oxide' : 'border-rule'}`}
           />
-          <button type="button" aria-label={`Remove parameter ${name}`} onClick={() => actions.removeParameter(block.id, name)} className={iconButton}>
+          <Button variant="tool" size="icon" aria-label={`Remove parameter ${name}`} onClick={() => actions.removeParameter(block.id, name)}>
             <span aria-hidden="true">−</span>
-          </button>
+          </Button>
         </>
       ) : (
         <span aria-hidden="true" className="num text-[13px] font-medium">

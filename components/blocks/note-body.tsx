@@ -1,5 +1,6 @@
 'use client';
 
+import { Button } from '@/components/ui/button';
 import { useEffect, useRef, useState } from 'react';
 import type { SheetBlock } from '@/lib/sheet/types';
 import { NoteMarkdown } from './note-markdown';
@@ -36,9 +37,9 @@ export function CaptionEditor({ block, onChange, onDone }: { block: SheetBlock; 
         className="w-full rounded-[3px] border border-rule bg-chalk p-2 text-[13px]"
       />
       <div>
-        <button type="button" onClick={onDone} className="h-7 rounded-[3px] border border-rule px-2 text-[12px]">
+        <Button size="sm" onClick={onDone}>
           Done
-        </button>
+        </Button>
       </div>
     </div>
   );
@@ -70,18 +71,18 @@ export function NoteBody({ block, canEdit, onChange }: { block: SheetBlock; canE
             className="w-full rounded-[3px] border border-rule bg-chalk p-2 text-[14px]"
           />
           <div>
-            <button type="button" onClick={() => setEditing(false)} className="h-7 rounded-[3px] border border-rule px-2 text-[12px]">
+            <Button size="sm" onClick={() => setEditing(false)}>
               Done
-            </button>
+            </Button>
           </div>
         </div>
       ) : (
         <div className="prose-note">
           {text ? <NoteMarkdown text={text} /> : <p className="text-slate">An empty note.</p>}
           {canEdit ? (
-            <button type="button" onClick={() => setEditing(true)} className="mt-1 h-7 rounded-[3px] border border-rule px-2 text-[12px] text-slate hover:text-basalt">
+            <Button variant="outline" size="sm" onClick={() => setEditing(true)} className="mt-1">
               Edit note
-            </button>
+            </Button>
           ) : null}
         </div>
       )}

@@ -1,7 +1,8 @@
 'use client';
 
 import { useId, useRef, useState, type KeyboardEvent } from 'react';
-import { handleFor, mentionAtCaret, mentionCandidates, mentionSegments, type MentionPerson } from '@/lib/comments/mentions';
+import { handleFor, mentionAtCaret, mentionCandidates, mentionSegments } from '@/lib/comments/mentions';
+import type { PublicUser as Person } from '@/lib/db/users';
 
 /**
  * A comment box with a picker of team members: typing `@` and a few letters lists the members that
@@ -21,7 +22,7 @@ export function MentionBox({
   name: string;
   label: string;
   placeholder?: string;
-  members: MentionPerson[];
+  members: Person[];
   multiline?: boolean;
   value: string;
   onValueChange: (value: string) => void;
@@ -40,7 +41,7 @@ export function MentionBox({
     setActive(0);
   };
 
-  const choose = (person: MentionPerson) => {
+  const choose = (person: Person) => {
     if (!at) return;
     const handle = handleFor(person, members);
     const before = value.slice(0, at.from);
@@ -130,7 +131,7 @@ export function MentionBox({
 }
 
 /** A comment body with its mentions marked: whom each reaches, or that it reaches nobody. */
-export function MentionText({ body, members }: { body: string; members: MentionPerson[] }) {
+export function MentionText({ body, members }: { body: string; members: Person[] }) {
   return (
     <>
       {mentionSegments(body, members).map((segment, i) =>

@@ -41,6 +41,7 @@ export function RevisionSideRail({
       ) : null}
       <div role="listbox" aria-label="Blocks" className="flex flex-col rounded-[4px] border border-rule bg-chalk text-[13px]">
         {blocks.map((b) => (
+          // An option of the listbox, not an action: it keeps the list's row look.
           <button
             key={b.id}
             type="button"

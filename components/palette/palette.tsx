@@ -3,34 +3,14 @@
 import { Command, defaultFilter } from 'cmdk';
 import { useQuery, useQueryClient } from '@tanstack/react-query';
 import { useCallback, useEffect, useMemo, useState, type ReactNode } from 'react';
-import { formatNumber } from '@/lib/sheet/format';
-import { Button } from '@/components/ui/button';
-import type { QuickAnswer, QuickRecord } from '@/lib/sheet/types';
+import type { QuickRecord } from '@/lib/sheet/types';
 import { GlobalCommands } from './global-commands';
 import { ShortcutsSheet } from './shortcuts-sheet';
 import { RegistryProvider, useRegistrySnapshot, type PaletteCommand } from './command-registry';
 import { isTypingTarget } from './shortcuts';
 import { isRiskyCommand, needsConfirmation, riskyCommandScore } from './command-safety';
 import { apiFetch } from '@/lib/api-client';
-
-const LOOKS_LIKE_EXPRESSION = /[0-9(]/;
-
-function postQuick(expr: string, preview: boolean): Promise<QuickAnswer> {
-  return apiFetch<QuickAnswer>('/api/quick', { body: { expr, preview } });
-}
-
-export function formatQuick(answer: QuickAnswer): string {
-  return `${typeof answer.value === 'number' ? formatNumber(answer.value) : answer.value}${answer.unit ? ` ${answer.unit}` : ''}`;
-}
-
-function useDebounced<T>(value: T, ms: number): T {
-  const [debounced, setDebounced] = useState(value);
-  useEffect(() => {
-    const t = setTimeout(() => setDebounced(value), ms);
-    return () => clearTimeout(t);
-  }, [value, ms]);
-  return debounced;
-}
+import { ConfirmCommand, LOOKS_LIKE_EXPRESSION, QuickResult, formatQuick, postQuick, useDebounced } from './quick-calculation';
 
 /** The palette (Ctrl+K / ⌘K), its command registry and the shortcuts sheet, for every workspace page. */
 export function PaletteProvider({ children }: { children: ReactNode }) {
@@ -209,35 +189,7 @@ function Palette({
       </div>
       <Command.List className="max-h-[min(60vh,480px)] overflow-y-auto p-1.5" aria-label="Commands">
         {showQuick ? (
-          <Command.Group heading="Quick calculation" forceMount className="palette-group">
-            <Command.Item value="__quick" forceMount onSelect={acceptQuick} className="palette-item" data-testid="quick-result">
-              <span aria-hidden="true" className="text-slate">=</span>
-              <span className="flex min-w-0 flex-col">
-                {!quickIsCurrent || (quick.isFetching && !quick.data) ? (
-                  <span className="text-slate">Calculating…</span>
-                ) : quick.isError ? (
-                  <span className="text-oxide">
-                    <span aria-hidden="true">✕ </span>
-                    {quick.error.message}
-                  </span>
-                ) : quick.data ? (
-                  <span className="num" data-testid="quick-value">
-                    {formatQuick(quick.data)}
-                    {quick.data.siUnit !== quick.data.unit && typeof quick.data.si === 'number' ? (
-                      <span className="ml-2 text-slate">
-                        = {formatNumber(quick.data.si)} {quick.data.siUnit} (SI)
-                      </span>
-                    ) : null}
-                  </span>
-                ) : (
-                  <span className="text-slate">Calculating…</span>
-                )}
-                <span className="text-[12px] text-slate">
-                  {quickInsert ? 'Enter inserts it into this sheet as a formula block' : 'Enter keeps it in your recent quick calculations'}
-                </span>
-              </span>
-            </Command.Item>
-          </Command.Group>
+          <QuickResult quick={quick} current={quickIsCurrent} canInsert={quickInsert !== null} onAccept={acceptQuick} />
         ) : null}
         {notice ? (
           <p role="status" className="px-2 py-1.5 text-[12px] text-slate">
@@ -245,18 +197,7 @@ function Palette({
           </p>
         ) : null}
         {pending ? (
-          <div role="alertdialog" aria-labelledby="palette-confirm-title" className="m-1 rounded-[4px] border border-oxide/60 p-3" data-testid="palette-confirm">
-            <p id="palette-confirm-title" className="text-[13px] font-medium">
-              {pending.title}?
-            </p>
-            <p className="mt-1 text-[12px] text-slate">Confirm to go ahead, or press Escape to keep things as they are.</p>
-            <div className="mt-2 flex gap-2">
-              <Button variant="danger" autoFocus onClick={() => runCommand(pending)}>
-                {pending.title}
-              </Button>
-              <Button onClick={() => setPending(null)}>Cancel</Button>
-            </div>
-          </div>
+          <ConfirmCommand command={pending} onConfirm={() => runCommand(pending)} onCancel={() => setPending(null)} />
         ) : null}
         <Command.Empty className="px-2 py-3 text-[13px] text-slate">No command matches. Type a number or a bracket to calculate.</Command.Empty>
         {groups.map(([group, list]) => (

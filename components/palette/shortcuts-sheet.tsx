@@ -1,5 +1,6 @@
 'use client';
 
+import { Button } from '@/components/ui/button';
 import { useEffect, useRef } from 'react';
 import { useRegistrySnapshot } from './command-registry';
 import { FIXED_SHORTCUTS } from './shortcuts';
@@ -35,9 +36,9 @@ export function ShortcutsSheet({ onClose }: { onClose: () => void }) {
           <h2 id="shortcuts-title" className="text-[16px] font-semibold">
             Keyboard shortcuts
           </h2>
-          <button ref={closeRef} type="button" onClick={onClose} className="h-7 rounded-[3px] border border-rule px-2 text-[12px] hover:bg-wash">
+          <Button ref={closeRef} size="sm" onClick={onClose}>
             Close
-          </button>
+          </Button>
         </div>
         {groups.map((group) => (
           <section key={group} className="mt-3">

@@ -1,5 +1,6 @@
 'use client';
 
+import { Button } from '@/components/ui/button';
 import { useEffect, useState } from 'react';
 import { useCommandRegistry } from './command-registry';
 import { currentTheme, toggleTheme, type Theme } from '@/lib/ui/theme';
@@ -14,28 +15,18 @@ export function ThemeToggle() {
   }, []);
   const next = theme === 'dark' ? 'light' : 'dark';
   return (
-    <button
-      type="button"
-      onClick={() => toggleTheme()}
-      aria-label={theme ? `Switch to the ${next} theme` : 'Switch theme'}
-      title="Switch theme"
-      className="grid size-8 place-items-center rounded-[3px] text-slate hover:bg-wash hover:text-basalt"
-    >
+    <Button variant="tool" size="icon-lg" onClick={() => toggleTheme()} aria-label={theme ? `Switch to the ${next} theme` : 'Switch theme'} title="Switch theme">
       <span aria-hidden="true">{theme === 'dark' ? '☀' : '☾'}</span>
-    </button>
+    </Button>
   );
 }
 
 export function PaletteButton() {
   const { open } = useCommandRegistry();
   return (
-    <button
-      type="button"
-      onClick={() => open()}
-      className="flex h-8 items-center gap-2 rounded-[3px] border border-rule bg-chalk px-2 text-[12px] text-slate hover:text-basalt"
-    >
+    <Button variant="outline" size="bare" onClick={() => open()} className="flex h-8 items-center gap-2 rounded-[3px] px-2 text-[12px]">
       Commands
       <kbd className="palette-kbd hidden sm:inline">Ctrl K</kbd>
-    </button>
+    </Button>
   );
 }

@@ -1,5 +1,6 @@
 'use client';
 
+import { Button } from '@/components/ui/button';
 import * as Plot from '@observablehq/plot';
 import { useEffect, useRef, useState } from 'react';
 import { buildFigure } from '@/lib/plot/data-block-plots';
@@ -112,12 +113,12 @@ export default function SeriesFigure({
       <figcaption className="mt-1 flex flex-wrap items-center justify-between gap-2 text-[12px] text-slate">
         <span>{caption}</span>
         <span className="flex gap-1.5">
-          <button type="button" onClick={downloadSvg} className="h-7 rounded-[3px] border border-rule bg-chalk px-2 hover:bg-wash">
+          <Button size="sm" onClick={downloadSvg}>
             Download SVG
-          </button>
-          <button type="button" onClick={downloadPng} className="h-7 rounded-[3px] border border-rule bg-chalk px-2 hover:bg-wash">
+          </Button>
+          <Button size="sm" onClick={downloadPng}>
             Download PNG
-          </button>
+          </Button>
         </span>
       </figcaption>
     </figure>

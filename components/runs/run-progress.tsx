@@ -1,5 +1,6 @@
 'use client';
 
+import { Button } from '@/components/ui/button';
 import { useEffect, useRef, useState } from 'react';
 import type { SheetResults } from '@/lib/sheet/types';
 import { ApiError, apiFetch, failureOf } from '@/lib/api-client';
@@ -114,14 +115,9 @@ export function RunProgress({
         <div className="h-full bg-river transition-[width] duration-300" style={{ width: `${percent}%` }} />
       </div>
       {active ? (
-        <button
-          type="button"
-          onClick={() => void cancel()}
-          disabled={cancelling}
-          className="h-7 rounded-[3px] border border-rule bg-chalk px-3 text-[13px] hover:bg-chalk/70 disabled:opacity-60"
-        >
+        <Button size="bare" onClick={() => void cancel()} disabled={cancelling} className="h-7 rounded-[3px] px-3 text-[13px]">
           {cancelling ? 'Cancelling…' : 'Cancel'}
-        </button>
+        </Button>
       ) : null}
       {run.error ? <span className="text-oxide">{run.error}</span> : null}
       {problem ? <span className="text-oxide">{problem}</span> : null}

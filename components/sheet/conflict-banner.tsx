@@ -1,6 +1,7 @@
 'use client';
 
-import type { Conflict } from './use-sheet-draft';
+import { Button } from '@/components/ui/button';
+import type { Conflict } from '@/lib/sheet/draft-state';
 
 /** Someone else saved first (or this browser kept older edits): re-apply mine, or take theirs. */
 export function ConflictBanner({ conflict, onReapply, onKeepTheirs }: { conflict: Conflict; onReapply: () => void; onKeepTheirs: () => void }) {
@@ -14,12 +15,10 @@ export function ConflictBanner({ conflict, onReapply, onKeepTheirs }: { conflict
       </p>
       <p className="mt-1">Your edits are kept here. Re-apply them on top of the current version (block by block), or take the current version and drop yours.</p>
       <div className="mt-2 flex flex-wrap gap-2">
-        <button type="button" onClick={onReapply} className="h-8 rounded-[3px] bg-river px-3 text-[13px] font-medium text-river-ink">
+        <Button variant="primary" onClick={onReapply}>
           Re-apply my edits on version {conflict.serverVersion}
-        </button>
-        <button type="button" onClick={onKeepTheirs} className="h-8 rounded-[3px] border border-rule bg-chalk px-3 text-[13px]">
-          Keep their version
-        </button>
+        </Button>
+        <Button onClick={onKeepTheirs}>Keep their version</Button>
       </div>
     </div>
   );

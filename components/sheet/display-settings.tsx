@@ -1,5 +1,6 @@
 'use client';
 
+import { Button } from '@/components/ui/button';
 import { SIGNIFICANT_FIGURES_MAX, SIGNIFICANT_FIGURES_MIN, type SheetPreferences } from '@/lib/sheet/preferences';
 
 /**
@@ -34,15 +35,10 @@ export function DisplaySettings({
           ))}
         </select>
       </label>
-      <button
-        type="button"
-        aria-pressed={!preferences.siFolded}
-        onClick={() => onChange({ siFolded: !preferences.siFolded })}
-        className="h-7 rounded-[3px] border border-rule bg-chalk px-2 text-[12px] text-basalt hover:bg-wash"
-      >
+      <Button size="sm" aria-pressed={!preferences.siFolded} onClick={() => onChange({ siFolded: !preferences.siFolded })}>
         <span aria-hidden="true">{preferences.siFolded ? '○ ' : '✓ '}</span>
         SI column
-      </button>
+      </Button>
       <span>{shared ? 'Display only: results keep every digit.' : 'Your view only (display; results keep every digit).'}</span>
     </div>
   );

@@ -1,4 +1,4 @@
-import type { SaveState } from './use-sheet-draft';
+import type { SaveState } from '@/lib/sheet/draft-state';
 
 /** The draft's save state in words (with the evaluation state beside it), announced politely. */
 export function SaveIndicator({ state, evaluating, evaluateError }: { state: SaveState; evaluating: boolean; evaluateError: string | null }) {

@@ -1,3 +1,4 @@
+import { Button } from '@/components/ui/button';
 import Link from 'next/link';
 import type { ReactNode } from 'react';
 import { StatusTag, type SheetStatus } from '@/components/ui/status';
@@ -100,9 +101,9 @@ export function SheetHeader({
               <div className="flex flex-wrap items-baseline gap-2">
                 <h1 className="text-[20px] font-semibold tracking-tight">{title}</h1>
                 {onEditTitle ? (
-                  <button type="button" onClick={onEditTitle} className="text-[12px] text-river underline-offset-2 hover:underline">
+                  <Button variant="link" size="inline" onClick={onEditTitle} className="text-[12px]">
                     Edit title and site
-                  </button>
+                  </Button>
                 ) : null}
               </div>
               <dl className="mt-1 flex flex-wrap items-center gap-x-4 gap-y-1 text-[12px] text-slate">

@@ -1,5 +1,7 @@
 'use client';
 
+import { Button } from '@/components/ui/button';
+
 /** A failed import, with the reason, until dismissed. */
 export function ImportError({ message, onDismiss }: { message: string; onDismiss: () => void }) {
   return (
@@ -8,9 +10,9 @@ export function ImportError({ message, onDismiss }: { message: string; onDismiss
         <span aria-hidden="true" className="text-oxide">✕ </span>
         {message}
       </span>
-      <button type="button" onClick={onDismiss} className="text-[12px] text-slate hover:text-basalt">
+      <Button variant="subtle" size="inline" onClick={onDismiss} className="text-[12px]">
         Dismiss
-      </button>
+      </Button>
     </div>
   );
 }
@@ -20,9 +22,9 @@ export function SheetNotice({ message, onDismiss }: { message: string; onDismiss
   return (
     <div role="status" className="flex items-start justify-between gap-2 rounded-[4px] border border-rule bg-wash px-3 py-2 text-[13px]">
       <span>{message}</span>
-      <button type="button" onClick={onDismiss} className="text-[12px] text-slate hover:text-basalt">
+      <Button variant="subtle" size="inline" onClick={onDismiss} className="text-[12px]">
         Dismiss
-      </button>
+      </Button>
     </div>
   );
 }

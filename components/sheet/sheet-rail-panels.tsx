@@ -1,7 +1,7 @@
 'use client';
 
 import { CommentsPanel } from '@/components/comments/comments-panel';
-import type { MentionPerson } from '@/lib/comments/mentions';
+import type { PublicUser as Person } from '@/lib/db/users';
 import type { CatalogType, SheetBlock } from '@/lib/sheet/types';
 import { HelpPanel } from './help-panel';
 import type { RailPanel } from './side-rail';
@@ -20,7 +20,7 @@ export function blockRailPanels({
   members,
 }: {
   teamId: string;
-  members: MentionPerson[];
+  members: Person[];
   sheetId: string;
   block: SheetBlock | null;
   type: CatalogType | null;

@@ -1,5 +1,7 @@
 'use client';
 
+import { Button } from '@/components/ui/button';
+
 /** The sheet's main actions beside its title: evaluate, add a block, save a revision, fork. */
 export function SheetToolbar({
   canEdit,
@@ -18,28 +20,21 @@ export function SheetToolbar({
 }) {
   return (
     <>
-      <button type="button" onClick={onEvaluate} className="h-8 rounded-[3px] border border-rule bg-chalk px-3 text-[13px] hover:bg-wash" title="Ctrl+Enter">
+      <Button onClick={onEvaluate} title="Ctrl+Enter">
         Evaluate now
-      </button>
+      </Button>
       {canEdit ? (
-        <button type="button" onClick={onAdd} className="h-8 rounded-[3px] border border-rule bg-chalk px-3 text-[13px] hover:bg-wash" title="Alt+A">
+        <Button onClick={onAdd} title="Alt+A">
           Add block…
-        </button>
+        </Button>
       ) : null}
       {canEdit ? (
-        <button
-          type="button"
-          onClick={onSave}
-          className="h-8 rounded-[3px] border border-river bg-river px-3 text-[13px] font-medium text-river-ink hover:opacity-90"
-          title="Ctrl+S"
-        >
+        <Button variant="primary" onClick={onSave} title="Ctrl+S">
           Save revision…
-        </button>
+        </Button>
       ) : null}
       {canFork ? (
-        <button type="button" onClick={onFork} className="h-8 rounded-[3px] border border-rule bg-chalk px-3 text-[13px] hover:bg-wash">
-          Fork…
-        </button>
+        <Button onClick={onFork}>Fork…</Button>
       ) : null}
     </>
   );

@@ -1,79 +1,39 @@
 'use client';
 
-import dynamic from 'next/dynamic';
-import { useRouter } from 'next/navigation';
 import { useCallback, useMemo, useRef, useState } from 'react';
-import { useSheetComments } from '@/components/comments/comments-panel';
-import { ReviewBar, useReviewActions, type ReviewState } from '@/components/review/review-bar';
-import type { ReviewNote } from '@/components/review/review-notes';
-import { DraftStandingNote } from '@/components/sheet/draft-standing';
-import type { DraftStanding } from '@/lib/sheet/draft-standing.server';
+import { useSheetComments } from '@/components/comments/use-comments';
+import { useReviewActions } from '@/components/review/review-bar';
 import { useQuickInsert, useRegisterCommands, useCommandRegistry } from '@/components/palette/command-registry';
 import { roleAllows } from '@/lib/auth/permissions';
-import type { SheetStatus } from '@/components/ui/status';
-import { sameJson } from '@/lib/sheet/merge';
 import { withTitleSite } from '@/lib/sheet/title-site';
-import type { BlockCatalogData, SheetDocument, UncertaintySettingsData } from '@/lib/sheet/types';
+import type { UncertaintySettingsData } from '@/lib/sheet/types';
 import { BlockList } from './block-list';
 import { ConflictBanner } from './conflict-banner';
 import { blockRailPanels } from './sheet-rail-panels';
-import { SheetHeader, type ForkItem, type ForkOrigin } from './sheet-header';
+import { SheetHeader } from './sheet-header';
 import { ImportError, SheetNotice } from './sheet-notices';
 import { SheetToolbar } from './sheet-toolbar';
 import { SideRail, type RailPanel } from './side-rail';
 import { TitleSiteForm } from './title-site-form';
-import { UncertaintySettings, withUncertainty } from '@/components/uncertainty/uncertainty-settings';
+import { withUncertainty } from '@/components/uncertainty/uncertainty-settings';
 import { useUncertaintyCommands } from '@/components/uncertainty/use-uncertainty-commands';
 import { RunProgress } from '@/components/runs/run-progress';
 import { SaveIndicator } from './save-indicator';
-import { focusBlock, useBlockActions } from './use-block-actions';
+import { useBlockActions } from './use-block-actions';
+import { useBlockSelection } from './use-block-selection';
 import { useBlockResults, useCompletions } from './use-block-results';
 import { useSheetCommands } from './use-sheet-commands';
 import { useSheetDraft } from './use-sheet-draft';
 import { useSheetKeyboard } from './use-sheet-keyboard';
 import { useSheetTransfer } from './use-sheet-transfer';
-import { DisplaySettings } from './display-settings';
-import { apiFetch } from '@/lib/api-client';
-import type { MentionPerson } from '@/lib/comments/mentions';
-import { DEFAULT_SHEET_PREFERENCES, type SheetPreferences } from '@/lib/sheet/preferences';
-import type { TeamRole as Role } from '@/models';
-import type { PublicUser as Person } from '@/lib/db/users';
+import { SheetStanding } from './sheet-standing';
+import { SheetDialogs, type SheetDialog } from './sheet-dialogs';
+import { useSheetPreferences } from './use-sheet-preferences';
+import type { SheetWorkspaceProps } from './sheet-workspace-props';
 
-// The dialogs load when first opened, so their code stays out of the page's first download.
-const SaveRevisionDialog = dynamic(() => import('@/components/history/save-revision-dialog').then((m) => m.SaveRevisionDialog), { ssr: false });
-const ForkDialog = dynamic(() => import('@/components/history/fork-dialog').then((m) => m.ForkDialog), { ssr: false });
+export type { SheetWorkspaceProps };
+import { DEFAULT_SHEET_PREFERENCES } from '@/lib/sheet/preferences';
 
-
-export interface SheetWorkspaceProps {
-  sheetId: string;
-  /** The team the sheet belongs to (imports from this page go there). */
-  teamId: string;
-  draft: { version: number; document: SheetDocument };
-  head: { number: number; hash: string; status: SheetStatus } | null;
-  /** Sign-off of the head revision (null while the sheet has no revision). */
-  review: ReviewState | null;
-  /** Review actions on the head revision with their notes. */
-  reviewNotes?: ReviewNote[];
-  /** Whether the stored draft differs from the head and the last approved revision. */
-  draftStanding?: DraftStanding;
-  forkedFrom: ForkOrigin | null;
-  forks: ForkItem[];
-  catalog: BlockCatalogData;
-  canEdit: boolean;
-  role: Role;
-  user: { id: string; name: string };
-  /** Members who may check a revision (owners and reviewers). */
-  checkers: Person[];
-  /** Teams the user may fork into (editor or owner there); empty: no fork. */
-  forkTeams: { id: string; name: string }[];
-  otherSheets: { id: string; title: string }[];
-  /** Extra rail panels (comments, history...) added by later features. */
-  extraPanels?: RailPanel[];
-  /** The team's members (a comment can mention them). */
-  members?: MentionPerson[];
-  /** Display preferences stored beside the sheet (CONTRACT §6b). */
-  preferences?: SheetPreferences;
-}
 
 export function SheetWorkspace({
   sheetId,
@@ -96,7 +56,6 @@ export function SheetWorkspace({
   members = [],
   preferences: storedPreferences = DEFAULT_SHEET_PREFERENCES,
 }: SheetWorkspaceProps) {
-  const router = useRouter();
   const { open: openPalette } = useCommandRegistry();
   const canComment = roleAllows(role, 'comment');
   const canFork = forkTeams.length > 0;
@@ -104,20 +63,18 @@ export function SheetWorkspace({
   const { doc, apply, setNotice } = draft;
   const docRef = useRef(doc);
   docRef.current = doc;
-  const [selectedId, setSelectedId] = useState<string | null>(doc.blocks[0]?.id ?? null);
-  const [renamingId, setRenamingId] = useState<string | null>(null);
-  const [captionId, setCaptionId] = useState<string | null>(null);
+  const { selectedId, setSelectedId, selectedRef, renamingId, setRenamingId, captionId, setCaptionId, freshIds, markFresh, revealAll, selectAdjacent, goTo, editFields } =
+    useBlockSelection(docRef);
   const [railTab, setRailTab] = useState('help');
   const [editingTitle, setEditingTitle] = useState(false);
-  const [dialog, setDialog] = useState<'save' | 'fork' | null>(null);
+  const [dialog, setDialog] = useState<SheetDialog>(null);
+  const closeDialog = useCallback(() => setDialog(null), []);
   const [savedHead, setSavedHead] = useState(0);
   const headNumber = Math.max(head?.number ?? 0, savedHead);
   const comments = useSheetComments(sheetId, { poll: true });
   const reviewActions = useReviewActions({ sheetId, revision: head?.number ?? 0 });
   // Palette review commands open the review bar's confirm step (with a note), never act at once.
   const reviewAct = reviewActions.ask;
-  const selectedRef = useRef(selectedId);
-  selectedRef.current = selectedId;
   const types = useMemo(() => new Map(catalog.types.map((t) => [t.id, t])), [catalog]);
   const { resultsById, stateOf } = useBlockResults(draft);
   const completions = useCompletions({ doc, docRef, catalog, types });
@@ -133,72 +90,30 @@ export function SheetWorkspace({
   });
   const { transferError, setTransferError, importRef, importFile, chooseImport, exportHead } = useSheetTransfer({ sheetId, teamId });
   // Blocks added in this visit: their empty required inputs read “needs input” until left or saved.
-  const [freshIds, setFreshIds] = useState<ReadonlySet<string>>(() => new Set());
   const addBlock = useCallback(
     (...args: Parameters<typeof addBlockNow>) => {
       const block = addBlockNow(...args);
-      setFreshIds((s) => new Set([...s, block.id]));
+      markFresh(block.id);
       return block;
     },
-    [addBlockNow],
+    [addBlockNow, markFresh],
   );
-  const revealAll = useCallback(() => setFreshIds((s) => (s.size ? new Set() : s)), []);
-  const [prefs, setPrefs] = useState<SheetPreferences>(storedPreferences);
-  const changePrefs = useCallback(
-    (change: Partial<SheetPreferences>) => {
-      setPrefs((p) => ({ ...p, ...change }));
-      // Stored for the sheet by owners and editors; a failure leaves this view changed and says so.
-      if (canEdit) {
-        apiFetch(`/api/sheets/${sheetId}/preferences`, { method: 'PUT', body: change }).catch(() =>
-          setNotice('The display setting could not be stored for the sheet; it applies to this view only.'),
-        );
-      }
-    },
-    [canEdit, sheetId, setNotice],
-  );
-
-  const onRevisionSaved = useCallback(
-    (saved: { number: number; hash: string; evaluating?: boolean }, savedDocument: unknown) => {
-      setSavedHead(saved.number);
-      // After a 409 the saved document is the user's edits re-applied on the newest revision: the draft follows it.
-      if (!sameJson(savedDocument, docRef.current)) apply(savedDocument as SheetDocument);
-      setNotice(
-        saved.evaluating
-          ? `Saved revision r${saved.number} (${saved.hash.slice(0, 10)}). It is too costly to evaluate at once: a long run stores its results (see the revision page); a check can be asked for after that.`
-          : `Saved revision r${saved.number} (${saved.hash.slice(0, 10)}). It starts unsigned: ask for a check in the sign-off bar.`,
-      );
-      router.refresh();
-    },
-    [apply, setNotice, router],
-  );
+  const { prefs, changePrefs } = useSheetPreferences({ sheetId, canEdit, stored: storedPreferences, setNotice });
 
   /* ---------------------------------------------------- palette and keyboard */
   const openSave = useCallback(() => {
     revealAll();
     setDialog('save');
   }, [setDialog, revealAll]);
+  const { evaluateNow: evaluateDraft } = draft;
   const evaluateNow = useCallback(() => {
     revealAll();
-    draft.evaluateNow();
-  }, [draft, revealAll]);
-  const selectAdjacent = useCallback((delta: number) => {
-    const blocks = docRef.current.blocks;
-    const index = blocks.findIndex((b) => b.id === selectedRef.current);
-    const block = blocks[Math.max(0, Math.min(blocks.length - 1, index < 0 ? 0 : index + delta))];
-    if (block) {
-      setSelectedId(block.id);
-      focusBlock(block.id);
-    }
-  }, []);
-  const editFields = useCallback((id: string) => focusBlock(id, true), []);
+    evaluateDraft();
+  }, [evaluateDraft, revealAll]);
   const openFork = useCallback(() => setDialog('fork'), [setDialog]);
   const editTitle = useCallback(() => setEditingTitle(true), [setEditingTitle]);
   const showComments = useCallback(() => setRailTab('comments'), [setRailTab]);
   const openAdd = useCallback(() => openPalette('Add '), [openPalette]);
-  const goTo = useCallback((id: string) => {
-    setSelectedId(id);
-    focusBlock(id);
-  }, []);
   const selectedBlock = doc.blocks.find((b) => b.id === selectedId) ?? null;
   const commands = useSheetCommands({
     sheetId,
@@ -297,33 +212,23 @@ export function SheetWorkspace({
         state={<SaveIndicator state={draft.saveState} evaluating={draft.evaluating} evaluateError={draft.evaluateError} />}
         actions={<SheetToolbar canEdit={canEdit} canFork={canFork} onEvaluate={evaluateNow} onAdd={openAdd} onSave={openSave} onFork={openFork} />}
       >
-        <DisplaySettings preferences={prefs} shared={canEdit} onChange={changePrefs} />
-        <UncertaintySettings doc={doc} canEdit={canEdit} onChange={changeUncertainty} />
-        {!canEdit ? (
-          <p className="text-[12px] text-slate">
-            You are a {role} in this team: fields are read-only. You can evaluate{canComment ? ', comment' : ''} and read everything.
-          </p>
-        ) : null}
-        {draftStanding ? <DraftStandingNote sheetId={sheetId} standing={draftStanding} /> : null}
-        {head && review ? (
-          <ReviewBar
-            key={head.number}
-            sheetId={sheetId}
-            revision={head.number}
-            isHead
-            review={review}
-            role={role}
-            userId={user.id}
-            checkers={checkers}
-            controller={reviewActions}
-            notes={reviewNotes}
-            draftDiffers={draftStanding?.head?.differs ?? false}
-          />
-        ) : (
-          <p className="text-[12px] text-slate">
-            No revision yet: sign-off (prepared, checked, approved) starts when a revision is saved.
-          </p>
-        )}
+        <SheetStanding
+          sheetId={sheetId}
+          doc={doc}
+          canEdit={canEdit}
+          canComment={canComment}
+          role={role}
+          userId={user.id}
+          prefs={prefs}
+          onPrefsChange={changePrefs}
+          onUncertaintyChange={changeUncertainty}
+          draftStanding={draftStanding}
+          head={head}
+          review={review}
+          reviewNotes={reviewNotes}
+          reviewActions={reviewActions}
+          checkers={checkers}
+        />
       </SheetHeader>
 
       {canEdit ? <input ref={importRef} type="file" accept=".json,application/json" hidden onChange={importFile} data-testid="import-file" /> : null}
@@ -358,12 +263,20 @@ export function SheetWorkspace({
         <SideRail panels={panels} active={railTab} onActiveChange={setRailTab} />
       </div>
 
-      {dialog === 'save' && canEdit ? (
-        <SaveRevisionDialog open onClose={() => setDialog(null)} sheetId={sheetId} baseRevision={headNumber} document={doc} onSaved={onRevisionSaved} />
-      ) : null}
-      {dialog === 'fork' && canFork ? (
-        <ForkDialog open onClose={() => setDialog(null)} sheetId={sheetId} sourceTitle={doc.title} revision={head?.number} teams={forkTeams} />
-      ) : null}
+      <SheetDialogs
+        dialog={dialog}
+        onClose={closeDialog}
+        sheetId={sheetId}
+        doc={doc}
+        canEdit={canEdit}
+        canFork={canFork}
+        headNumber={headNumber}
+        forkTeams={forkTeams}
+        forkRevision={head?.number}
+        apply={apply}
+        setNotice={setNotice}
+        onHeadSaved={setSavedHead}
+      />
     </div>
   );
 }

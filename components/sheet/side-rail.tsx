@@ -1,5 +1,6 @@
 'use client';
 
+import { Button } from '@/components/ui/button';
 import { useId, useState, type ReactNode } from 'react';
 
 /** One tab of the side rail. Adding a panel is one more entry in the list the page passes. */
@@ -41,20 +42,22 @@ export function SideRail({
   return (
     <aside aria-label={label} data-side-rail="" className="lg:sticky lg:top-16 lg:max-h-[calc(100vh-5rem)] lg:overflow-y-auto">
       {/* On a phone or tablet the rail is a drawer, opened from a button that stays in reach of the thumb. */}
-      <button
-        type="button"
+      <Button
+        variant="quiet"
+        size="bare"
         data-rail-toggle=""
-        className="fixed bottom-3 right-3 z-30 h-10 rounded-full border border-rule bg-chalk px-4 text-[13px] font-medium shadow-lg lg:hidden"
+        className="fixed bottom-3 right-3 z-30 h-10 rounded-full px-4 text-[13px] font-medium shadow-lg lg:hidden"
         aria-expanded={openOnNarrow}
         onClick={() => setOpenOnNarrow((v) => !v)}
       >
         {openOnNarrow ? 'Close' : panels.map((p) => p.title).join(' · ')}
-      </button>
+      </Button>
       <div
         className={`${openOnNarrow ? 'fixed inset-x-0 bottom-0 z-20 block max-h-[75vh] overflow-y-auto pb-16 shadow-2xl' : 'hidden'} rounded-[4px] border border-rule bg-chalk lg:static lg:block lg:max-h-none lg:overflow-visible lg:pb-0 lg:shadow-none`}
       >
         <div role="tablist" aria-label={label} className="flex border-b border-rule px-2">
           {panels.map((panel, index) => (
+            // A tab of the tablist, not an action: its look and arrow keys are the tablist's own.
             <button
               key={panel.id}
               id={`${base}-tab-${panel.id}`}

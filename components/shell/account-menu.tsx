@@ -1,5 +1,6 @@
 'use client';
 
+import { Button } from '@/components/ui/button';
 import { signOut } from 'next-auth/react';
 import { useEffect, useRef, useState } from 'react';
 
@@ -20,24 +21,26 @@ export function AccountMenu({ name, email }: { name: string; email: string }) {
   }, [open]);
   return (
     <div className="relative" ref={ref}>
-      <button
-        type="button"
+      <Button
+        variant="ghost"
+        size="bare"
         aria-haspopup="menu"
         aria-expanded={open}
         onClick={() => setOpen((v) => !v)}
-        className="flex h-8 items-center gap-2 rounded-[3px] px-2 text-[13px] hover:bg-wash"
+        className="flex h-8 items-center gap-2 rounded-[3px] px-2 text-[13px]"
       >
         <span aria-hidden="true" className="grid size-6 place-items-center rounded-full bg-wash text-[11px] font-semibold">
           {name.slice(0, 1).toUpperCase()}
         </span>
         <span className="sr-only sm:not-sr-only">{name}</span>
-      </button>
+      </Button>
       {open ? (
         <div role="menu" className="absolute right-0 z-30 mt-1 w-56 rounded-[4px] border border-rule bg-chalk p-1 shadow-lg">
           <div className="px-2 py-1.5 text-[12px] text-slate">{email}</div>
           <a role="menuitem" href="/team" className="block rounded-[3px] px-2 py-1.5 text-[13px] hover:bg-wash">
             Team and members
           </a>
+          {/* A menu item beside a link item: it keeps the menu's row look, not a button's. */}
           <button
             role="menuitem"
             type="button"

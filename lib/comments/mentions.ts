@@ -2,11 +2,7 @@
  * Mentions in comments (`@handle`), shared by the server (who is notified) and the comment box (the
  * picker, the highlighting and the warning about a mention that reaches nobody). Pure.
  */
-export interface MentionPerson {
-  id: string;
-  name: string;
-  email: string;
-}
+import type { PublicUser as Person } from '@/lib/db/users';
 
 const HANDLE = /(?:^|[^\w@.])@([A-Za-z0-9][A-Za-z0-9._-]{0,63})/g;
 
@@ -17,14 +13,14 @@ export function extractMentionHandles(body: string): string[] {
 }
 
 /** Every handle by which a member can be mentioned: the e-mail's local part and forms of the name. */
-export function handlesOf(person: MentionPerson): string[] {
+export function handlesOf(person: Person): string[] {
   const local = (person.email.split('@')[0] ?? '').toLowerCase();
   const words = person.name.toLowerCase().normalize('NFD').replace(/[\u0300-\u036f]/g, '').split(/[^a-z0-9]+/).filter(Boolean);
   return [...new Set([local, words.join('.'), words.join('_'), words.join('-'), words.join('')].filter(Boolean))];
 }
 
 /** The members one handle reaches (exactly one person when it resolves). */
-function matchesOf<P extends MentionPerson>(handle: string, members: P[]): P[] {
+function matchesOf<P extends Person>(handle: string, members: P[]): P[] {
   const matches = members.filter((m) => handlesOf(m).includes(handle));
   if (matches.length > 0) return matches;
   // A first name alone is enough when only one member has it.
@@ -32,7 +28,7 @@ function matchesOf<P extends MentionPerson>(handle: string, members: P[]): P[] {
 }
 
 /** Resolves handles to team members; a handle that fits nobody, or more than one person, is left out. */
-export function resolveMentions<P extends MentionPerson>(handles: string[], members: P[]): P[] {
+export function resolveMentions<P extends Person>(handles: string[], members: P[]): P[] {
   const found = new Map<string, P>();
   for (const handle of handles) {
     const matches = matchesOf(handle, members);
@@ -43,7 +39,7 @@ export function resolveMentions<P extends MentionPerson>(handles: string[], memb
 }
 
 /** The handles of a body that notify nobody: no member fits, or more than one does. */
-export function unresolvedMentions(body: string, members: MentionPerson[]): { handle: string; reason: 'nobody' | 'several' }[] {
+export function unresolvedMentions(body: string, members: Person[]): { handle: string; reason: 'nobody' | 'several' }[] {
   return extractMentionHandles(body)
     .map((handle) => ({ handle, count: matchesOf(handle, members).length }))
     .filter((h) => h.count !== 1)
@@ -51,7 +47,7 @@ export function unresolvedMentions(body: string, members: MentionPerson[]): { ha
 }
 
 /** The handle the picker writes for a member: the first of their handles that reaches only them. */
-export function handleFor(person: MentionPerson, members: MentionPerson[]): string {
+export function handleFor(person: Person, members: Person[]): string {
   const unique = handlesOf(person).find((h) => matchesOf(h, members).length === 1);
   return unique ?? handlesOf(person)[0] ?? person.email;
 }
@@ -66,7 +62,7 @@ export function mentionAtCaret(text: string, caret: number): { from: number; que
 }
 
 /** Members whose name or e-mail fits a partly typed handle, best first (at most `limit`). */
-export function mentionCandidates<P extends MentionPerson>(query: string, members: P[], limit = 6): P[] {
+export function mentionCandidates<P extends Person>(query: string, members: P[], limit = 6): P[] {
   const q = query.toLowerCase();
   const scored = members
     .map((m) => {
@@ -81,8 +77,8 @@ export function mentionCandidates<P extends MentionPerson>(query: string, member
 }
 
 /** A body cut into plain text and mentions, each mention marked with whom it reaches (or nobody). */
-export function mentionSegments(body: string, members: MentionPerson[]): { text: string; person?: MentionPerson; mention?: boolean }[] {
-  const segments: { text: string; person?: MentionPerson; mention?: boolean }[] = [];
+export function mentionSegments(body: string, members: Person[]): { text: string; person?: Person; mention?: boolean }[] {
+  const segments: { text: string; person?: Person; mention?: boolean }[] = [];
   let last = 0;
   for (const match of body.matchAll(HANDLE)) {
     const raw = match[1] ?? '';

@@ -4,7 +4,7 @@ import type { Browser, Page } from 'playwright-core';
 import { launchBrowser } from '../support/browser';
 import { appUrl, signedInAs } from '../support/http';
 import { sampleDocument } from '../support/sample-document';
-import { card, runCommand, savedState, sheetWithDraft, signedInPage } from '../support/sheet-page';
+import { card, runCommand, savedState, settled, sheetWithDraft, signedInPage } from '../support/sheet-page';
 
 // The sheet header's title and site, block captions, saving a revision after someone else saved one
 // (409), export and import: all on the sheet page, as the demo editor.
@@ -22,6 +22,8 @@ describe('the sheet page’s header, captions and files', () => {
   it('should edit the title and site in the header and a block’s caption, refuse a bad latitude, and keep them after a reload', async () => {
     const id = await sheetWithDraft('Browser header sheet');
     await page.goto(`${appUrl()}/sheets/${id}`);
+    // Hydrated and evaluated first: a click on the server's HTML before hydration does nothing.
+    await settled(page);
     await page.getByRole('button', { name: 'Edit title and site' }).click();
     const form = page.getByRole('form', { name: 'Title and site' });
     await form.getByRole('textbox', { name: 'Title', exact: true }).fill('North ridge lowering');
@@ -58,6 +60,8 @@ describe('the sheet page’s header, captions and files', () => {
     const id = await sheetWithDraft('Browser revision conflict', true);
     await page.goto(`${appUrl()}/sheets/${id}`);
     await card(page, 'hill').waitFor();
+    // Hydrated and evaluated first: a click on the server's HTML before hydration opens no caption box.
+    await settled(page);
     // My edit: a caption on hill. Meanwhile a colleague saves revision 2 with another diffusivity.
     await card(page, 'hill').getByRole('button', { name: 'Add a caption to hill' }).click();
     await card(page, 'hill').getByRole('textbox', { name: /Caption of hill/ }).fill('Checked against the March survey.');
@@ -99,6 +103,7 @@ describe('the sheet page’s header, captions and files', () => {
     const id = await sheetWithDraft('Browser transfer sheet', true);
     await page.goto(`${appUrl()}/sheets/${id}`);
     await card(page, 'hill').waitFor();
+    await settled(page);
     const downloading = page.waitForEvent('download');
     await runCommand(page, 'export', 'Export r1 as a JSON file');
     const download = await downloading;

@@ -1,7 +1,7 @@
 import { describe, expect, it } from 'vitest';
-import { HISTORY_LIMIT, coalesceHistory, pushHistory, travelHistory, type DraftHistory } from '@/components/sheet/draft-history';
+import { HISTORY_LIMIT, coalesceHistory, pushHistory, travelHistory, type DraftHistory } from '@/lib/sheet/draft-history';
 
-// The sheet draft's undo/redo history (components/sheet/draft-history.ts), over plain strings standing for documents.
+// The sheet draft's undo/redo history (lib/sheet/draft-history.ts), over plain strings standing for documents.
 describe('draft history', () => {
   const empty: DraftHistory<string> = { past: [], future: [] };
 

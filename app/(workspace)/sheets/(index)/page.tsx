@@ -1,3 +1,4 @@
+import { Button } from '@/components/ui/button';
 import type { Metadata } from 'next';
 import Link from 'next/link';
 import { NewSheetForm } from '@/components/sheets/new-sheet-form';
@@ -81,9 +82,7 @@ export default async function SheetsPage({ searchParams }: { searchParams: Promi
           ))}
         </select>
         <input type="hidden" name="sort" value={rawSort} />
-        <button type="submit" className="h-8 rounded-[3px] border border-rule bg-chalk px-3 text-[13px] hover:bg-wash">
-          Search
-        </button>
+        <Button type="submit">Search</Button>
         <span className="text-[12px] text-slate">
           {total} {total === 1 ? 'sheet' : 'sheets'}
         </span>

@@ -1,3 +1,4 @@
+import { Button } from '@/components/ui/button';
 import type { Metadata } from 'next';
 import Link from 'next/link';
 import { StatusTag } from '@/components/ui/status';
@@ -45,7 +46,7 @@ export default async function RevisionsPage({ params }: { params: Promise<{ shee
                 ))}
               </select>
             </label>
-            <button type="submit" className="h-8 rounded-[3px] border border-rule bg-chalk px-3 hover:bg-wash">Compare</button>
+            <Button type="submit">Compare</Button>
           </form>
           <div className="overflow-x-auto rounded-[4px] border border-rule bg-chalk">
             <table className="w-full border-collapse text-[13px]">

@@ -1,6 +1,6 @@
 /**
  * The draft's undo/redo history as pure functions over plain data (unit-tested in
- * tests/unit/draft-history.test.ts): an edit pushes the document before it, undo and redo move between
+ * tests/sheet/draft-history.test.ts): an edit pushes the document before it, undo and redo move between
  * the two stacks. The history keeps at most HISTORY_LIMIT steps.
  */
 export interface DraftHistory<T> {
