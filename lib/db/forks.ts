@@ -1,6 +1,6 @@
 import 'server-only';
 import { badRequest, notFound } from '@/lib/errors';
-import { Sheet, SheetRevision } from '@/models';
+import { Sheet, SheetPreference, SheetRevision } from '@/models';
 import { copyDatasetsToTeam } from './datasets';
 import { db } from './index';
 import { insertSheet, toSheetRecord, type SheetRecord, type SiteInput } from './sheets';
@@ -9,7 +9,8 @@ import { insertSheet, toSheetRecord, type SheetRecord, type SiteInput } from './
  * Forks a sheet (for a new site, typically) into a team: the new sheet's draft is the chosen revision's
  * document (default: the head revision, or the source's draft when it has none) with the new title and
  * site. It records where it came from; it has no revision of its own yet. A fork into another team copies
- * the datasets the document refers to.
+ * the datasets the document refers to. The source's display preferences (significant figures, SI column)
+ * come along, so the fork reads as the source did.
  */
 export async function forkSheet({
   sourceSheetId,
@@ -59,6 +60,13 @@ export async function forkSheet({
       },
       transaction,
     );
+    const preferences = await SheetPreference.findByPk(sourceSheetId, { transaction });
+    if (preferences) {
+      await SheetPreference.create(
+        { sheetId: sheet.id, significantFigures: preferences.significantFigures, siFolded: preferences.siFolded, updatedBy: userId },
+        { transaction },
+      );
+    }
     return { sheet: toSheetRecord(sheet), forkedFrom: { sheetId: sourceSheetId, revision: number } };
   });
 }

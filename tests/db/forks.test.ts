@@ -1,6 +1,7 @@
 import { describe, expect, it } from 'vitest';
 import { forkSheet } from '@/lib/db/forks';
 import { saveRevision } from '@/lib/db/revisions';
+import { getSheetPreferences, updateSheetPreferences } from '@/lib/db/sheet-preferences';
 import { getSheetDetail } from '@/lib/db/sheets';
 import { makeSheet, makeTeam, sampleDocument, useTeamFixture } from '../support/review-fixtures';
 
@@ -46,6 +47,19 @@ describe('forks (lib/db/forks)', () => {
     expect(fromDraft.forkedFrom).toEqual({ sheetId: bare.id, revision: null });
 
     await expect(forkSheet({ sourceSheetId: source.id, teamId: team.teamId, userId: team.people.editor.id, title: 'x', revision: 7 })).rejects.toMatchObject({ status: 400, field: 'revision' });
+  });
+
+  it('should carry the source’s display preferences to the fork, and leave the defaults when the source has none', async () => {
+    const source = await makeSheet(team.teamId, team.people.editor.id);
+    await updateSheetPreferences({ sheetId: source.id, userId: team.people.owner.id, patch: { significantFigures: 6, siFolded: true } });
+    const fork = await forkSheet({ sourceSheetId: source.id, teamId: team.teamId, userId: team.people.editor.id, title: 'Same figures' });
+    expect(await getSheetPreferences({ sheetId: fork.sheet.id })).toEqual({ significantFigures: 6, siFolded: true });
+    // The fork's own change stays its own.
+    await updateSheetPreferences({ sheetId: fork.sheet.id, userId: team.people.editor.id, patch: { significantFigures: 3 } });
+    expect(await getSheetPreferences({ sheetId: source.id })).toEqual({ significantFigures: 6, siFolded: true });
+    const plain = await makeSheet(team.teamId, team.people.editor.id);
+    const plainFork = await forkSheet({ sourceSheetId: plain.id, teamId: team.teamId, userId: team.people.editor.id, title: 'Defaults' });
+    expect(await getSheetPreferences({ sheetId: plainFork.sheet.id })).toEqual(await getSheetPreferences({ sheetId: plain.id }));
   });
 
   it('should hide a source in a team the reader cannot see', async () => {
