@@ -20,13 +20,21 @@ case "${1:-}" in
     # A part of the tectonic group that fits a short session.
     MUTATE="$B/orogen-flux-balance.ts,$B/cosmogenic-denudation.ts"
     TESTS="$T/orogen-flux-balance.test.ts,$T/cosmogenic-denudation.test.ts,tests/engine/tectonic-conventions.test.ts,$P" ;;
+  geotherm-strength)
+    # radiogenic_geotherm and strength_envelope (a part of the tectonic group that fits a short session).
+    MUTATE="$B/radiogenic-geotherm.ts,$B/strength-envelope.ts"
+    TESTS="$T/radiogenic-geotherm.test.ts,$T/strength-envelope.test.ts,tests/engine/tectonic-conventions.test.ts,$P" ;;
+  flexure-closure)
+    # plate_flexure and closure_exhumation (the rest of the tectonic group).
+    MUTATE="$B/plate-flexure.ts,$B/closure-exhumation.ts"
+    TESTS="$T/plate-flexure.test.ts,$T/closure-exhumation.test.ts,tests/engine/tectonic-conventions.test.ts,$P" ;;
   data)
     MUTATE="$B/scarp-fit.ts,$B/profile-evolution.ts,$B/channel-march.ts,$B/data-shared.ts,lib/engine/numerics/*.ts,lib/engine/numerics.ts"
     TESTS="$T/scarp-fit.test.ts,$T/profile-evolution.test.ts,$T/channel-march.test.ts,$T/data-blocks-uncertainty.test.ts,tests/engine/numerics.test.ts,tests/engine/demo-data-sheet.test.ts,$P" ;;
   uncertainty)
     MUTATE="lib/engine/uncertainty/statistics.ts,lib/engine/uncertainty/distributions.ts,lib/engine/uncertainty/numeric.ts"
     TESTS="tests/engine/uncertainty/*.test.ts,$T/data-blocks-uncertainty.test.ts" ;;
-  *) echo "usage: $0 first-release|scarp-channel|tectonic|orogen-nuclide|data|uncertainty" >&2; exit 2 ;;
+  *) echo "usage: $0 first-release|scarp-channel|tectonic|orogen-nuclide|geotherm-strength|flexure-closure|data|uncertainty" >&2; exit 2 ;;
 esac
 export DENUDATA_MUTATION_TESTS="$TESTS" DENUDATA_MUTATION_REPORT="$1"
 exec nice -n 15 npx stryker run --incremental --mutate "$MUTATE" ${@:2}

@@ -1,5 +1,5 @@
 // Sums the group reports of `scripts/mutation-group.sh` (reports/mutation/<group>.json) into one table:
-// per file and overall, killed (timeouts count as killed, as Stryker does), survived, no coverage, ignored.
+// per file, per group and overall, killed (timeouts count as killed, as Stryker does), survived, no coverage, ignored.
 // Usage: node scripts/mutation-summary.mjs [--survivors]
 import { readFileSync, readdirSync } from 'node:fs';
 import path from 'node:path';
@@ -32,6 +32,18 @@ console.log('| file | group | killed | survived | no coverage | ignored (static 
 console.log('|---|---|---|---|---|---|---|');
 for (const r of rows) console.log(`| \`${r.file}\` | ${r.group} | ${r.killed} | ${r.survived} | ${r.noCoverage} | ${r.ignored} | ${score(r)} |`);
 console.log(`| **all measured** | | ${total.killed} | ${total.survived} | ${total.noCoverage} | ${total.ignored} | **${score(total)}** |`);
+// One line a group (the target is 85 % killed in every group).
+const groups = new Map();
+for (const r of rows) {
+  const g = groups.get(r.group) ?? { files: 0, killed: 0, survived: 0, noCoverage: 0, ignored: 0 };
+  g.files += 1;
+  for (const key of ['killed', 'survived', 'noCoverage', 'ignored']) g[key] += r[key];
+  groups.set(r.group, g);
+}
+console.log('');
+console.log('| group | files | killed | survived | no coverage | ignored | score |');
+console.log('|---|---|---|---|---|---|---|');
+for (const [name, g] of [...groups.entries()].sort()) console.log(`| ${name} | ${g.files} | ${g.killed} | ${g.survived} | ${g.noCoverage} | ${g.ignored} | ${score(g)} |`);
 if (process.argv.includes('--survivors')) {
   for (const [file, { mutants, source }] of files) {
     const lines = source.split('\n');
