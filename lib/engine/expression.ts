@@ -1,6 +1,8 @@
 /**
- * The one locked-down mathjs instance of the engine, its geological time units, and the
- * checks every expression passes before it runs.
+ * The one locked-down mathjs instance of the engine and the checks every expression passes before
+ * it runs. Its units are set up in engine-units.ts, its vocabulary (allowed functions, operators,
+ * reserved words, distributions) is listed in expression-language.ts, the size caps of every value
+ * are in value-size.ts.
  *
  * Expressions come from users, so the instance is locked: functions that reach the parser,
  * change the configuration or make results irreproducible throw, and every parsed expression
@@ -10,107 +12,30 @@
 import { all, create, type FactoryFunctionMap, type MathNode, type Unit } from 'mathjs';
 import { EngineError } from './errors';
 import { assertElementCount, countElements, flattenSizes, MAX_MATRIX_ELEMENTS, MAX_STRING_LENGTH, sizeChecked, type Flagged } from './value-size';
+import { configureUnits } from './engine-units';
+import {
+  ALLOWED_FUNCTIONS,
+  checkNesting,
+  DISTRIBUTION_FUNCTIONS,
+  KEYWORDS,
+  LOCKED_FUNCTIONS,
+  MAX_EXPRESSION_LENGTH,
+  MAX_EXPRESSION_NODES,
+  MAX_NESTING_DEPTH,
+  NESTED_DISTRIBUTION_MESSAGE,
+  OPERATOR_FUNCTIONS,
+} from './expression-language';
 import { explainParseError, rewriteNaturalInput } from './natural-input';
 import { temperatureArithmetic } from './temperature';
-
-export const MAX_EXPRESSION_LENGTH = 2000;
-export const MAX_EXPRESSION_NODES = 1000;
-export const MAX_NESTING_DEPTH = 40;
 
 // mathjs types `all` as an index into a map; it is the full factory set.
 const math = create(all as FactoryFunctionMap, { number: 'number', precision: 64 });
 
 /* ------------------------------------------------------------------ units */
-// The Julian year (365.25 d), with SI-prefixed multiples and the annus forms used for ages
-// (IUPAC–IUGS usage, Holden et al. 2011).
-math.createUnit('yr', { definition: '365.25 day', aliases: ['yrs'] });
-math.createUnit('kyr', { definition: '1000 yr', aliases: ['kyrs', 'ka'] });
-math.createUnit('Myr', { definition: '1e6 yr', aliases: ['Myrs', 'Ma'] });
-math.createUnit('Gyr', { definition: '1e9 yr', aliases: ['Gyrs', 'Ga'] });
-// A count of atoms, dimensionless (CONTRACT §4b): 2.4e5 atoms/g is 2.4e5 per gram. ("at" is the
-// attotonne in mathjs, so 2.4e5 at/g is a plain number; the cosmogenic type refuses it.)
-math.createUnit('atoms', { definition: '1', aliases: ['atom'] });
-// The annus on its own (1 mm/a), the trade's usual unit beside ka, Ma and Ga (CONTRACT §3).
-math.createUnit('a', { definition: '1 yr' });
-
-// How a result is shown when no display unit is given, fixed for reproducibility.
-// mathjs shows a product, quotient or power of quantities (e.g. (2 J) / (1 s)) through
-// Unit.simplify(), which picks units from the "current unit system". Its default is the "auto"
-// system, and Unit.parse() rewrites that system every time it reads a unit name (reading "hp"
-// makes hp the unit for every power shown afterwards). The unit of a result then depended on
-// what the process had parsed before, in any sheet or quick calculation, and on the engine's
-// caches, so a stored revision could be shown differently on re-evaluation and incremental
-// evaluation could differ from full evaluation. The engine uses the fixed SI system instead:
-// simplify() then depends on the result alone. The rule, as the formula and quantities help
-// states it: a product or quotient of quantities is shown in the SI unit named for its kind
-// when there is one (N, J, W, Pa, Hz, C, V, ...), else in SI base units when that takes fewer
-// unit terms than the units it was computed in (2 ft * 3 ft → 0.557 m^2), else in the units it
-// was computed in (3 m / (2 yr) → 1.5 m / yr); a value written with its unit (1 hp) and a
-// conversion (to) keep their units, and a sum takes its first term's. parse() goes on rewriting
-// "auto", which nothing reads now.
-// setUnitSystem is then refused, so nothing in the process can change the rule again
-// (tests/engine/reproducibility.test.ts).
-math.Unit.setUnitSystem('si');
-(math.Unit as unknown as { setUnitSystem: (name: string) => void }).setUnitSystem = () => {
-  throw new EngineError('the unit system of the engine is fixed (SI)');
-};
-
-// "Is this name a unit?" is asked when a block name is checked, when an expression is walked
-// and when mathjs compiles a symbol. mathjs answers from a 100-entry cache and otherwise tests
-// the name against every unit it knows (endsWith, then the prefix), so in a sheet of more than
-// 100 blocks every compile of a reference such as v123.value paid that scan of the whole unit
-// table. The engine answers the same question by looking up the name's few possible
-// prefix + unit splits in the table, and remembers the answers. The unit table is fixed from
-// here on (createUnit is refused below), so both are exact; tests/engine/expression.test.ts
-// compares the answers with mathjs's own for every unit and prefixed unit.
-type UnitTable = Record<string, { prefixes: Record<string, unknown> }>;
-const hasOwn = (object: object, key: string): boolean => Object.prototype.hasOwnProperty.call(object, key);
-const mathjsIsValuelessUnit = math.Unit.isValuelessUnit.bind(math.Unit) as (name: string) => boolean;
-
+// Time units, atoms, the fixed SI system and the unit-name test (engine-units.ts).
+const { isValuelessUnitByMathjs } = configureUnits(math);
 /** mathjs's answer to "is this a unit, with or without a prefix?" (for tests). */
-export function isValuelessUnitByMathjs(name: string): boolean {
-  return mathjsIsValuelessUnit(name);
-}
-
-/** The longest unit name and the longest prefix name mathjs knows (the table is fixed). */
-let unitTableBounds: { unit: number; prefix: number } | null = null;
-
-/** The same answer as mathjs's: the whole name is a unit, or a unit with one of its prefixes. */
-function findsUnit(name: string): boolean {
-  const units = math.Unit.UNITS as unknown as UnitTable;
-  if (hasOwn(units, name)) return true;
-  if (!unitTableBounds) {
-    let unit = 0;
-    let prefix = 0;
-    for (const unitName of Object.keys(units)) {
-      unit = Math.max(unit, unitName.length);
-      for (const prefixName of Object.keys(units[unitName]!.prefixes)) prefix = Math.max(prefix, prefixName.length);
-    }
-    unitTableBounds = { unit, prefix };
-  }
-  // name = prefix + unit name, with a non-empty prefix (the whole name was tried above).
-  const last = Math.min(name.length - 1, unitTableBounds.prefix);
-  for (let cut = Math.max(1, name.length - unitTableBounds.unit); cut <= last; cut++) {
-    const unitName = name.slice(cut);
-    if (!hasOwn(units, unitName)) continue;
-    const prefixes = units[unitName]!.prefixes;
-    const prefix = name.slice(0, cut);
-    if (hasOwn(prefixes, prefix) && prefixes[prefix] !== undefined) return true;
-  }
-  return false;
-}
-
-const UNIT_NAME_CACHE_LIMIT = 20_000;
-const unitNameAnswers = new Map<string, boolean>();
-(math.Unit as unknown as { isValuelessUnit: (name: string) => boolean }).isValuelessUnit = (name: string): boolean => {
-  let answer = unitNameAnswers.get(name);
-  if (answer === undefined) {
-    answer = typeof name === 'string' ? findsUnit(name) : mathjsIsValuelessUnit(name);
-    if (unitNameAnswers.size >= UNIT_NAME_CACHE_LIMIT) unitNameAnswers.clear();
-    unitNameAnswers.set(name, answer);
-  }
-  return answer;
-};
+export { isValuelessUnitByMathjs };
 
 /* ------------------------------------------------------ private references */
 const privateParse = math.parse.bind(math) as (text: string) => MathNode;
@@ -173,12 +98,6 @@ function refused(name: string): AnyFunction {
   };
 }
 
-const LOCKED_FUNCTIONS = [
-  'import', 'createUnit', 'evaluate', 'parse', 'compile', 'simplify', 'simplifyConstant',
-  'simplifyCore', 'derivative', 'resolve', 'rationalize', 'config', 'reviver', 'replacer',
-  'chain', 'help', 'parser', 'leafCount', 'symbolicEqual', 'random', 'randomInt', 'pickRandom',
-] as const;
-
 // Resolve every lazily created function now, so that none is built later against an
 // overridden dependency.
 for (const name of Object.keys(math)) void (math as unknown as Record<string, unknown>)[name];
@@ -191,35 +110,6 @@ privateImport(
   },
   { override: true },
 );
-
-/** Functions an expression may call. Everything else is refused before evaluation. */
-const ALLOWED_FUNCTIONS = new Set<string>([
-  // arithmetic
-  'abs', 'add', 'subtract', 'multiply', 'divide', 'unaryMinus', 'unaryPlus', 'pow', 'sqrt', 'cbrt',
-  'nthRoot', 'square', 'cube', 'exp', 'expm1', 'log', 'log10', 'log2', 'log1p', 'mod', 'sign',
-  'round', 'floor', 'ceil', 'fix', 'hypot', 'gcd', 'lcm', 'dotMultiply', 'dotDivide', 'dotPow',
-  // trigonometry and special functions
-  'sin', 'cos', 'tan', 'asin', 'acos', 'atan', 'atan2', 'sinh', 'cosh', 'tanh', 'asinh', 'acosh',
-  'atanh', 'sec', 'csc', 'cot', 'erf', 'gamma', 'lgamma', 'factorial',
-  // statistics
-  'min', 'max', 'mean', 'median', 'std', 'variance', 'sum', 'prod', 'cumsum', 'mad',
-  // comparison and logic
-  'equal', 'unequal', 'larger', 'largerEq', 'smaller', 'smallerEq', 'compare', 'and', 'or', 'not',
-  'xor', 'isNaN', 'isZero', 'isPositive', 'isNegative', 'isInteger',
-  // units and numbers
-  'unit', 'to', 'number', 'splitUnit',
-  // small matrices (sizes are capped)
-  'ones', 'zeros', 'identity', 'range', 'matrix', 'size', 'transpose', 'dot', 'cross', 'det',
-  'inv', 'norm', 'trace', 'subset', 'concat', 'flatten', 'sort', 'count',
-]);
-
-/** The functions behind the operators of the expression language (a + b is add(a, b), ...). */
-const OPERATOR_FUNCTIONS = [
-  'add', 'and', 'bitAnd', 'bitNot', 'bitOr', 'bitXor', 'ctranspose', 'divide', 'dotDivide', 'dotMultiply',
-  'dotPow', 'equal', 'factorial', 'larger', 'largerEq', 'leftShift', 'mod', 'multiply', 'not', 'nullish', 'or',
-  'pow', 'rightArithShift', 'rightLogShift', 'smaller', 'smallerEq', 'subtract', 'to', 'unaryMinus',
-  'unaryPlus', 'unequal', 'xor', 'index', 'subset', 'range', 'matrix',
-] as const;
 
 // Every function an expression reaches (by name or through an operator) is replaced by its
 // size-checked form, in the namespace and in the expression transforms (1-based variants), so
@@ -272,13 +162,8 @@ defineExpressionFunction('dataset', () => {
 });
 
 /* ------------------------------------------------------------ distributions */
-/**
- * The distribution calls of CONTRACT §8.1. They are recognised only as the whole expression of
- * an input (the evaluation reads their arguments); called anywhere else they refuse.
- */
-export const DISTRIBUTION_FUNCTIONS: readonly string[] = ['normal', 'lognormal', 'uniform', 'triangular'];
+// Called anywhere but as the whole expression of an input, a distribution refuses (CONTRACT §8.1).
 const distributionFunctions = new Set<string>(DISTRIBUTION_FUNCTIONS);
-export const NESTED_DISTRIBUTION_MESSAGE = 'a distribution must be the whole expression of an input';
 privateImport(
   Object.fromEntries(DISTRIBUTION_FUNCTIONS.map((name) => [name, () => {
     throw new EngineError(NESTED_DISTRIBUTION_MESSAGE);
@@ -287,7 +172,6 @@ privateImport(
 );
 
 /* ----------------------------------------------------------- reserved names */
-const KEYWORDS = new Set(['to', 'in', 'and', 'or', 'not', 'xor', 'mod', 'end', 'true', 'false', 'null', 'undefined']);
 
 /** Why a name cannot be used as a block name in expressions, or null when it is free. */
 export function reservedNameReason(name: string): string | null {
@@ -329,26 +213,6 @@ export interface CheckedExpression {
   /** Symbols that are neither units, constants nor functions (block names used bare, typos). */
   readonly freeSymbols: readonly string[];
   evaluate(scope: Map<string, unknown>): unknown;
-}
-
-function checkNesting(text: string): void {
-  let depth = 0;
-  let quote: string | null = null;
-  for (let i = 0; i < text.length; i++) {
-    const c = text[i]!;
-    if (quote) {
-      if (c === '\\') i++;
-      else if (c === quote) quote = null;
-      continue;
-    }
-    if (c === '"' || c === "'") quote = c;
-    else if (c === '(' || c === '[' || c === '{') {
-      depth++;
-      if (depth > MAX_NESTING_DEPTH) {
-        throw new EngineError(`the expression is nested more than ${MAX_NESTING_DEPTH} levels deep`);
-      }
-    } else if (c === ')' || c === ']' || c === '}') depth--;
-  }
 }
 
 interface Walk {

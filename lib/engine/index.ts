@@ -37,7 +37,7 @@ export type { ParseSheetResult, SheetBlock, SheetDocument } from './document';
 export { MAX_SAMPLES, MAX_SEED, MIN_SAMPLES, UNCERTAINTY_METHODS } from './document';
 export { ENGINE_ERROR_CODES, EngineError, type EngineErrorCode } from './errors';
 export type { Series } from './block-type';
-export { MAX_EXPRESSION_LENGTH } from './expression';
+export { MAX_EXPRESSION_LENGTH } from './expression-language';
 export { DATASET_COLUMNS, DATASET_FORMAT, DATASET_KINDS, SHA256_PATTERN, canonicalDatasetJson, hashDataset } from './dataset';
 export type { DatasetCanonical, DatasetColumn, DatasetKind, DatasetLookup } from './dataset';
 export { parseDataInput } from './dataset-input';
