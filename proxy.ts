@@ -4,12 +4,17 @@ import { withoutBadCallbackCookies, isUsableCallbackUrl } from '@/lib/http/auth-
 import { pageContentSecurityPolicy } from '@/lib/http/security-headers';
 import { cachedDecode } from '@/lib/auth/token-cache';
 
-// Runs before every page and API request (not static files):
+// Runs before every page request and next-auth's own routes (/api/auth/*); not before static files nor the
+// app's other API routes (its matcher below), which need none of it: each API route authenticates and
+// answers 401 JSON itself (lib/http `route()`), a method it does not serve is 405 from its route file
+// (`notAllowed`) or, for methods no route file can name, from the Node.js server (lib/http/method-guard.ts),
+// and only next-auth reads the callback URL. Leaving them out saves Next.js's proxy round (a web Request and
+// Response built and merged) on every API call. What it does:
 //  - a method the app does not serve is 405 with the contract's error body: any but GET, HEAD and POST on a
-//    page, any unknown one on the API (TRACE, TRACK, CONNECT, methods Node's parser refuses and writes to
-//    static files never reach this far: lib/http/method-guard.ts answers them);
+//    page (lib/http/method-guard.ts answers methods outside GET, HEAD, POST, PUT, PATCH, DELETE, OPTIONS
+//    everywhere, before Next.js sees them);
 //  - an unparsable next-auth callback URL (cookie, or query of /api/auth) is dropped (lib/http/auth-inputs.ts);
-//  - API routes then pass straight on (they answer 401 JSON themselves: a redirect is no answer for an API client);
+//  - next-auth's routes then pass straight on;
 //  - pages get a fresh nonce and the Content-Security-Policy that names it (Next.js puts the nonce on its
 //    own scripts when the request carries the policy), and all but the sign-in pages need a session.
 
@@ -80,5 +85,7 @@ export default async function proxy(request: NextRequest, event: NextFetchEvent)
 }
 
 export const config = {
-  matcher: ['/((?!_next/static|_next/image|fonts|icon.svg|favicon.ico).*)'],
+  // Pages (everything but static files and the API), and next-auth's routes. tests/http/proxy-matcher.test.ts
+  // checks which paths it takes.
+  matcher: ['/((?!api/|api$|_next/static|_next/image|fonts|icon.svg|favicon.ico).*)', '/api/auth/:path*'],
 };

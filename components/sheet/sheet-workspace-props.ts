@@ -4,7 +4,7 @@ import type { SheetStatus } from '@/components/ui/status';
 import type { PublicUser as Person } from '@/lib/db/users';
 import type { DraftStanding } from '@/lib/sheet/draft-standing.server';
 import type { SheetPreferences } from '@/lib/sheet/preferences';
-import type { BlockCatalogData, SheetDocument } from '@/lib/sheet/types';
+import type { SheetDocument } from '@/lib/sheet/types';
 import type { TeamRole as Role } from '@/models';
 import type { ForkItem, ForkOrigin } from './sheet-header';
 import type { RailPanel } from './side-rail';
@@ -24,7 +24,8 @@ export interface SheetWorkspaceProps {
   draftStanding?: DraftStanding;
   forkedFrom: ForkOrigin | null;
   forks: ForkItem[];
-  catalog: BlockCatalogData;
+  /** Version of the block catalog the page was rendered with (fetched once: use-block-catalog.ts). */
+  catalogVersion: string;
   canEdit: boolean;
   role: Role;
   user: { id: string; name: string };

@@ -26,6 +26,7 @@ import { useSheetCommands } from './use-sheet-commands';
 import { useSheetDraft } from './use-sheet-draft';
 import { useSheetKeyboard } from './use-sheet-keyboard';
 import { useSheetTransfer } from './use-sheet-transfer';
+import { useBlockCatalog } from './use-block-catalog';
 import { SheetStanding } from './sheet-standing';
 import { SheetDialogs, type SheetDialog } from './sheet-dialogs';
 import { useSheetPreferences } from './use-sheet-preferences';
@@ -45,7 +46,7 @@ export function SheetWorkspace({
   draftStanding,
   forkedFrom,
   forks,
-  catalog,
+  catalogVersion,
   canEdit,
   role,
   user,
@@ -56,6 +57,7 @@ export function SheetWorkspace({
   members = [],
   preferences: storedPreferences = DEFAULT_SHEET_PREFERENCES,
 }: SheetWorkspaceProps) {
+  const catalog = useBlockCatalog(catalogVersion);
   const { open: openPalette } = useCommandRegistry();
   const canComment = roleAllows(role, 'comment');
   const canFork = forkTeams.length > 0;

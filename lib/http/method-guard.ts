@@ -1,6 +1,9 @@
 // Methods that never reach proxy.ts or a route handler are answered here, in the Node.js server itself,
 // before Next.js sees the request (installed once by instrumentation.ts when the server starts):
-//  - TRACE and TRACK: the web Request that Next.js builds refuses them (it answered 500) → 405;
+//  - any method outside GET, HEAD, POST, PUT, PATCH, DELETE and OPTIONS (PROPFIND, TRACE, …) → 405, on every
+//    path: the app's API routes do not pass through proxy.ts (its matcher), and route files can only name
+//    the methods above (`notAllowed` answers those a route does not serve); the web Request that Next.js
+//    builds refuses TRACE and TRACK (it answered 500);
 //  - a method Node's HTTP parser does not know (TRACK, or any made-up token such as FOO) is refused by
 //    the parser, which would answer a bare 400 → 405 (the `clientError` of an invalid method);
 //  - CONNECT is handed to a `connect` listener, and without one Node drops the connection → 405;
@@ -10,8 +13,9 @@
 import http from 'node:http';
 import type { Duplex } from 'node:stream';
 
-const REFUSED = new Set(['TRACE', 'TRACK', 'CONNECT']);
-const ALLOW = 'GET, HEAD, POST, PUT, PATCH, DELETE, OPTIONS';
+/** The methods the app serves anywhere; every other one is 405 here. */
+const SERVED = new Set(['GET', 'HEAD', 'POST', 'PUT', 'PATCH', 'DELETE', 'OPTIONS']);
+const ALLOW = [...SERVED].join(', ');
 /** Paths that proxy.ts leaves out (its matcher): only GET and HEAD are served there. */
 const STATIC_PATHS = /^\/(_next\/static\/|_next\/image|fonts\/|favicon\.ico$|icon\.svg$)/;
 const STATIC_ALLOW = 'GET, HEAD';
@@ -72,13 +76,13 @@ export function installMethodGuard(): void {
     if (event === 'request') {
       const [request, response] = args as [http.IncomingMessage, http.ServerResponse];
       const method = (request.method ?? '').toUpperCase();
-      if (REFUSED.has(method)) {
-        answer405(response, method, ALLOW);
+      if (method !== 'GET' && method !== 'HEAD' && STATIC_PATHS.test(request.url ?? '')) {
+        answer405(response, method, STATIC_ALLOW);
         request.resume();
         return true;
       }
-      if (method !== 'GET' && method !== 'HEAD' && STATIC_PATHS.test(request.url ?? '')) {
-        answer405(response, method, STATIC_ALLOW);
+      if (!SERVED.has(method)) {
+        answer405(response, method, ALLOW);
         request.resume();
         return true;
       }

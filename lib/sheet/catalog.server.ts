@@ -1,10 +1,12 @@
 import 'server-only';
+import { createHash } from 'node:crypto';
 import { STANDING_CAUTION } from '@/lib/engine/block-type';
 import { blockCatalog } from '@/lib/engine';
 import { COMMON_FUNCTIONS, COMMON_UNITS } from './vocabulary';
 import type { BlockCatalogData, CatalogType } from './types';
 
 let cached: BlockCatalogData | null = null;
+let published: { version: string; body: string } | null = null;
 
 /** The engine's block catalog reshaped for the client (plain JSON, no engine code). */
 export function clientCatalog(): BlockCatalogData {
@@ -48,4 +50,21 @@ export function clientCatalog(): BlockCatalogData {
     standingCaution: STANDING_CAUTION,
   };
   return cached;
+}
+
+/**
+ * The catalog as the client downloads it (`GET /api/catalog`): its JSON text and a version (a hash of
+ * that text), so a page can name the exact catalog it was rendered with and the browser can keep it for
+ * good. The catalog is ~100 kB; it used to travel inside every sheet page's React payload. Also published
+ * on globalThis for the server-side render of the sheet workspace (components/sheet/use-block-catalog.ts),
+ * which runs in this same process and needs the same data without it passing through the payload.
+ */
+export function publishedCatalog(): { version: string; body: string } {
+  if (published) return published;
+  const catalog = clientCatalog();
+  const body = JSON.stringify(catalog);
+  const version = createHash('sha256').update(body).digest('hex').slice(0, 16);
+  published = { version, body };
+  (globalThis as Record<symbol, unknown>)[Symbol.for('denudata.blockCatalog')] = { version, catalog };
+  return published;
 }

@@ -98,6 +98,7 @@ const ROUTES: RouteCase[] = [
   { method: 'GET', route: '/api/quick/recent', action: null, scope: 'user', ok: 200, call: () => ({ path: '/api/quick/recent' }) },
   { method: 'POST', route: '/api/block-name', action: null, scope: 'user', ok: 200, call: () => ({ path: '/api/block-name', body: { name: 'ridge' } }) },
   { method: 'POST', route: '/api/password-reset', action: 'public', scope: 'user', ok: 202, call: () => ({ path: '/api/password-reset', body: { email: unique('reset') } }) },
+  { method: 'GET', route: '/api/catalog', action: 'public', scope: 'user', ok: 200, call: () => ({ path: '/api/catalog' }) },
   { method: 'POST', route: '/api/users', action: 'public', scope: 'user', ok: 201, call: () => ({ path: '/api/users', body: { email: unique('signup'), password: 'long-enough-password', name: 'Matrix Person' } }) },
 ];
 
@@ -118,6 +119,7 @@ const PATHS: { path: (c: Ctx, f: Fixture) => string; route: string }[] = [
   { route: '/api/compare', path: () => '/api/compare' },
   { route: '/api/quick', path: () => '/api/quick' },
   { route: '/api/evaluate', path: () => '/api/evaluate' },
+  { route: '/api/catalog', path: () => '/api/catalog' },
 ];
 const SERVED: Record<string, string[]> = {};
 for (const r of ROUTES) (SERVED[r.route.replace(/ \(.*\)$/, '')] ??= []).push(r.method);

@@ -1,4 +1,4 @@
-import { requireUser } from '@/lib/auth/guard';
+import { requireSession } from '@/lib/auth/guard';
 import { MAX_DATASET_BODY_BYTES, json, notAllowed, parseWith, readJson, route } from '@/lib/http';
 import { badRequest } from '@/lib/errors';
 import { runEvaluate } from '@/lib/evaluation/pool';
@@ -7,7 +7,6 @@ import { checkCanonicalDataset } from '@/lib/datasets/canonical';
 import { datasetReferences } from '@/lib/datasets/references';
 import { BUNDLE_FORMAT, bundleSchema } from '@/lib/datasets/schema';
 import { checkBundleDatasets, loadDatasetLookup } from '@/lib/db/datasets';
-import { getCurrentTeam } from '@/lib/db/teams';
 import type { DatasetCanonical } from '@/lib/engine/dataset';
 import { consumeRateLimit } from '@/lib/rate-limit';
 import { evaluateBodySchema } from './schema';
@@ -17,7 +16,7 @@ import { evaluateBodySchema } from './schema';
  * from the datasets in the body first, then from the user's current team (CONTRACT §7.6).
  */
 export const POST = route(async (request) => {
-  const user = await requireUser();
+  const { user, current: team } = await requireSession();
   await consumeRateLimit(['evaluationUser', user.id]);
   const body = await readJson(request, evaluateBodySchema, MAX_DATASET_BODY_BYTES);
   const lookup = new Map<string, DatasetCanonical>();
@@ -39,7 +38,6 @@ export const POST = route(async (request) => {
   const document = requireValidDocument(raw, 'document');
   const missing = datasetReferences(document).filter((h) => !lookup.has(h));
   if (missing.length) {
-    const team = await getCurrentTeam({ userId: user.id });
     if (team) for (const [sha, dataset] of await loadDatasetLookup({ teamId: team.id, sha256s: missing })) lookup.set(sha, dataset);
   }
   try {

@@ -1,11 +1,12 @@
-import { requireUser } from '@/lib/auth/guard';
-import { createTeam, listTeamsForUser } from '@/lib/db/teams';
+import { requireSession, requireUser } from '@/lib/auth/guard';
+import { createTeam } from '@/lib/db/teams';
 import { json, notAllowed, readJson, route } from '@/lib/http';
 import { createTeamSchema } from './schema';
 
+// One query: the caller's teams come with the session look-up (lib/auth/session.ts), read fresh for this
+// request, so a membership just granted or removed shows at once.
 export const GET = route(async () => {
-  const user = await requireUser();
-  const items = await listTeamsForUser({ userId: user.id });
+  const { teams: items } = await requireSession();
   return json({ items, total: items.length });
 });
 

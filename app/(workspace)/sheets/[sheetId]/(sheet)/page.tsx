@@ -10,7 +10,9 @@ import { listReviewEvents } from '@/lib/db/review-events';
 import { getDraftStanding, latestApprovedRevision } from '@/lib/sheet/draft-standing.server';
 import { getSheetDetail, listSheetsByTeam } from '@/lib/db/sheets';
 import { AppError } from '@/lib/errors';
-import { clientCatalog } from '@/lib/sheet/catalog.server';
+import { publishedCatalog } from '@/lib/sheet/catalog.server';
+import { catalogUrl } from '@/lib/sheet/catalog-url';
+import { preload } from 'react-dom';
 import { requireSheetPage } from '@/lib/sheet/page-access';
 import type { SheetDocument } from '@/lib/sheet/types';
 
@@ -53,6 +55,9 @@ export default async function SheetPage({ params, searchParams }: Params) {
     getDraftStanding({ sheetId, draftDocument: detail.draft.document, head: detail.head }),
     getSheetPreferences({ sheetId }),
   ]);
+  // The block catalog goes by its version, fetched once by the browser (and cached), not in this payload.
+  const { version: catalogVersion } = publishedCatalog();
+  preload(catalogUrl(catalogVersion), { as: 'fetch', crossOrigin: 'anonymous' });
   // Teams the user may fork into (editor or owner there), this sheet's team first.
   const forkTeams = teams
     .filter((t) => roleAllows(t.role, 'edit'))
@@ -70,7 +75,7 @@ export default async function SheetPage({ params, searchParams }: Params) {
       draftStanding={standing}
       forkedFrom={detail.forkedFrom ?? null}
       forks={detail.forks}
-      catalog={clientCatalog()}
+      catalogVersion={catalogVersion}
       canEdit={roleAllows(role, 'edit')}
       role={role}
       user={{ id: user.id, name: user.name }}

@@ -1,0 +1,138 @@
+/**
+ * Two builds of the app side by side, by server CPU time per request (a measuring tool, not a test).
+ * Loopback only. Each app must be served by `next start` with DENUDATA_RATE_LIMITS=off on the same
+ * database (the demo data); the server process is found by its listening port (Linux /proc and `ss`).
+ *
+ *   npx tsx scripts/load-compare.mts --a http://127.0.0.1:3411 --b http://127.0.0.1:3412 \
+ *     [--slices 3] [--seconds 4] [--connections 16] [--only <route label part>]
+ *
+ * For each route: a 2 s warm-up on each side, then alternating slices (A, B, A, B, …) of full load; per
+ * slice the server process's user + system CPU time (all threads, from /proc/<pid>/stat) divided by the
+ * requests answered. CPU per request is far less sensitive to other work on a shared machine than
+ * requests per second, which is printed beside it. Medians over the slices.
+ */
+import { execFileSync } from 'node:child_process';
+import { readFileSync } from 'node:fs';
+import os from 'node:os';
+import autocannon from 'autocannon';
+
+const arg = (name: string, fallback?: string) => {
+  const index = process.argv.indexOf(`--${name}`);
+  return index >= 0 ? process.argv[index + 1] : fallback;
+};
+const sides = { A: new URL(arg('a', 'http://127.0.0.1:3411')!), B: new URL(arg('b', 'http://127.0.0.1:3412')!) };
+for (const url of Object.values(sides)) {
+  if (!['127.0.0.1', 'localhost'].includes(url.hostname)) throw new Error('only an app on this machine may be loaded');
+}
+const SLICES = Math.min(Number(arg('slices', '3')), 10);
+const SECONDS = Math.min(Number(arg('seconds', '4')), 15);
+const CONNECTIONS = Math.min(Number(arg('connections', '16')), 64);
+const ONLY = arg('only', '')!;
+const DEMO_SHEET_ID = '0d3a7e10-5c2b-4f6a-8e1d-000000000001';
+const TICKS = Number(execFileSync('getconf', ['CLK_TCK']).toString().trim()) || 100;
+
+/** The pid listening on the URL's port. */
+function pidOf(url: URL): number {
+  const out = execFileSync('ss', ['-ltnpH', `sport = :${url.port}`]).toString();
+  const match = /pid=(\d+)/.exec(out);
+  if (!match) throw new Error(`nothing listens on ${url.port}`);
+  return Number(match[1]);
+}
+/** User + system CPU time of a process (all threads), in ms. */
+function cpuMs(pid: number): number {
+  const stat = readFileSync(`/proc/${pid}/stat`, 'utf8');
+  const fields = stat.slice(stat.lastIndexOf(')') + 2).split(' ');
+  return ((Number(fields[11]) + Number(fields[12])) / TICKS) * 1000;
+}
+
+async function signIn(base: URL, email: string, password: string): Promise<string> {
+  const jar = new Map<string, string>();
+  const keep = (response: Response) => {
+    for (const line of response.headers.getSetCookie()) {
+      const [pair] = line.split(';');
+      const at = pair!.indexOf('=');
+      jar.set(pair!.slice(0, at), pair!.slice(at + 1));
+    }
+  };
+  const csrf = await fetch(new URL('/api/auth/csrf', base));
+  keep(csrf);
+  const { csrfToken } = (await csrf.json()) as { csrfToken: string };
+  const response = await fetch(new URL('/api/auth/callback/credentials', base), {
+    method: 'POST',
+    redirect: 'manual',
+    headers: { 'content-type': 'application/x-www-form-urlencoded', cookie: [...jar].map(([k, v]) => `${k}=${v}`).join('; ') },
+    body: new URLSearchParams({ csrfToken, email, password, json: 'true' }).toString(),
+  });
+  keep(response);
+  if (![...jar.keys()].some((k) => k.includes('session-token'))) throw new Error(`could not sign in to ${base.origin} as ${email}`);
+  return [...jar].map(([k, v]) => `${k}=${v}`).join('; ');
+}
+
+function chainedDocument(blocks: number) {
+  return {
+    format: 'denudata-sheet@1',
+    title: 'Load: 50-block chain',
+    blocks: Array.from({ length: blocks }, (_, i) =>
+      i === 0
+        ? { id: 'b0', name: 'q0', type: 'quantities', inputs: { K: '0.004 m^2/yr', C: '-0.01 1/m' } }
+        : { id: `b${i}`, name: `f${i}`, type: 'formula', inputs: { expr: i === 1 ? 'q0.K * q0.C to mm/yr' : `f${i - 1}.value * 1.001` } },
+    ),
+  };
+}
+
+const targets = [
+  { label: 'static file (floor)', path: '/fonts/JetBrainsMono-Regular.woff2', signedIn: false },
+  { label: 'GET /api/teams', path: '/api/teams', signedIn: true },
+  { label: 'GET /api/sheets/{id}', path: `/api/sheets/${DEMO_SHEET_ID}`, signedIn: true },
+  { label: 'GET /api/sheets', path: '/api/sheets', signedIn: true },
+  { label: 'POST /api/quick', path: '/api/quick', method: 'POST', body: JSON.stringify({ expr: 'scarp_age(2 m, 0, 25 deg, 1 m^2/kyr)', preview: true }), signedIn: true },
+  { label: 'POST /api/evaluate (50 blocks)', path: '/api/evaluate', method: 'POST', body: JSON.stringify({ document: chainedDocument(50) }), signedIn: true },
+  { label: 'sheet page HTML', path: `/sheets/${DEMO_SHEET_ID}`, signedIn: true },
+].filter((t) => t.label.includes(ONLY));
+
+const cookies = {
+  A: await Promise.all(['owner', 'editor'].map((r) => signIn(sides.A, `${r}@demo.test`, 'demo-password'))),
+  B: await Promise.all(['owner', 'editor'].map((r) => signIn(sides.B, `${r}@demo.test`, 'demo-password'))),
+};
+const pids = { A: pidOf(sides.A), B: pidOf(sides.B) };
+
+async function slice(side: 'A' | 'B', target: (typeof targets)[number], seconds: number) {
+  let next = 0;
+  const before = cpuMs(pids[side]);
+  const result = await autocannon({
+    url: new URL(target.path, sides[side]).href,
+    method: (target.method ?? 'GET') as 'GET',
+    body: target.body,
+    connections: CONNECTIONS,
+    duration: seconds,
+    setupClient: (client: { setHeaders: (headers: Record<string, string>) => void }) => {
+      const headers: Record<string, string> = target.body ? { 'content-type': 'application/json' } : {};
+      if (target.signedIn) headers.cookie = cookies[side][next++ % cookies[side].length]!;
+      client.setHeaders(headers);
+    },
+  } as autocannon.Options);
+  const cpu = cpuMs(pids[side]) - before;
+  const answered = result.requests.total;
+  return { cpuPerRequest: answered ? cpu / answered : NaN, rps: result.requests.average, p50: result.latency.p50, non2xx: result.non2xx };
+}
+
+const median = (values: number[]) => [...values].sort((a, b) => a - b)[Math.floor(values.length / 2)]!;
+console.log(`load-compare: A ${sides.A.origin} (pid ${pids.A}), B ${sides.B.origin} (pid ${pids.B}); ${SLICES} × ${SECONDS} s slices, ${CONNECTIONS} connections`);
+console.log(`load-compare: ${new Date().toISOString()}, load average ${os.loadavg().map((v) => v.toFixed(1)).join(' ')} before`);
+console.log('| route | A CPU ms/req | B CPU ms/req | A/B | A rps | B rps | non-2xx A/B |');
+console.log('|---|---|---|---|---|---|---|');
+for (const target of targets) {
+  await slice('A', target, 2);
+  await slice('B', target, 2);
+  const runs: Record<'A' | 'B', Awaited<ReturnType<typeof slice>>[]> = { A: [], B: [] };
+  for (let i = 0; i < SLICES; i++) {
+    for (const side of (i % 2 ? ['B', 'A'] : ['A', 'B']) as ('A' | 'B')[]) runs[side].push(await slice(side, target, SECONDS));
+  }
+  const cpuA = median(runs.A.map((r) => r.cpuPerRequest));
+  const cpuB = median(runs.B.map((r) => r.cpuPerRequest));
+  const non2xx = (side: 'A' | 'B') => runs[side].reduce((sum, r) => sum + r.non2xx, 0);
+  console.log(
+    `| ${target.label} | ${cpuA.toFixed(2)} | ${cpuB.toFixed(2)} | ${(cpuA / cpuB).toFixed(2)}× | ${median(runs.A.map((r) => r.rps)).toFixed(0)} | ${median(runs.B.map((r) => r.rps)).toFixed(0)} | ${non2xx('A')}/${non2xx('B')} |`,
+  );
+}
+console.log(`load-compare: load average ${os.loadavg().map((v) => v.toFixed(1)).join(' ')} after`);
