@@ -85,15 +85,28 @@ const targets = [
   { label: 'GET /api/teams', path: '/api/teams', signedIn: true },
   { label: 'GET /api/sheets/{id}', path: `/api/sheets/${DEMO_SHEET_ID}`, signedIn: true },
   { label: 'GET /api/sheets', path: '/api/sheets', signedIn: true },
-  { label: 'POST /api/quick', path: '/api/quick', method: 'POST', body: JSON.stringify({ expr: 'scarp_age(2 m, 0, 25 deg, 1 m^2/kyr)', preview: true }), signedIn: true },
-  { label: 'POST /api/evaluate (50 blocks)', path: '/api/evaluate', method: 'POST', body: JSON.stringify({ document: chainedDocument(50) }), signedIn: true },
+  { label: 'POST /api/quick', path: '/api/quick', method: 'POST', body: JSON.stringify({ expr: 'scarp_age(2 m, 0, 25 deg, 1 m^2/kyr)', preview: true }), signedIn: true, everyone: true },
+  { label: 'POST /api/evaluate (50 blocks)', path: '/api/evaluate', method: 'POST', body: JSON.stringify({ document: chainedDocument(50) }), signedIn: true, everyone: true },
   { label: 'sheet page HTML', path: `/sheets/${DEMO_SHEET_ID}`, signedIn: true },
 ].filter((t) => t.label.includes(ONLY));
 
-const cookies = {
-  A: await Promise.all(['owner', 'editor'].map((r) => signIn(sides.A, `${r}@demo.test`, 'demo-password'))),
-  B: await Promise.all(['owner', 'editor'].map((r) => signIn(sides.B, `${r}@demo.test`, 'demo-password'))),
-};
+/** The four demo accounts, then 12 accounts signed up on that side (evaluations are limited per user in flight). */
+async function accounts(base: URL): Promise<{ demo: string[]; all: string[] }> {
+  const demo = await Promise.all(['owner', 'editor', 'reviewer', 'viewer'].map((r) => signIn(base, `${r}@demo.test`, 'demo-password')));
+  const all = [...demo];
+  for (let i = 0; i < 12; i++) {
+    const email = `compare-${Date.now()}-${i}@example.test`;
+    const response = await fetch(new URL('/api/users', base), {
+      method: 'POST',
+      headers: { 'content-type': 'application/json' },
+      body: JSON.stringify({ email, password: 'compare-password', name: `Compare ${i}` }),
+    });
+    if (response.status !== 201) break;
+    all.push(await signIn(base, email, 'compare-password'));
+  }
+  return { demo, all };
+}
+const cookies = { A: await accounts(sides.A), B: await accounts(sides.B) };
 const pids = { A: pidOf(sides.A), B: pidOf(sides.B) };
 
 async function slice(side: 'A' | 'B', target: (typeof targets)[number], seconds: number) {
@@ -107,7 +120,8 @@ async function slice(side: 'A' | 'B', target: (typeof targets)[number], seconds:
     duration: seconds,
     setupClient: (client: { setHeaders: (headers: Record<string, string>) => void }) => {
       const headers: Record<string, string> = target.body ? { 'content-type': 'application/json' } : {};
-      if (target.signedIn) headers.cookie = cookies[side][next++ % cookies[side].length]!;
+      const pool = 'everyone' in target ? cookies[side].all : cookies[side].demo;
+      if (target.signedIn) headers.cookie = pool[next++ % pool.length]!;
       client.setHeaders(headers);
     },
   } as autocannon.Options);
