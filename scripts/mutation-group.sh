@@ -34,7 +34,15 @@ case "${1:-}" in
   uncertainty)
     MUTATE="lib/engine/uncertainty/statistics.ts,lib/engine/uncertainty/distributions.ts,lib/engine/uncertainty/numeric.ts"
     TESTS="tests/engine/uncertainty/*.test.ts,$T/data-blocks-uncertainty.test.ts" ;;
-  *) echo "usage: $0 first-release|scarp-channel|tectonic|orogen-nuclide|geotherm-strength|flexure-closure|data|uncertainty" >&2; exit 2 ;;
+  uncertainty-statistics)
+    # A part of the uncertainty group that fits a short session: sample statistics and the four distributions.
+    MUTATE="lib/engine/uncertainty/statistics.ts,lib/engine/uncertainty/distributions.ts"
+    TESTS="tests/engine/uncertainty/*.test.ts,$T/data-blocks-uncertainty.test.ts" ;;
+  uncertainty-numeric)
+    # The other part: expressions compiled to functions on SI floats for the samples.
+    MUTATE="lib/engine/uncertainty/numeric.ts"
+    TESTS="tests/engine/uncertainty/*.test.ts,$T/data-blocks-uncertainty.test.ts" ;;
+  *) echo "usage: $0 first-release|scarp-channel|tectonic|orogen-nuclide|geotherm-strength|flexure-closure|data|uncertainty|uncertainty-statistics|uncertainty-numeric" >&2; exit 2 ;;
 esac
 export DENUDATA_MUTATION_TESTS="$TESTS" DENUDATA_MUTATION_REPORT="$1"
 exec nice -n 15 npx stryker run --incremental --mutate "$MUTATE" ${@:2}

@@ -55,3 +55,33 @@ describe('average ranks of long runs of ties', () => {
     expect(ranks[9999]).toBe(10000);
   });
 });
+
+describe('degenerate samples (limits of the definitions)', () => {
+  it('should give one value a standard deviation of 0 (N − 1 = 0: no spread is estimable) and every percentile equal to it', () => {
+    expect(standardDeviation([7])).toBe(0);
+    const one = sortedCopy([7]);
+    expect(quantileSorted(one, 0)).toBe(7);
+    expect(quantileSorted(one, 0.975)).toBe(7);
+  });
+
+  it('should give a constant sample Spearman 0 against anything (Pearson is 0/0 there: taken as no correlation)', () => {
+    const constant = averageRanks([3, 3, 3, 3]);
+    expect([...constant]).toEqual([2.5, 2.5, 2.5, 2.5]);
+    expect(spearmanFromRanks(constant, averageRanks([1, 2, 3, 4]))).toBe(0);
+    expect(spearmanFromRanks(averageRanks([1, 2, 3, 4]), constant)).toBe(0);
+  });
+
+  it('should put a constant sample in the first bin, nothing outside (zero bin width)', () => {
+    const values = Float64Array.from({ length: 50 }, () => 2.5);
+    const h = histogram(values, sortedCopy(values));
+    expect(h.lo).toBe(2.5);
+    expect(h.hi).toBe(2.5);
+    expect(h.counts[0]).toBe(50);
+    expect(h.counts.slice(1).every((c) => c === 0)).toBe(true);
+    expect(h.outside).toEqual([0, 0]);
+  });
+
+  it('should sort numerically, not as text (10 after 9)', () => {
+    expect([...sortedCopy([10, 9, -1, 100])]).toEqual([-1, 9, 10, 100]);
+  });
+});
