@@ -7,7 +7,7 @@ import { expectClose } from '../../support/approx';
 // The numeric compiler of samples against a reference: a fresh, unrestricted mathjs instance from npm
 // evaluating the same text with the same values, converted to SI. Two sample points each, away from the
 // nominal one (the caller checks only the nominal point before trusting the compiled function).
-const reference = create(all);
+const reference = create(all!);
 const SLOTS = ['a.x', 'b.y'];
 const slot = (block: string, output: string): number | null => {
   const i = SLOTS.indexOf(`${block}.${output}`);
