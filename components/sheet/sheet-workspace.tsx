@@ -66,7 +66,7 @@ export function SheetWorkspace({
   const docRef = useRef(doc);
   docRef.current = doc;
   const { selectedId, setSelectedId, selectedRef, renamingId, setRenamingId, captionId, setCaptionId, freshIds, markFresh, revealAll, selectAdjacent, goTo, editFields } =
-    useBlockSelection(docRef);
+    useBlockSelection(docRef, initial.document.blocks[0]?.id ?? null);
   const [railTab, setRailTab] = useState('help');
   const [editingTitle, setEditingTitle] = useState(false);
   const [dialog, setDialog] = useState<SheetDialog>(null);

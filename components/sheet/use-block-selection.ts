@@ -8,8 +8,8 @@ import { focusBlock } from './use-block-actions';
  * Which block is selected, renamed or has its caption open, and the blocks added in this visit (their
  * empty required inputs read "needs input" until revealed). Callbacks are stable.
  */
-export function useBlockSelection(docRef: RefObject<SheetDocument>) {
-  const [selectedId, setSelectedId] = useState<string | null>(() => docRef.current.blocks[0]?.id ?? null);
+export function useBlockSelection(docRef: RefObject<SheetDocument>, firstId: string | null) {
+  const [selectedId, setSelectedId] = useState<string | null>(firstId);
   const selectedRef = useRef(selectedId);
   selectedRef.current = selectedId;
   const [renamingId, setRenamingId] = useState<string | null>(null);

@@ -48,9 +48,12 @@ export function useDraftEvaluation({
   stateRef: RefObject<DraftState>;
   send: (action: DraftAction) => void;
 }) {
-  const [activeRun, setActiveRun] = useState<ActiveRun | null>(null);
-  const activeRunRef = useRef(activeRun);
-  activeRunRef.current = activeRun;
+  const [activeRun, setActiveRunState] = useState<ActiveRun | null>(null);
+  const activeRunRef = useRef<ActiveRun | null>(null);
+  const setActiveRun = useCallback((run: ActiveRun | null) => {
+    activeRunRef.current = run;
+    setActiveRunState(run);
+  }, []);
 
   const stored = useMutation({
     mutationFn: async (stamp: number) => {
@@ -75,10 +78,10 @@ export function useDraftEvaluation({
       send({ type: 'results', results: data.results, edit: data.stamp, draftVersion: data.draftVersion });
     },
   });
-  const evaluateRef = useRef(stored.mutate);
-  evaluateRef.current = stored.mutate;
+  // `mutate` keeps its identity (TanStack Query), so `evaluate` is stable.
+  const { mutate } = stored;
   /** Evaluates the stored draft for edit `stamp`. */
-  const evaluate = useCallback((stamp: number) => evaluateRef.current(stamp), []);
+  const evaluate = useCallback((stamp: number) => mutate(stamp), [mutate]);
 
   /**
    * The edited document evaluated as soon as typing pauses (LIVE_DELAY_MS), independently of saving: the
@@ -141,10 +144,10 @@ export function useDraftEvaluation({
       setActiveRun(null);
       send({ type: 'run-results', results, edit: run?.stamp ?? -1, draftVersion: run?.draftVersion ?? -1 });
     },
-    [send],
+    [send, setActiveRun],
   );
   /** The long run failed or was cancelled: the previous results stay, marked stale. */
-  const runEnded = useCallback(() => setActiveRun(null), []);
+  const runEnded = useCallback(() => setActiveRun(null), [setActiveRun]);
 
   return {
     evaluate,

@@ -7,8 +7,9 @@ import { Field } from '@/components/ui/field';
 import type { TeamRole as Role } from '@/models';
 import { ApiError, apiFetch, type ApiRequest } from '@/lib/api-client';
 import { formatDay } from '@/lib/format/dates';
+import type { PublicUser as Person } from '@/lib/db/users';
 
-type Member = { user: { id: string; name: string; email: string }; role: Role; joinedAt: string };
+type Member = { user: Person; role: Role; joinedAt: string };
 type Pending = { id: string; email: string; role: Role; expiresAt: string };
 
 const ROLES: { value: Role; label: string; help: string }[] = [

@@ -1,7 +1,10 @@
 // The messages Denudata sends, as plain data (no I/O): recipient, subject and a plain-text body.
+import type { PublicUser } from '@/lib/db/users';
+
 export type MailMessage = { to: string; subject: string; text: string };
 
-type Person = { name: string; email: string };
+/** The one person type, narrowed to what a message names. */
+type Person = Pick<PublicUser, 'name' | 'email'>;
 
 const SIGNATURE = '\n\n— Denudata, a shared notebook of erosion calculations.\nYou get this message because of your account or a team invitation.';
 

@@ -5,13 +5,13 @@
 import type { SheetDocument, SheetResults } from '@/lib/engine';
 import { STANDING_CAUTION } from '@/lib/engine/block-type';
 import type { FigureModel } from './figure';
+import type { PublicUser } from '@/lib/db/users';
 
 export type ReviewStatusName = 'unsigned' | 'in_review' | 'checked' | 'approved' | 'returned';
 export type ReviewActionName = 'request' | 'check' | 'return' | 'approve';
 
-export interface ReportPerson {
-  name: string;
-}
+/** A person as the report names them (the one person type, narrowed to the name). */
+export type ReportPerson = Pick<PublicUser, 'name'>;
 
 /** One review action with its note, as the trail holds it. */
 export interface ReviewTrailEntry {
