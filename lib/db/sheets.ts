@@ -1,11 +1,10 @@
 import 'server-only';
 import { QueryTypes, type Transaction } from 'sequelize';
 import { conflict, notFound } from '@/lib/errors';
-import { Sheet, type ReviewStatus } from '@/models';
+import { Sheet } from '@/models';
 import { recordAudit } from './audit';
 import { isUuid } from './ids';
 import { db } from './index';
-import type { PublicUser } from './users';
 
 export type SiteInput = { name: string; latitude?: number; longitude?: number; notes?: string };
 
@@ -22,18 +21,6 @@ export type SheetRecord = {
   createdAt: string;
   updatedAt: string;
 };
-
-export type SheetListItem = {
-  id: string;
-  title: string;
-  site: string | null;
-  revision: number;
-  status: ReviewStatus | 'draft';
-  updatedAt: string;
-  author: PublicUser | null;
-};
-
-export type SheetSort = 'updated' | 'title' | 'site' | 'revision' | 'status';
 
 function siteOf(sheet: Sheet): SiteInput | null {
   if (!sheet.siteName) return null;
@@ -75,77 +62,11 @@ export function emptyDocument(title: string, site?: SiteInput | null) {
   return { format: 'denudata-sheet@1', title, ...(site ? { site } : {}), blocks: [] as unknown[] };
 }
 
-const SORT_SQL: Record<SheetSort, string> = {
-  updated: 's.updated_at',
-  title: 'lower(s.title)',
-  site: 'lower(coalesce(s.site_name, \'\'))',
-  revision: 's.head_revision',
-  status: "coalesce(r.review_status::text, 'draft')",
-};
-
-/** A team's visible sheets (archived ones left out), searchable by title and site, sortable. */
-export async function listSheetsByTeam({
-  teamId,
-  q,
-  sort = 'updated',
-  descending,
-  status,
-}: {
-  teamId: string;
-  q?: string;
-  sort?: SheetSort;
-  descending?: boolean;
-  status?: ReviewStatus | 'draft';
-}): Promise<{ items: SheetListItem[]; total: number }> {
-  const sequelize = db();
-  const direction = (descending ?? sort === 'updated') ? 'DESC' : 'ASC';
-  const rows = await sequelize.query<{
-    id: string;
-    title: string;
-    site_name: string | null;
-    head_revision: number;
-    status: string;
-    updated_at: Date;
-    author_id: string | null;
-    author_name: string | null;
-    author_email: string | null;
-  }>(
-    `SELECT s.id, s.title, s.site_name, s.head_revision, coalesce(r.review_status::text, 'draft') AS status,
-            s.updated_at, u.id AS author_id, u.name AS author_name, u.email AS author_email
-       FROM sheets s
-       LEFT JOIN sheet_revisions r ON r.sheet_id = s.id AND r.number = s.head_revision
-       LEFT JOIN users u ON u.id = coalesce(s.updated_by, s.created_by)
-      WHERE s.team_id = :teamId AND s.archived_at IS NULL
-        AND (:q = '' OR s.title ILIKE :pattern OR coalesce(s.site_name, '') ILIKE :pattern)
-        AND (:status = '' OR coalesce(r.review_status::text, 'draft') = :status)
-      ORDER BY ${SORT_SQL[sort]} ${direction}, s.id`,
-    {
-      type: QueryTypes.SELECT,
-      replacements: {
-        teamId,
-        q: q?.trim() ?? '',
-        pattern: `%${(q ?? '').trim().replace(/[\\%_]/g, (c) => `\\${c}`)}%`,
-        status: status ?? '',
-      },
-    },
-  );
-  const items = rows.map((row) => ({
-    id: row.id,
-    title: row.title,
-    site: row.site_name,
-    revision: row.head_revision,
-    status: row.status as SheetListItem['status'],
-    updatedAt: new Date(row.updated_at).toISOString(),
-    author: row.author_id ? { id: row.author_id, name: row.author_name!, email: row.author_email! } : null,
-  }));
-  return { items, total: items.length };
-}
-
 /** The columns of a SheetRecord (never the draft document, which can be large), for raw queries on `s`. */
-const RECORD_COLUMNS = `s.id, s.team_id, s.title, s.site_name, s.site_latitude, s.site_longitude, s.site_notes, s.draft_version,
+export const RECORD_COLUMNS = `s.id, s.team_id, s.title, s.site_name, s.site_latitude, s.site_longitude, s.site_notes, s.draft_version,
   s.head_revision, s.archived_at, s.forked_from_sheet_id, s.forked_from_revision, s.created_at, s.updated_at`;
 
-type RecordRow = {
+export type RecordRow = {
   id: string;
   team_id: string;
   title: string;
@@ -162,7 +83,7 @@ type RecordRow = {
   updated_at: Date;
 };
 
-function recordOfRow(row: RecordRow): SheetRecord {
+export function recordOfRow(row: RecordRow): SheetRecord {
   return {
     id: row.id,
     teamId: row.team_id,
@@ -261,96 +182,6 @@ export async function createSheet({
   return db().transaction(async (transaction) =>
     toSheetRecord(await insertSheet({ teamId, userId, document: draft, audit: { action: 'sheet.created' } }, transaction)),
   );
-}
-
-export type SheetDetail = {
-  sheet: SheetRecord & { createdBy: PublicUser | null; updatedBy: PublicUser | null };
-  draft: { version: number; document: unknown };
-  /** `evaluating` (only when true): the head's results are not stored yet (its long run evaluates it, CONTRACT §6b). */
-  head: { number: number; hash: string; status: ReviewStatus; evaluating?: true } | null;
-  /** sheetId and title are null when the source belongs to a team the reader is not in. */
-  forkedFrom?: { sheetId: string | null; title: string | null; revision: number | null; visible: boolean };
-  forks: { id: string; title: string; site: string | null; revision: number | null }[];
-};
-
-/**
- * Everything the sheet page and `GET /api/sheets/{id}` show; forks from other teams are left out, and a
- * source sheet the reader cannot see is named by nothing but the revision it was forked at (neither its
- * id nor its title). One plain query (forks in a subquery).
- */
-export async function getSheetDetail({
-  sheetId,
-  visibleTeamIds,
-}: {
-  sheetId: string;
-  visibleTeamIds: string[];
-}): Promise<SheetDetail> {
-  if (!isUuid(sheetId)) throw notFound('Sheet');
-  const [row] = await db().query<
-    RecordRow & {
-      draft_document: unknown;
-      creator_id: string | null;
-      creator_name: string | null;
-      creator_email: string | null;
-      updater_id: string | null;
-      updater_name: string | null;
-      updater_email: string | null;
-      head_number: number | null;
-      head_hash: string | null;
-      head_status: ReviewStatus | null;
-      head_evaluating: boolean | null;
-      source_team_id: string | null;
-      source_title: string | null;
-      forks: { id: string; title: string; site: string | null; revision: number | null }[];
-    }
-  >(
-    `SELECT ${RECORD_COLUMNS}, s.draft_document,
-            cu.id AS creator_id, cu.name AS creator_name, cu.email AS creator_email,
-            uu.id AS updater_id, uu.name AS updater_name, uu.email AS updater_email,
-            h.number AS head_number, h.hash AS head_hash, h.review_status AS head_status, (h.results IS NULL) AS head_evaluating,
-            src.team_id AS source_team_id, src.title AS source_title,
-            coalesce((SELECT json_agg(json_build_object('id', f.id, 'title', f.title, 'site', f.site_name, 'revision', f.forked_from_revision)
-                                      ORDER BY f.created_at, f.id)
-                        FROM sheets f
-                       WHERE f.forked_from_sheet_id = s.id AND f.team_id = ANY($2::uuid[])), '[]'::json) AS forks
-       FROM sheets s
-       LEFT JOIN users cu ON cu.id = s.created_by
-       LEFT JOIN users uu ON uu.id = s.updated_by
-       LEFT JOIN sheet_revisions h ON h.sheet_id = s.id AND h.number = s.head_revision AND s.head_revision > 0
-       LEFT JOIN sheets src ON src.id = s.forked_from_sheet_id
-      WHERE s.id = $1`,
-    { bind: [sheetId, visibleTeamIds.filter(isUuid)], type: QueryTypes.SELECT },
-  );
-  if (!row) throw notFound('Sheet');
-  const person = (id: string | null, name: string | null, email: string | null): PublicUser | null =>
-    id ? { id, name: name!, email: email! } : null;
-  const record = recordOfRow(row);
-  const sourceVisible = row.source_team_id !== null && visibleTeamIds.includes(row.source_team_id);
-  return {
-    sheet: {
-      ...record,
-      // The source of a fork is named only to a reader who can see it.
-      forkedFromSheetId: sourceVisible ? record.forkedFromSheetId : null,
-      createdBy: person(row.creator_id, row.creator_name, row.creator_email),
-      updatedBy: person(row.updater_id, row.updater_name, row.updater_email),
-    },
-    draft: { version: row.draft_version, document: row.draft_document },
-    head:
-      row.head_number !== null
-        ? { number: row.head_number, hash: row.head_hash!, status: row.head_status!, ...(row.head_evaluating ? { evaluating: true as const } : {}) }
-        : null,
-    ...(row.forked_from_sheet_id
-      ? {
-          forkedFrom: {
-            sheetId: sourceVisible ? row.forked_from_sheet_id : null,
-            title: sourceVisible ? row.source_title : null,
-            revision: row.forked_from_revision,
-            visible: sourceVisible,
-          },
-        }
-      : {}),
-    forks: row.forks.map((f) => ({ id: f.id, title: f.title, site: f.site, revision: f.revision })),
-  };
 }
 
 /** The audit action of a draft save. */

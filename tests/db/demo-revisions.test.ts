@@ -7,7 +7,7 @@ import { Dataset } from '@/models';
 import { DEMO_IN_REVIEW_INDEX, DEMO_TEAM_ID, demoSheetId, seedDemo } from '@/lib/db/seed';
 import { getRevision } from '@/lib/db/revisions';
 import { closeSequelize } from '@/lib/db/sequelize';
-import { getSheetDetail } from '@/lib/db/sheets';
+import { getSheetDetail } from '@/lib/db/sheet-detail';
 import { ENGINE_VERSION, evaluateSheet, hashSheetDocument } from '@/lib/engine';
 
 describe('demo revisions', () => {

@@ -2,7 +2,7 @@ import { describe, expect, it } from 'vitest';
 import { forkSheet } from '@/lib/db/forks';
 import { saveRevision } from '@/lib/db/revisions';
 import { getSheetPreferences, updateSheetPreferences } from '@/lib/db/sheet-preferences';
-import { getSheetDetail } from '@/lib/db/sheets';
+import { getSheetDetail } from '@/lib/db/sheet-detail';
 import { makeSheet, makeTeam, sampleDocument, useTeamFixture } from '../support/review-fixtures';
 
 describe('forks (lib/db/forks)', () => {

@@ -8,7 +8,7 @@ import { db } from '@/lib/db';
 import { getRun } from '@/lib/db/runs';
 import { applyReviewAction } from '@/lib/db/review';
 import { getRevision, getReviewSummary, listRevisionsBySheet, readRevision, saveRevision } from '@/lib/db/revisions';
-import { getSheetDetail } from '@/lib/db/sheets';
+import { getSheetDetail } from '@/lib/db/sheet-detail';
 import { WORKER_FILE } from '@/lib/evaluation/pool';
 import { stopJobQueue } from '@/lib/jobs/queue';
 import { closeRunPool, startRunWorker } from '@/lib/jobs/runs';

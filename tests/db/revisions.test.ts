@@ -3,7 +3,7 @@ import canonicalize from 'canonicalize';
 import { QueryTypes } from 'sequelize';
 import { db } from '@/lib/db';
 import { getRevision, importSheet, listRevisionsBySheet, saveRevision } from '@/lib/db/revisions';
-import { getSheetDetail } from '@/lib/db/sheets';
+import { getSheetDetail } from '@/lib/db/sheet-detail';
 import { evaluateSheet, hashSheetDocument, parseSheetDocument, type SheetDocument } from '@/lib/engine';
 import { AppError } from '@/lib/errors';
 import { makeSheet, rejection, sampleDocument, useTeamFixture } from '../support/review-fixtures';

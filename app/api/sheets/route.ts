@@ -1,6 +1,7 @@
 import { requireUser } from '@/lib/auth/guard';
 import { resolveTeam } from '@/lib/auth/team';
-import { createSheet, listSheetsByTeam, type SheetSort } from '@/lib/db/sheets';
+import { listSheetsByTeam, type SheetSort } from '@/lib/db/sheet-list';
+import { createSheet } from '@/lib/db/sheets';
 import { json, notAllowed, readJson, readQuery, route } from '@/lib/http';
 import { createSheetSchema, listSheetsQuerySchema } from './schema';
 

@@ -5,7 +5,7 @@ import { NewSheetForm } from '@/components/sheets/new-sheet-form';
 import { StatusTag, STATUS_WORDS, type SheetStatus } from '@/components/ui/status';
 import { requirePageUser } from '@/lib/auth/page';
 import { roleAllows } from '@/lib/auth/permissions';
-import { listSheetsByTeam, type SheetSort } from '@/lib/db/sheets';
+import { listSheetsByTeam, type SheetSort } from '@/lib/db/sheet-list';
 import { formatMinute } from '@/lib/format/dates';
 
 export const metadata: Metadata = { title: 'Sheets' };

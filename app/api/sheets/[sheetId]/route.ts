@@ -1,6 +1,7 @@
 import { requireSession, requireSheetRole, requireUser } from '@/lib/auth/guard';
 import { roleAllows } from '@/lib/auth/permissions';
-import { deleteSheet, getSheetDetail } from '@/lib/db/sheets';
+import { getSheetDetail } from '@/lib/db/sheet-detail';
+import { deleteSheet } from '@/lib/db/sheets';
 import { forbidden, notFound } from '@/lib/errors';
 import { json, notAllowed, route } from '@/lib/http';
 
