@@ -1,6 +1,6 @@
 import { beforeAll, describe, expect, it } from 'vitest';
 import { createComment, extractMentionHandles, listCommentsBySheet, resolveMentions, updateComment } from '@/lib/db/comments';
-import { saveRevision } from '@/lib/db/revisions';
+import { saveRevision } from '@/lib/db/revision-save';
 import { makeSheet, rejection, sampleDocument, useTeamFixture } from '../support/review-fixtures';
 
 describe('mention handles', () => {

@@ -15,7 +15,7 @@ import {
   resolveDocumentDatasets,
 } from '@/lib/db/datasets';
 import { forkSheet } from '@/lib/db/forks';
-import { importSheet, saveRevision } from '@/lib/db/revisions';
+import { importSheet, saveRevision } from '@/lib/db/revision-save';
 import { saveDraft } from '@/lib/db/sheets';
 import { parseDatasetText } from '@/lib/datasets/parse';
 import { makeSheet, makeTeam, rejection, useTeamFixture } from '../support/review-fixtures';

@@ -1,6 +1,6 @@
 import { describe, expect, it } from 'vitest';
 import { forkSheet } from '@/lib/db/forks';
-import { saveRevision } from '@/lib/db/revisions';
+import { saveRevision } from '@/lib/db/revision-save';
 import { getSheetPreferences, updateSheetPreferences } from '@/lib/db/sheet-preferences';
 import { getSheetDetail } from '@/lib/db/sheet-detail';
 import { makeSheet, makeTeam, sampleDocument, useTeamFixture } from '../support/review-fixtures';

@@ -1,6 +1,7 @@
 import { describe, expect, it } from 'vitest';
 import { applyReviewAction } from '@/lib/db/review';
-import { getRevision, saveRevision } from '@/lib/db/revisions';
+import { getRevision } from '@/lib/db/revisions';
+import { saveRevision } from '@/lib/db/revision-save';
 import { getSheetDetail } from '@/lib/db/sheet-detail';
 import { listActivityByTeam } from '@/lib/db/activity';
 import { makeSheet, rejection, type Role, sampleDocument, useTeamFixture } from '../support/review-fixtures';

@@ -7,7 +7,8 @@ import { evaluateSheet, estimateEvaluationCost, needsLongRun, SYNC_COST_LIMIT, t
 import { db } from '@/lib/db';
 import { getRun } from '@/lib/db/runs';
 import { applyReviewAction } from '@/lib/db/review';
-import { getRevision, getReviewSummary, listRevisionsBySheet, readRevision, saveRevision } from '@/lib/db/revisions';
+import { getRevision, getReviewSummary, listRevisionsBySheet, readRevision } from '@/lib/db/revisions';
+import { saveRevision } from '@/lib/db/revision-save';
 import { getSheetDetail } from '@/lib/db/sheet-detail';
 import { WORKER_FILE } from '@/lib/evaluation/pool';
 import { stopJobQueue } from '@/lib/jobs/queue';

@@ -8,7 +8,7 @@ import path from 'node:path';
 import { beforeAll, describe, expect, it } from 'vitest';
 import Papa from 'papaparse';
 import { evaluateSheet, parseSheetDocument, type SheetDocument, type SheetResults } from '@/lib/engine';
-import { saveRevision } from '@/lib/db/revisions';
+import { saveRevision } from '@/lib/db/revision-save';
 import { RESULTS_CSV_COLUMNS, resultsCsv } from '@/lib/report/csv';
 import { loadReport } from '@/lib/report/load.server';
 import type { ReportModel } from '@/lib/report/types';

@@ -1,6 +1,6 @@
 import { requireUser } from '@/lib/auth/guard';
 import { resolveTeam } from '@/lib/auth/team';
-import { importSheet } from '@/lib/db/revisions';
+import { importSheet } from '@/lib/db/revision-save';
 import { MAX_DATASET_BODY_BYTES, json, notAllowed, readJson, route } from '@/lib/http';
 import { AppError } from '@/lib/errors';
 import { compareRecordedOutputs } from '@/lib/report/record';

@@ -1,5 +1,6 @@
 import { requireSheetRole, requireUser } from '@/lib/auth/guard';
-import { listRevisionsBySheet, saveRevision } from '@/lib/db/revisions';
+import { listRevisionsBySheet } from '@/lib/db/revisions';
+import { saveRevision } from '@/lib/db/revision-save';
 import { json, notAllowed, readJson, route } from '@/lib/http';
 import { saveRevisionSchema } from './schema';
 
