@@ -22,6 +22,17 @@ const nextConfig = {
   // Database drivers and the worker pool run as plain Node modules, never bundled.
   serverExternalPackages: ['sequelize', 'pg', 'pg-hstore', 'piscina', 'mathjs', 'smtp-server', 'nodemailer', 'pg-boss', '@react-pdf/renderer'],
   typedRoutes: false,
+  // The expression fields use @uiw/react-codemirror with basicSetup off; the package still imports its basic
+  // setup and dark theme, which would add about 30 kB compressed to the sheet page: both are replaced by
+  // modules that are never used (lib/editor/*-off.ts; DEVELOPERS.md, "Editor package").
+  turbopack: {
+    resolveAlias: {
+      '@uiw/codemirror-extensions-basic-setup': './lib/editor/basic-setup-off.ts',
+      '@codemirror/theme-one-dark': './lib/editor/dark-theme-off.ts',
+    },
+  },
+  // `DENUDATA_SOURCE_MAPS=1 next build` writes browser source maps, for scripts/bundle-composition.mjs only.
+  productionBrowserSourceMaps: process.env.DENUDATA_SOURCE_MAPS === '1',
   // The test run builds into a folder of its own so a running `npm start` is never disturbed.
   distDir: process.env.DENUDATA_DIST_DIR || '.next',
   async headers() {

@@ -1,9 +1,10 @@
 'use client';
 
 import { closeBrackets, closeCompletion } from '@codemirror/autocomplete';
-import { Compartment, EditorState, Prec, type Extension } from '@codemirror/state';
-import { EditorView, keymap, placeholder as placeholderText } from '@codemirror/view';
-import { useEffect, useRef } from 'react';
+import { EditorState, Prec, type Extension } from '@codemirror/state';
+import { EditorView, keymap } from '@codemirror/view';
+import CodeMirror from '@uiw/react-codemirror';
+import { useCallback, useMemo, useRef } from 'react';
 import { expressionCompletion, expressionHighlight, expressionLanguage, type CompletionData } from './expression-language';
 
 export interface ExpressionFieldProps {
@@ -35,91 +36,76 @@ function attributeExtension(p: Pick<ExpressionFieldProps, 'labelId' | 'described
   });
 }
 
-function editableExtension(readOnly: boolean): Extension {
-  return [EditorView.editable.of(!readOnly), EditorState.readOnly.of(readOnly)];
-}
-
 /**
- * One-line expression editor on CodeMirror's view and state only (no basic setup: it keeps the
- * sheet page light). Undo and redo go to the sheet's own history, so Ctrl+Z is one stack.
+ * One-line expression editor: @uiw/react-codemirror with its basic setup, theme and Tab indentation off, and
+ * only the extensions the field uses (the expression language and highlighting, completion, closing brackets,
+ * one line, the accessible attributes). Undo and redo go to the sheet's own history, so Ctrl+Z is one stack.
+ * Outside changes of the value (undo, rename, merge) replace the text; the package does not echo them back
+ * through onChange.
  */
 export default function ExpressionField(props: ExpressionFieldProps) {
-  const host = useRef<HTMLDivElement>(null);
-  const view = useRef<EditorView | null>(null);
   const latest = useRef(props);
   latest.current = props;
-  const attributes = useRef(new Compartment());
-  const editable = useRef(new Compartment());
 
-  useEffect(() => {
-    if (!host.current) return;
+  // Made once (everything they read is a ref), so the editor's state (an open completion list) survives
+  // the package's reconfiguration when the attributes below change.
+  const base = useMemo(() => {
     const p = latest.current;
-    const state = EditorState.create({
-      doc: p.value,
-      extensions: [
-        expressionLanguage(new Set(p.units), new Set(p.functions)),
-        expressionHighlight,
-        expressionCompletion(() => latest.current.completion()),
-        closeBrackets(),
-        placeholderText(p.placeholder ?? ''),
-        EditorView.lineWrapping,
-        // One line: Enter adds nothing; pasted line breaks become spaces.
-        Prec.high(keymap.of([{ key: 'Enter', run: () => true }])),
-        // Tab leaves the field as everywhere else: an open completion list closes first (never
-        // accepted by Tab, never left open over the next field).
-        Prec.highest(
-          keymap.of([
-            { key: 'Tab', run: (v) => (closeCompletion(v), false) },
-            { key: 'Shift-Tab', run: (v) => (closeCompletion(v), false) },
-          ]),
-        ),
-        EditorState.transactionFilter.of((tr) => {
-          if (!tr.docChanged || tr.newDoc.lines <= 1) return tr;
-          const text = tr.newDoc.toString().replace(/\s*\n\s*/g, ' ');
-          return [tr, { changes: { from: 0, to: tr.newDoc.length, insert: text }, sequential: true }];
-        }),
-        // Leaving the field (blur, Tab, a click elsewhere) closes its completion list.
-        EditorView.domEventHandlers({
-          blur: (_event, v) => {
-            closeCompletion(v);
-            latest.current.onBlur?.();
-            return false;
-          },
-        }),
-        EditorView.updateListener.of((update) => {
-          if (update.docChanged) {
-            const text = update.state.doc.toString();
-            if (text !== latest.current.value) latest.current.onChange(text);
-          }
-        }),
-        attributes.current.of(attributeExtension(p)),
-        editable.current.of(editableExtension(p.readOnly)),
-      ],
-    });
-    view.current = new EditorView({ state, parent: host.current });
-    return () => {
-      view.current?.destroy();
-      view.current = null;
-    };
-    // The editor is made once (everything it reads is a ref); later prop changes are applied below.
+    return [
+      expressionLanguage(new Set(p.units), new Set(p.functions)),
+      expressionHighlight,
+      expressionCompletion(() => latest.current.completion()),
+      closeBrackets(),
+      EditorView.lineWrapping,
+      // One line: Enter adds nothing; pasted line breaks become spaces.
+      Prec.high(keymap.of([{ key: 'Enter', run: () => true }])),
+      // Tab leaves the field as everywhere else: an open completion list closes first (never
+      // accepted by Tab, never left open over the next field).
+      Prec.highest(
+        keymap.of([
+          { key: 'Tab', run: (v) => (closeCompletion(v), false) },
+          { key: 'Shift-Tab', run: (v) => (closeCompletion(v), false) },
+        ]),
+      ),
+      EditorState.transactionFilter.of((tr) => {
+        if (!tr.docChanged || tr.newDoc.lines <= 1) return tr;
+        const text = tr.newDoc.toString().replace(/\s*\n\s*/g, ' ');
+        return [tr, { changes: { from: 0, to: tr.newDoc.length, insert: text }, sequential: true }];
+      }),
+      // Leaving the field (blur, Tab, a click elsewhere) closes its completion list.
+      EditorView.domEventHandlers({
+        blur: (_event, v) => {
+          closeCompletion(v);
+          latest.current.onBlur?.();
+          return false;
+        },
+      }),
+    ];
+  }, []);
+  const { labelId, describedBy, invalid, readOnly } = props;
+  const attributes = useMemo(() => attributeExtension({ labelId, describedBy, invalid, readOnly }), [labelId, describedBy, invalid, readOnly]);
+  const extensions = useMemo(() => [...base, attributes], [base, attributes]);
+
+  // Stable: a new onChange would make the package reconfigure the editor.
+  const onChange = useCallback((text: string) => {
+    if (text !== latest.current.value) latest.current.onChange(text);
   }, []);
 
-  // Outside changes (undo, rename, merge) replace the text.
-  useEffect(() => {
-    const v = view.current;
-    if (!v) return;
-    const current = v.state.doc.toString();
-    if (current !== props.value) v.dispatch({ changes: { from: 0, to: current.length, insert: props.value } });
-  }, [props.value]);
-
-  const { labelId, describedBy, invalid, readOnly } = props;
-  useEffect(() => {
-    view.current?.dispatch({ effects: attributes.current.reconfigure(attributeExtension({ labelId, describedBy, invalid, readOnly })) });
-  }, [labelId, describedBy, invalid, readOnly]);
-
-  useEffect(() => {
-    view.current?.dispatch({ effects: editable.current.reconfigure(editableExtension(props.readOnly)) });
-  }, [props.readOnly]);
-
-  return <div ref={host} className="expr-field" data-invalid={props.invalid ? 'true' : undefined} data-readonly={props.readOnly ? 'true' : undefined} id={props.id} />;
+  return (
+    <CodeMirror
+      value={props.value}
+      onChange={onChange}
+      extensions={extensions}
+      basicSetup={false}
+      indentWithTab={false}
+      theme="none"
+      placeholder={props.placeholder ?? ''}
+      editable={!props.readOnly}
+      readOnly={props.readOnly}
+      className="expr-field"
+      data-invalid={props.invalid ? 'true' : undefined}
+      data-readonly={props.readOnly ? 'true' : undefined}
+      id={props.id}
+    />
+  );
 }

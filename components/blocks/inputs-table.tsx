@@ -4,15 +4,12 @@ import { Button } from '@/components/ui/button';
 import dynamic from 'next/dynamic';
 import { useEffect, useState } from 'react';
 import { DatasetPicker } from '@/components/datasets/dataset-picker';
+// The density sketch of a declared distribution (and its quantile code) loads only for a field that declares one.
+import InputHintFromText from '@/components/uncertainty/input-hint-from-text';
 import type { CatalogInput, SheetBlock } from '@/lib/sheet/types';
 import type { BlockCardActions } from './block-actions';
 import type { CompletionData } from './expression-language';
 
-// The density sketch of a declared distribution (and its quantile code) loads beside the field, not with the page.
-const InputHintFromText = dynamic(() => import('@/components/uncertainty/input-hint-from-text'), {
-  ssr: false,
-  loading: () => <div className="h-[30px] rounded-[3px] border border-rule bg-wash" aria-hidden="true" />,
-});
 
 // CodeMirror loads only on pages that show fields.
 const ExpressionField = dynamic(() => import('./expression-field'), {

@@ -1,84 +1,123 @@
-import { Fragment, type ReactNode } from 'react';
+import { Fragment, useMemo, type ReactNode } from 'react';
+import { fromMarkdown } from 'mdast-util-from-markdown';
+import type { Definition, Nodes, Parents, PhrasingContent, RootContent } from 'mdast';
 
 /**
- * A small, safe markdown subset for notes: headings, paragraphs, lists, **bold**, *emphasis*,
- * `code` and [links](https://...). Everything becomes React text nodes, so raw HTML is shown as
- * text and never interpreted; only http(s) and mailto links are made.
+ * Notes and captions as markdown (CommonMark, parsed by mdast-util-from-markdown: the parser the PDF
+ * report uses, lib/report/pdf-markdown.tsx), drawn as React elements from the syntax tree. Nothing a note
+ * says becomes live HTML: raw HTML is shown as text, and only http(s) and mailto links are made (any other
+ * address, relative ones and `javascript:` among them, leaves the link's text only). Images are shown as
+ * their description (a note never loads anything). The `#` and `##` headings draw as h3, deeper ones as h4,
+ * below the block's own heading.
  */
 export function NoteMarkdown({ text }: { text: string }) {
-  const blocks: ReactNode[] = [];
-  const lines = text.replace(/\r\n?/g, '\n').split('\n');
-  let paragraph: string[] = [];
-  let list: { ordered: boolean; items: string[] } | null = null;
-  const flushParagraph = () => {
-    if (paragraph.length) blocks.push(<p key={blocks.length}>{inline(paragraph.join(' '))}</p>);
-    paragraph = [];
-  };
-  const flushList = () => {
-    if (!list) return;
-    const items = list.items.map((item, i) => <li key={i}>{inline(item)}</li>);
-    blocks.push(list.ordered ? <ol key={blocks.length}>{items}</ol> : <ul key={blocks.length}>{items}</ul>);
-    list = null;
-  };
-  for (const line of lines) {
-    const heading = /^(#{1,6})\s+(.*)$/.exec(line);
-    const bullet = /^\s*[-*+]\s+(.*)$/.exec(line);
-    const numbered = /^\s*\d+[.)]\s+(.*)$/.exec(line);
-    if (heading) {
-      flushParagraph();
-      flushList();
-      const content = inline(heading[2]!);
-      blocks.push(heading[1]!.length <= 2 ? <h3 key={blocks.length}>{content}</h3> : <h4 key={blocks.length}>{content}</h4>);
-    } else if (bullet || numbered) {
-      flushParagraph();
-      const ordered = Boolean(numbered);
-      if (list && list.ordered !== ordered) flushList();
-      list ??= { ordered, items: [] };
-      list.items.push((bullet ?? numbered)![1]!);
-    } else if (line.trim() === '') {
-      flushParagraph();
-      flushList();
-    } else {
-      flushList();
-      paragraph.push(line.trim());
-    }
-  }
-  flushParagraph();
-  flushList();
-  return <>{blocks}</>;
+  const content = useMemo(() => renderMarkdown(text), [text]);
+  return <>{content}</>;
 }
 
-const INLINE = /(`[^`]+`)|(\*\*[^*]+\*\*)|(\*[^*\s][^*]*\*|_[^_\s][^_]*_)|(\[[^\]]+\]\([^)\s]+\))/;
+/** A note is bounded in length by the document's limits; nesting deeper than this is drawn as plain text. */
+const MAX_DEPTH = 12;
+const SAFE_URL = /^(https?:|mailto:)/i;
 
-function inline(text: string): ReactNode[] {
-  const out: ReactNode[] = [];
-  let rest = text;
-  let key = 0;
-  while (rest.length) {
-    const match = INLINE.exec(rest);
-    if (!match) {
-      out.push(<Fragment key={key++}>{rest}</Fragment>);
-      break;
+interface Context {
+  definitions: Map<string, string>;
+}
+
+export function renderMarkdown(text: string): ReactNode[] {
+  const tree = fromMarkdown(text.replace(/\r\n?/g, '\n'));
+  const definitions = new Map<string, string>();
+  const collect = (node: Nodes) => {
+    if (node.type === 'definition') definitions.set((node as Definition).identifier, (node as Definition).url);
+    if ('children' in node) (node.children as Nodes[]).forEach(collect);
+  };
+  collect(tree);
+  return blocks(tree.children, { definitions }, 0, false);
+}
+
+function plain(node: Nodes): string {
+  if ('value' in node && typeof node.value === 'string') return node.value;
+  if ('children' in node) return (node.children as Nodes[]).map(plain).join('');
+  if (node.type === 'image' || node.type === 'imageReference') return node.alt ?? '';
+  return '';
+}
+
+function link(key: number, url: string | undefined, children: ReactNode): ReactNode {
+  const href = url?.trim();
+  if (!href || !SAFE_URL.test(href)) return <Fragment key={key}>{children}</Fragment>;
+  return (
+    <a key={key} href={href} rel="noopener noreferrer nofollow" target="_blank">
+      {children}
+    </a>
+  );
+}
+
+function inline(nodes: PhrasingContent[], ctx: Context, depth: number): ReactNode[] {
+  return nodes.map((node, i): ReactNode => {
+    if (depth > MAX_DEPTH) return plain(node);
+    switch (node.type) {
+      case 'text':
+        // A soft line break inside a paragraph is a space.
+        return node.value.replace(/\n/g, ' ');
+      case 'html':
+        return node.value;
+      case 'strong':
+        return <strong key={i}>{inline(node.children, ctx, depth + 1)}</strong>;
+      case 'emphasis':
+        return <em key={i}>{inline(node.children, ctx, depth + 1)}</em>;
+      case 'inlineCode':
+        return <code key={i}>{node.value}</code>;
+      case 'break':
+        return <br key={i} />;
+      case 'link':
+        return link(i, node.url, inline(node.children, ctx, depth + 1));
+      case 'linkReference':
+        return link(i, ctx.definitions.get(node.identifier), inline(node.children, ctx, depth + 1));
+      case 'image':
+      case 'imageReference':
+        return node.alt ?? '';
+      default:
+        return 'children' in node ? inline((node as Parents).children as PhrasingContent[], ctx, depth + 1) : plain(node);
     }
-    if (match.index > 0) out.push(<Fragment key={key++}>{rest.slice(0, match.index)}</Fragment>);
-    const token = match[0];
-    if (match[1]) out.push(<code key={key++}>{token.slice(1, -1)}</code>);
-    else if (match[2]) out.push(<strong key={key++}>{inline(token.slice(2, -2))}</strong>);
-    else if (match[3]) out.push(<em key={key++}>{inline(token.slice(1, -1))}</em>);
-    else {
-      const link = /^\[([^\]]+)\]\(([^)\s]+)\)$/.exec(token)!;
-      const href = link[2]!;
-      if (/^(https?:|mailto:)/i.test(href)) {
-        out.push(
-          <a key={key++} href={href} rel="noopener noreferrer nofollow" target="_blank">
-            {link[1]}
-          </a>,
+  });
+}
+
+function blocks(nodes: RootContent[], ctx: Context, depth: number, tight: boolean): ReactNode[] {
+  return nodes.map((node, i): ReactNode => {
+    if (depth > MAX_DEPTH) return <p key={i}>{plain(node)}</p>;
+    switch (node.type) {
+      case 'paragraph':
+        // Items of a tight list hold their text without a paragraph around it.
+        return tight ? inline(node.children, ctx, depth + 1) : <p key={i}>{inline(node.children, ctx, depth + 1)}</p>;
+      case 'heading':
+        return node.depth <= 2 ? <h3 key={i}>{inline(node.children, ctx, depth + 1)}</h3> : <h4 key={i}>{inline(node.children, ctx, depth + 1)}</h4>;
+      case 'html':
+        // Raw HTML is text, never markup.
+        return <p key={i}>{node.value}</p>;
+      case 'code':
+        return (
+          <pre key={i}>
+            <code>{node.value}</code>
+          </pre>
         );
-      } else {
-        out.push(<Fragment key={key++}>{link[1]}</Fragment>);
+      case 'blockquote':
+        return <blockquote key={i}>{blocks(node.children, ctx, depth + 1, false)}</blockquote>;
+      case 'list': {
+        const items = node.children.map((item, k) => <li key={k}>{blocks(item.children, ctx, depth + 1, !(node.spread || item.spread))}</li>);
+        if (!node.ordered) return <ul key={i}>{items}</ul>;
+        return node.start != null && node.start !== 1 ? (
+          <ol key={i} start={node.start}>
+            {items}
+          </ol>
+        ) : (
+          <ol key={i}>{items}</ol>
+        );
       }
+      case 'thematicBreak':
+        return <hr key={i} />;
+      case 'definition':
+        return null;
+      default:
+        return 'children' in node || 'value' in node ? <p key={i}>{plain(node as Nodes)}</p> : null;
     }
-    rest = rest.slice(match.index + token.length);
-  }
-  return out;
+  });
 }

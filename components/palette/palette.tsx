@@ -1,16 +1,15 @@
 'use client';
 
-import { Command, defaultFilter } from 'cmdk';
-import { useQuery, useQueryClient } from '@tanstack/react-query';
-import { useCallback, useEffect, useMemo, useState, type ReactNode } from 'react';
-import type { QuickRecord } from '@/lib/sheet/types';
+import { lazy, Suspense, useCallback, useEffect, useRef, useState, type ReactNode } from 'react';
 import { GlobalCommands } from './global-commands';
 import { ShortcutsSheet } from './shortcuts-sheet';
-import { RegistryProvider, useRegistrySnapshot, type PaletteCommand } from './command-registry';
+import { RegistryProvider } from './command-registry';
 import { isTypingTarget } from './shortcuts';
-import { isRiskyCommand, needsConfirmation, riskyCommandScore } from './command-safety';
-import { apiFetch } from '@/lib/api-client';
-import { ConfirmCommand, LOOKS_LIKE_EXPRESSION, QuickResult, formatQuick, postQuick, useDebounced } from './quick-calculation';
+
+// cmdk, its dialog and the quick calculation load on demand (about 17 kB compressed): when the palette first
+// opens, or as soon as Ctrl or ⌘ goes down (the usual way to open it), so the chunk is usually there by the K.
+const loadDialog = () => import('./palette-dialog');
+const PaletteDialog = lazy(loadDialog);
 
 /** The palette (Ctrl+K / ⌘K), its command registry and the shortcuts sheet, for every workspace page. */
 export function PaletteProvider({ children }: { children: ReactNode }) {
@@ -26,8 +25,13 @@ export function PaletteProvider({ children }: { children: ReactNode }) {
     setShortcutsOpen(true);
   }, []);
 
+  // Once opened, the dialog stays mounted (closed) so it keeps its state and closes as before.
+  const [wanted, setWanted] = useState(false);
+  if (open && !wanted) setWanted(true);
+
   useEffect(() => {
     const onKey = (event: KeyboardEvent) => {
+      if (event.key === 'Control' || event.key === 'Meta') void loadDialog();
       if ((event.ctrlKey || event.metaKey) && !event.altKey && event.key.toLowerCase() === 'k') {
         event.preventDefault();
         setOpen((v) => {
@@ -50,196 +54,52 @@ export function PaletteProvider({ children }: { children: ReactNode }) {
     <RegistryProvider onOpen={onOpen} onShowShortcuts={onShowShortcuts}>
       <GlobalCommands />
       {children}
-      <Palette open={open} setOpen={setOpen} query={query} setQuery={setQuery} />
+      {open || wanted ? (
+        <Suspense fallback={open ? <PaletteLoading query={query} setQuery={setQuery} onClose={() => setOpen(false)} /> : null}>
+          <PaletteDialog open={open} setOpen={setOpen} query={query} setQuery={setQuery} />
+        </Suspense>
+      ) : null}
       {shortcutsOpen ? <ShortcutsSheet onClose={() => setShortcutsOpen(false)} /> : null}
     </RegistryProvider>
   );
 }
 
-const GROUP_ORDER = ['Sheet', 'Block', 'Review', 'Revisions', 'Add block', 'Go to', 'General'];
-
-function Palette({
-  open,
-  setOpen,
-  query,
-  setQuery,
-}: {
-  open: boolean;
-  setOpen: (open: boolean) => void;
-  query: string;
-  setQuery: (query: string) => void;
-}) {
-  const { commands, quickInsert } = useRegistrySnapshot();
-  const queryClient = useQueryClient();
-  const trimmed = query.trim();
-  const debounced = useDebounced(trimmed, 250);
-  const isExpression = LOOKS_LIKE_EXPRESSION.test(debounced) && debounced.length <= 2000;
-  const [notice, setNotice] = useState<string | null>(null);
-
-  const quick = useQuery({
-    queryKey: ['quick-preview', debounced],
-    queryFn: () => postQuick(debounced, true),
-    enabled: open && isExpression,
-    retry: false,
-    staleTime: 60_000,
-  });
-  const recent = useQuery({
-    queryKey: ['quick-recent'],
-    queryFn: () =>
-      apiFetch<{ items: QuickRecord[] }>('/api/quick/recent').catch(() => {
-        throw new Error('Could not load recent quick calculations.');
-      }),
-    enabled: open,
-    staleTime: 5_000,
-  });
-
+/**
+ * Shown for the moment between opening the palette and its code arriving: it holds the focus, so what the
+ * user types goes into the palette's query (kept for the dialog) and never into the field behind it.
+ */
+function PaletteLoading({ query, setQuery, onClose }: { query: string; setQuery: (query: string) => void; onClose: () => void }) {
+  const box = useRef<HTMLDivElement>(null);
   useEffect(() => {
-    if (!open) setNotice(null);
-  }, [open]);
-
-
-  const groups = useMemo(() => {
-    const byGroup = new Map<string, PaletteCommand[]>();
-    for (const command of commands) {
-      const list = byGroup.get(command.group) ?? [];
-      list.push(command);
-      byGroup.set(command.group, list);
-    }
-    return [...byGroup.entries()].sort((a, b) => {
-      const ia = GROUP_ORDER.indexOf(a[0]);
-      const ib = GROUP_ORDER.indexOf(b[0]);
-      return (ia < 0 ? 99 : ia) - (ib < 0 ? 99 : ib);
-    });
-  }, [commands]);
-
-  // A destructive command waits here for an explicit confirmation.
-  const [pending, setPending] = useState<PaletteCommand | null>(null);
-  useEffect(() => {
-    if (!open) setPending(null);
-  }, [open]);
-
-  const runCommand = (command: PaletteCommand) => {
-    if (needsConfirmation(command.id) && pending?.id !== command.id) {
-      setPending(command);
-      return;
-    }
-    setPending(null);
-    setOpen(false);
-    // Let the dialog close before the command moves focus.
-    setTimeout(() => command.run(), 0);
-  };
-
-  const acceptQuick = async () => {
-    const expr = trimmed;
-    if (!expr) return;
-    try {
-      const answer = await postQuick(expr, false);
-      void queryClient.invalidateQueries({ queryKey: ['quick-recent'] });
-      if (quickInsert) {
-        setOpen(false);
-        setTimeout(() => quickInsert(expr), 0);
-      } else {
-        setNotice(`Kept in your recent quick calculations: ${expr} = ${formatQuick(answer)}. Open a sheet you can edit to insert it as a block.`);
-      }
-    } catch (error) {
-      setNotice(error instanceof Error ? error.message : 'The quick calculation failed.');
-    }
-  };
-
-  const showQuick = LOOKS_LIKE_EXPRESSION.test(trimmed) && trimmed.length <= 2000;
-  const quickIsCurrent = trimmed === debounced;
-  // While an expression is typed, Enter takes the quick result.
-  const [selected, setSelected] = useState('');
-  useEffect(() => {
-    if (showQuick) setSelected('__quick');
-  }, [showQuick, trimmed]);
-  const riskyTitles = useMemo(() => {
-    const titles = new Map<string, string>();
-    for (const command of commands) if (isRiskyCommand(command.id)) titles.set(commandValue(command), command.title);
-    return titles;
-  }, [commands]);
-  const filter = (value: string, search: string, keywords?: string[]) => {
-    if (value === '__quick') return 1;
-    const score = defaultScore(value, search, keywords);
-    const riskyTitle = riskyTitles.get(value);
-    return riskyTitle === undefined ? score : riskyCommandScore(riskyTitle, search, score);
-  };
-
+    const previous = document.activeElement instanceof HTMLElement ? document.activeElement : null;
+    box.current?.focus();
+    // Give the focus back before the dialog takes it, so closing the dialog returns it where it was.
+    return () => {
+      if (previous?.isConnected) previous.focus({ preventScroll: true });
+    };
+  }, []);
   return (
-    <Command.Dialog
-      open={open}
-      onOpenChange={setOpen}
-      label="Command palette"
-      filter={filter}
-      value={selected}
-      onValueChange={setSelected}
-      loop
-      overlayClassName="fixed inset-0 z-40 bg-basalt/30"
-      contentClassName="fixed left-1/2 top-[12vh] z-50 w-[min(640px,calc(100vw-24px))] -translate-x-1/2 overflow-hidden rounded-[6px] border border-rule bg-chalk text-basalt shadow-2xl"
-    >
-      <div className="flex items-center gap-2 border-b border-rule px-3">
+    <>
+      <div className="fixed inset-0 z-40 bg-basalt/30" aria-hidden="true" onMouseDown={onClose} />
+      <div
+        ref={box}
+        role="dialog"
+        aria-modal="true"
+        aria-label="Command palette"
+        aria-busy="true"
+        tabIndex={-1}
+        onKeyDown={(event) => {
+          if (event.key === 'Escape') onClose();
+          else if (event.key === 'Backspace') setQuery(query.slice(0, -1));
+          else if (event.key.length === 1 && !event.ctrlKey && !event.metaKey && !event.altKey) setQuery(query + event.key);
+          else return;
+          event.preventDefault();
+        }}
+        className="fixed left-1/2 top-[12vh] z-50 flex h-11 w-[min(640px,calc(100vw-24px))] -translate-x-1/2 items-center gap-2 rounded-[6px] border border-rule bg-chalk px-3 text-[14px] text-basalt shadow-2xl outline-none"
+      >
         <span aria-hidden="true" className="text-slate">›</span>
-        <Command.Input
-          value={query}
-          onValueChange={setQuery}
-          aria-label="Search commands, or type an expression for a quick calculation"
-          placeholder="Search commands, or type an expression such as 2 m / 3 s"
-          className="h-11 w-full bg-transparent text-[14px] outline-none placeholder:text-slate"
-        />
+        {query ? <span>{query}</span> : <span className="text-slate">Opening the palette…</span>}
       </div>
-      <Command.List className="max-h-[min(60vh,480px)] overflow-y-auto p-1.5" aria-label="Commands">
-        {showQuick ? (
-          <QuickResult quick={quick} current={quickIsCurrent} canInsert={quickInsert !== null} onAccept={acceptQuick} />
-        ) : null}
-        {notice ? (
-          <p role="status" className="px-2 py-1.5 text-[12px] text-slate">
-            {notice}
-          </p>
-        ) : null}
-        {pending ? (
-          <ConfirmCommand command={pending} onConfirm={() => runCommand(pending)} onCancel={() => setPending(null)} />
-        ) : null}
-        <Command.Empty className="px-2 py-3 text-[13px] text-slate">No command matches. Type a number or a bracket to calculate.</Command.Empty>
-        {groups.map(([group, list]) => (
-          <Command.Group key={group} heading={group} className="palette-group">
-            {list.map((command) => (
-              <Command.Item
-                key={command.id}
-                value={commandValue(command)}
-                keywords={command.keywords}
-                onSelect={() => runCommand(command)}
-                className="palette-item"
-              >
-                <span className="flex min-w-0 flex-1 flex-col">
-                  <span className="truncate">{command.title}</span>
-                  {command.detail ? <span className="truncate text-[12px] text-slate">{command.detail}</span> : null}
-                </span>
-                {command.shortcut ? <kbd className="palette-kbd">{command.shortcut}</kbd> : null}
-              </Command.Item>
-            ))}
-          </Command.Group>
-        ))}
-        {!trimmed && recent.data && recent.data.items.length > 0 ? (
-          <Command.Group heading="Recent quick calculations" className="palette-group">
-            {recent.data.items.slice(0, 8).map((item) => (
-              <Command.Item key={item.id} value={`recent ${item.id} ${item.expression}`} onSelect={() => setQuery(item.expression)} className="palette-item">
-                <span className="num min-w-0 flex-1 truncate">{item.expression}</span>
-                <span className="num text-slate">= {formatQuick(item.result)}</span>
-              </Command.Item>
-            ))}
-          </Command.Group>
-        ) : null}
-      </Command.List>
-    </Command.Dialog>
+    </>
   );
-}
-
-/** The text cmdk matches and scores an entry by. */
-function commandValue(command: PaletteCommand): string {
-  return `${command.group}: ${command.title} ${command.id}`;
-}
-
-// cmdk's own scoring, kept for every entry but the quick result.
-function defaultScore(value: string, search: string, keywords?: string[]): number {
-  return defaultFilter(value, search, keywords);
 }

@@ -1,6 +1,6 @@
 'use client';
 
-import { useId, useMemo, useState, type ReactNode } from 'react';
+import { useMemo } from 'react';
 import { densitySketch, sketchPath, type EchoParameter } from '@/lib/plot/distribution-density';
 
 const WIDTH = 168;
@@ -25,52 +25,5 @@ export function DistributionSketch({ distribution, parameters, label }: { distri
       </svg>
       <figcaption className="max-w-[16rem] text-[11px] leading-snug text-slate">{sketch.description}</figcaption>
     </figure>
-  );
-}
-
-/**
- * Wraps an input field: while the pointer is over it or focus is inside it, the sketch of its declared
- * distribution shows beside it, and the distribution in words is announced through aria-describedby. The
- * wrapper is always the same element, so the field inside is never re-mounted while the user types.
- */
-export function UncertainInputHint({
-  distribution,
-  parameters,
-  label,
-  children,
-}: {
-  distribution: string | null;
-  parameters: Record<string, EchoParameter> | null;
-  label: string;
-  children: ReactNode;
-}) {
-  const [shown, setShown] = useState(false);
-  const id = useId();
-  const sketch = useMemo(() => (distribution && parameters ? densitySketch(distribution, parameters) : null), [distribution, parameters]);
-  return (
-    <div
-      role={sketch ? 'group' : undefined}
-      aria-describedby={sketch ? id : undefined}
-      className="relative"
-      onMouseEnter={() => setShown(true)}
-      onMouseLeave={() => setShown(false)}
-      onFocus={() => setShown(true)}
-      onBlur={(event) => {
-        if (!event.currentTarget.contains(event.relatedTarget as Node | null)) setShown(false);
-      }}
-    >
-      {children}
-      {sketch ? (
-        // The words are always in the page for assistive technology; the drawing appears on hover or focus.
-        <span id={id} className="sr-only">
-          {sketch.description}
-        </span>
-      ) : null}
-      {sketch && shown && distribution && parameters ? (
-        <div className="absolute left-0 top-full z-20 mt-1 rounded-[3px] border border-rule bg-paper p-2 shadow-sm" data-testid="distribution-hint">
-          <DistributionSketch distribution={distribution} parameters={parameters} label={label} />
-        </div>
-      ) : null}
-    </div>
   );
 }

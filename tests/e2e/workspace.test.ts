@@ -1,4 +1,5 @@
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+import { writeFileSync } from 'node:fs';
 import type { Browser, BrowserContext, Locator, Page } from 'playwright-core';
 import { launchBrowser, signInThroughForm } from '../support/browser';
 import { appUrl } from '../support/http';
@@ -19,12 +20,13 @@ async function outputValue(scope: Locator, output: string): Promise<number> {
   return Number.parseFloat((await cell.textContent()) ?? 'NaN');
 }
 
-/** Compressed bytes of JavaScript the page downloaded (encoded body sizes of script resources). */
-async function scriptBytes(page: Page): Promise<{ bytes: number; files: number }> {
+/** Compressed bytes of JavaScript the page downloaded (encoded body sizes of script resources), and which files. */
+async function scriptBytes(page: Page): Promise<{ bytes: number; files: number; list: { path: string; bytes: number }[] }> {
   return page.evaluate(() => {
     const entries = performance.getEntriesByType('resource') as PerformanceResourceTiming[];
     const scripts = entries.filter((e) => e.initiatorType === 'script' || /\.js(\?|$)/.test(new URL(e.name).pathname));
-    return { bytes: scripts.reduce((sum, e) => sum + (e.encodedBodySize || e.transferSize || 0), 0), files: scripts.length };
+    const list = scripts.map((e) => ({ path: new URL(e.name).pathname, bytes: e.encodedBodySize || e.transferSize || 0 }));
+    return { bytes: list.reduce((sum, e) => sum + e.bytes, 0), files: list.length, list };
   });
 }
 
@@ -239,6 +241,8 @@ describe('the sheet workspace in Chromium', () => {
       `[bundle] sheets index: ${(index.bytes / 1024).toFixed(1)} kB compressed JS in ${index.files} files; ` +
         `sheet page (fields and a plot): ${(sheet.bytes / 1024).toFixed(1)} kB in ${sheet.files} files`,
     );
+    // scripts/bundle-composition.mjs reads this list to say what the page's JavaScript is made of.
+    if (process.env.DENUDATA_BUNDLE_FILES) writeFileSync(process.env.DENUDATA_BUNDLE_FILES, JSON.stringify({ index: index.list, sheet: sheet.list }, null, 2));
     expect(index.bytes).toBeGreaterThan(10_000);
     expect(index.bytes).toBeLessThan(200 * 1024);
     expect(sheet.bytes).toBeLessThanOrEqual(420 * 1024);

@@ -25,3 +25,43 @@ describe('note markdown', () => {
     expect(html('**<b>bold</b>**')).toBe('<p><strong>&lt;b&gt;bold&lt;/b&gt;</strong></p>');
   });
 });
+
+// CommonMark beyond the old subset, now that notes are parsed by mdast-util-from-markdown (the PDF's parser).
+// Expected trees follow the CommonMark 0.31 specification's examples (commonmark.org/spec: tight and loose
+// lists, block quotes, fenced code, hard breaks, reference links, HTML blocks).
+describe('note markdown through the CommonMark parser', () => {
+  it('should draw block quotes, fenced code, rules, hard breaks, nested and numbered lists', () => {
+    expect(html('> quoted\n> text')).toBe('<blockquote><p>quoted text</p></blockquote>');
+    expect(html('```\nK = 1e-2 m^2/s\n<b>\n```')).toBe('<pre><code>K = 1e-2 m^2/s\n&lt;b&gt;</code></pre>');
+    expect(html('above\n\n***\n\nbelow')).toBe('<p>above</p><hr/><p>below</p>');
+    expect(html('one  \ntwo')).toBe('<p>one<br/>two</p>');
+    expect(html('- a\n  - b\n- c')).toBe('<ul><li>a<ul><li>b</li></ul></li><li>c</li></ul>');
+    expect(html('3. third\n4. fourth')).toBe('<ol start="3"><li>third</li><li>fourth</li></ol>');
+    // A loose list (items apart by a blank line) keeps its paragraphs.
+    expect(html('- a\n\n- b')).toBe('<ul><li><p>a</p></li><li><p>b</p></li></ul>');
+  });
+
+  it('should resolve reference links and keep the same rules for their addresses', () => {
+    expect(html('See [the log][log].\n\n[log]: https://example.org/log "Log"')).toBe(
+      '<p>See <a href="https://example.org/log" rel="noopener noreferrer nofollow" target="_blank">the log</a>.</p>',
+    );
+    expect(html('[bad][x]\n\n[x]: javascript:alert(1)')).toBe('<p>bad</p>');
+    expect(html('<https://example.org/a>')).toContain('href="https://example.org/a"');
+    expect(html('[data](data:text/html,<script>alert(1)</script>)')).not.toContain('href');
+    expect(html('[upper](JAVASCRIPT:alert(1))')).not.toContain('href');
+  });
+
+  it('should show images as their description and never load them, and keep HTML in every position as text', () => {
+    expect(html('![a scarp](https://example.org/x.png)')).toBe('<p>a scarp</p>');
+    expect(html('<script>alert(1)</script>')).toBe('<p>&lt;script&gt;alert(1)&lt;/script&gt;</p>');
+    expect(html('a <span onclick="x()">b</span> c')).toBe('<p>a &lt;span onclick=&quot;x()&quot;&gt;b&lt;/span&gt; c</p>');
+    expect(html('&lt;b&gt; &amp; &copy;')).toBe('<p>&lt;b&gt; &amp; ©</p>');
+  });
+
+  it('should draw deep nesting as text instead of recursing without bound', () => {
+    const deep = `${'> '.repeat(40)}deep`;
+    const out = html(deep);
+    expect(out).toContain('deep');
+    expect((out.match(/<blockquote>/g) ?? []).length).toBeLessThanOrEqual(13);
+  });
+});
