@@ -217,6 +217,41 @@ describe('the sheet workspace in Chromium', () => {
     await page.keyboard.press('Escape');
   });
 
+  it('should keep what is typed straight after Ctrl+K for the palette while its code is still on the way', async () => {
+    const typedSheet = await newEditorSheet(editor, 'Browser check: palette typing');
+    await page.goto(`${appUrl()}/sheets/${typedSheet}`);
+    await page.keyboard.press('ControlOrMeta+K');
+    await page.locator('[cmdk-input]').fill('Formula');
+    await page.locator('[cmdk-item]', { hasText: 'Add Formula' }).first().click();
+    await typeExpression(page, block(page, 'calc_1'), 'Expression', '1 m');
+    await page.waitForFunction(() => document.querySelector('[data-testid="save-state"]')?.getAttribute('data-kind') === 'saved', null, { timeout: 20_000 });
+    // A fresh page with an empty cache; once it has loaded, every further script is held back 1.5 s, so the
+    // palette's code (loaded on demand) arrives well after the keys below.
+    const fresh = await editor.newPage();
+    const cdp = await editor.newCDPSession(fresh);
+    await cdp.send('Network.enable');
+    await cdp.send('Network.setCacheDisabled', { cacheDisabled: true });
+    await fresh.goto(`${appUrl()}/sheets/${typedSheet}`);
+    const field = block(fresh, 'calc_1').getByRole('textbox', { name: 'Expression' });
+    await field.waitFor();
+    await fresh.waitForLoadState('networkidle');
+    await fresh.route('**/_next/static/chunks/**', async (route) => {
+      await new Promise((resolve) => setTimeout(resolve, 1500));
+      await route.continue();
+    });
+    await field.click();
+    await fresh.keyboard.press('ControlOrMeta+K');
+    await fresh.keyboard.type('Formula');
+    const input = fresh.locator('[cmdk-input]');
+    await input.waitFor({ timeout: 20_000 });
+    expect(await input.inputValue()).toBe('Formula');
+    // The open dialog hides the page from the accessibility tree, so the field is read by its element here.
+    expect(await block(fresh, 'calc_1').locator('.cm-content').textContent()).toBe('1 m');
+    await fresh.keyboard.press('Escape');
+    await input.waitFor({ state: 'detached' });
+    await fresh.close();
+  });
+
   it('should download less than 200 kB of compressed JavaScript for the index and 420 kB for a sheet page (issue 9\'s ceiling)', async () => {
     const measure = async (url: string, ready: (p: Page) => Promise<void>) => {
       const fresh = await editor.newPage();
