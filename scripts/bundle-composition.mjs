@@ -64,7 +64,7 @@ for (const { path: urlPath, bytes } of list) {
     const sections = map.sections ?? [{ offset: { line: 0, column: 0 }, map }];
     const lines = code.split('\n');
     // Attribute per generated line: each segment owns the characters up to the next segment.
-    const owner = lines.map((l) => new Array(0)); // [startCol, group][] per line
+    const owner = lines.map(() => []); // [startCol, group][] per line
     for (const { offset, map: m } of sections) {
       const decoded = decode(m.mappings);
       decoded.forEach((segments, i) => {
