@@ -1,19 +1,15 @@
 import 'server-only';
-import { createHash } from 'node:crypto';
 import { QueryTypes, UniqueConstraintError, type Transaction } from 'sequelize';
-import { AppError, badRequest, notFound } from '@/lib/errors';
+import { AppError, notFound } from '@/lib/errors';
 import type { DatasetCanonical, DatasetKind, DatasetLookup } from '@/lib/engine/dataset';
 import { canonicalCsv } from '@/lib/datasets/canonical';
-import { checkBundleDatasetList, type BundleDatasetInput } from '@/lib/datasets/bundle';
 import { parseDatasetFile } from '@/lib/datasets/parse';
 import { datasetReferences } from '@/lib/datasets/references';
-import { Dataset, Team, User } from '@/models';
+import { Dataset, User } from '@/models';
 import { recordAudit } from './audit';
+import { insertDatasets, lockTeam, type NewDataset } from './dataset-store';
 import { db } from './index';
 import { toPublicUser, type PublicUser } from './users';
-
-/** Team quota (CONTRACT §7.5). */
-export const DATASET_QUOTA = { datasets: 1000, canonicalBytes: 200 * 1024 * 1024 } as const;
 
 /** A dataset as the API shows it (CONTRACT §6 additions). */
 export type DatasetSummary = {
@@ -75,93 +71,6 @@ async function creatorsOf(rows: Dataset[], transaction?: Transaction): Promise<M
 async function summarise(row: Dataset, transaction?: Transaction): Promise<DatasetSummary> {
   const people = await creatorsOf([row], transaction);
   return toSummary(row, row.createdBy ? people.get(row.createdBy) ?? null : null);
-}
-
-const sha256Hex = (data: Uint8Array | string) => createHash('sha256').update(data).digest('hex');
-
-/** Locks the team's row so that quota checks and inserts of one team run one at a time. */
-async function lockTeam(teamId: string, transaction: Transaction): Promise<void> {
-  const team = await Team.findByPk(teamId, { transaction, lock: transaction.LOCK.UPDATE, attributes: ['id'] });
-  if (!team) throw notFound('Team');
-}
-
-async function usage(teamId: string, transaction?: Transaction): Promise<{ count: number; bytes: number }> {
-  const [row] = await db().query<{ count: string; bytes: string | null }>(
-    'SELECT count(*) AS count, sum(canonical_bytes) AS bytes FROM datasets WHERE team_id = :teamId',
-    { type: QueryTypes.SELECT, replacements: { teamId }, transaction },
-  );
-  return { count: Number(row?.count ?? 0), bytes: Number(row?.bytes ?? 0) };
-}
-
-function quotaError(message: string, current: { count: number; bytes: number }): AppError {
-  return new AppError('quota_exceeded', message, {
-    extra: { quota: { datasets: DATASET_QUOTA.datasets, bytes: DATASET_QUOTA.canonicalBytes }, usage: { datasets: current.count, bytes: current.bytes } },
-  });
-}
-
-type NewDataset = {
-  sha256: string;
-  kind: DatasetKind;
-  name: string;
-  description: string;
-  columns: { name: string; unit: string }[];
-  canonical: string;
-  rowCount: number;
-  original: Buffer;
-  originalFilename: string | null;
-};
-
-/**
- * Inserts datasets into a team that does not hold them yet, inside the caller's transaction, after the
- * quota check for all of them together (409 quota_exceeded and nothing written when they do not fit).
- * Returns, per sha256, the row and whether it was created.
- */
-async function insertDatasets(
-  { teamId, userId, items, audit }: { teamId: string; userId: string | null; items: NewDataset[]; audit: string },
-  transaction: Transaction,
-): Promise<Map<string, { row: Dataset; created: boolean }>> {
-  await lockTeam(teamId, transaction);
-  const hashes = [...new Set(items.map((i) => i.sha256))];
-  const existing = hashes.length ? await Dataset.findAll({ where: { teamId, sha256: hashes }, transaction }) : [];
-  const out = new Map<string, { row: Dataset; created: boolean }>(existing.map((row) => [row.sha256, { row, created: false }]));
-  const fresh: NewDataset[] = [];
-  for (const item of items) if (!out.has(item.sha256) && !fresh.some((f) => f.sha256 === item.sha256)) fresh.push(item);
-  if (!fresh.length) return out;
-  const current = await usage(teamId, transaction);
-  const addedBytes = fresh.reduce((sum, f) => sum + Buffer.byteLength(f.canonical, 'utf8'), 0);
-  if (current.count + fresh.length > DATASET_QUOTA.datasets) {
-    throw quotaError(`The team holds ${current.count} datasets; the limit is ${DATASET_QUOTA.datasets}. Delete datasets no sheet uses first.`, current);
-  }
-  if (current.bytes + addedBytes > DATASET_QUOTA.canonicalBytes) {
-    throw quotaError('The team\u2019s datasets would exceed 200 MiB of canonical data. Delete datasets no sheet uses first.', current);
-  }
-  for (const item of fresh) {
-    const row = await Dataset.create(
-      {
-        teamId,
-        sha256: item.sha256,
-        kind: item.kind,
-        name: item.name,
-        description: item.description,
-        columns: item.columns,
-        canonical: item.canonical,
-        canonicalBytes: Buffer.byteLength(item.canonical, 'utf8'),
-        rowCount: item.rowCount,
-        original: item.original,
-        originalSha256: sha256Hex(item.original),
-        originalFilename: item.originalFilename,
-        byteSize: item.original.byteLength,
-        createdBy: userId,
-      },
-      { transaction },
-    );
-    out.set(item.sha256, { row, created: true });
-    await recordAudit(
-      { teamId, actorId: userId, action: audit, subjectType: 'dataset', subjectId: item.sha256, details: { name: item.name, kind: item.kind, rows: item.rowCount } },
-      transaction,
-    );
-  }
-  return out;
 }
 
 /**
@@ -353,81 +262,3 @@ export function requireKnownDatasets(missing: string[]): void {
   });
 }
 
-/** A dataset as a bundle carries it (CONTRACT §6 additions). */
-export type BundleDataset = { sha256: string; name: string; description: string; kind: DatasetKind; canonical: DatasetCanonical };
-
-/** The datasets a document refers to, from the team, as a bundle lists them (in the document's order). */
-export async function bundleDatasets({ teamId, document }: { teamId: string; document: unknown }): Promise<BundleDataset[]> {
-  const hashes = datasetReferences(document);
-  if (!hashes.length) return [];
-  db();
-  const rows = await Dataset.findAll({ where: { teamId, sha256: hashes }, attributes: ['id', 'sha256', 'name', 'description', 'kind', 'canonical'] });
-  const bySha = new Map(rows.map((r) => [r.sha256, r]));
-  return hashes
-    .filter((h) => bySha.has(h))
-    .map((h) => {
-      const r = bySha.get(h)!;
-      return { sha256: r.sha256, name: r.name, description: r.description, kind: r.kind, canonical: JSON.parse(r.canonical) as DatasetCanonical };
-    });
-}
-
-/**
- * Copies the datasets a document refers to from one team into another (a fork across teams), inside the
- * caller's transaction: same sha256, name, description and original. 409 quota_exceeded when they do not fit.
- */
-export async function copyDatasetsToTeam(
-  { fromTeamId, toTeamId, document, userId }: { fromTeamId: string; toTeamId: string; document: unknown; userId: string },
-  transaction: Transaction,
-): Promise<number> {
-  if (fromTeamId === toTeamId) return 0;
-  const hashes = datasetReferences(document);
-  if (!hashes.length) return 0;
-  const rows = await Dataset.findAll({ where: { teamId: fromTeamId, sha256: hashes }, transaction });
-  const items: NewDataset[] = rows.map((r) => ({
-    sha256: r.sha256,
-    kind: r.kind,
-    name: r.name,
-    description: r.description,
-    columns: r.columns,
-    canonical: r.canonical,
-    rowCount: r.rowCount,
-    original: r.original,
-    originalFilename: r.originalFilename,
-  }));
-  const stored = await insertDatasets({ teamId: toTeamId, userId, items, audit: 'dataset.copied' }, transaction);
-  return [...stored.values()].filter((s) => s.created).length;
-}
-
-/** A bundle's dataset after its check: ready to insert, with its canonical form for evaluation. */
-export type CheckedBundleDataset = NewDataset & { dataset: DatasetCanonical };
-
-/**
- * Checks the datasets of a bundle: each sha256 is recomputed from its canonical form, which must obey every
- * rule of an upload (400 naming datasets[i] otherwise). The canonical CSV stands in for the original file.
- */
-export function checkBundleDatasets(datasets: BundleDatasetInput[]): CheckedBundleDataset[] {
-  const checked = checkBundleDatasetList(datasets);
-  if (!checked.ok) throw badRequest(`datasets[${checked.index}]: ${checked.message}`, `datasets[${checked.index}]`);
-  return checked.items.map((item) => ({
-    sha256: item.sha256,
-    kind: item.kind,
-    name: item.name,
-    description: item.description,
-    columns: item.dataset.columns,
-    canonical: item.canonicalJson,
-    rowCount: item.dataset.rows.length,
-    original: Buffer.from(item.csv, 'utf8'),
-    originalFilename: null,
-    dataset: item.dataset,
-  }));
-}
-
-/** Creates checked bundle datasets in a team (idempotent), inside the caller's transaction; the quota applies. */
-export async function insertBundleDatasets(
-  { teamId, userId, items }: { teamId: string; userId: string; items: CheckedBundleDataset[] },
-  transaction: Transaction,
-): Promise<number> {
-  if (!items.length) return 0;
-  const stored = await insertDatasets({ teamId, userId, items, audit: 'dataset.imported' }, transaction);
-  return [...stored.values()].filter((s) => s.created).length;
-}

@@ -1,7 +1,7 @@
 import 'server-only';
 import { badRequest, notFound } from '@/lib/errors';
 import { Sheet, SheetPreference, SheetRevision } from '@/models';
-import { copyDatasetsToTeam } from './datasets';
+import { copyDatasetsToTeam } from './dataset-bundles';
 import { db } from './index';
 import { insertSheet, toSheetRecord, type SheetRecord, type SiteInput } from './sheets';
 

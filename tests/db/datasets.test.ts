@@ -3,9 +3,9 @@ import path from 'node:path';
 import { describe, expect, it } from 'vitest';
 import { QueryTypes } from 'sequelize';
 import { db } from '@/lib/db';
+import { bundleDatasets } from '@/lib/db/dataset-bundles';
+import { DATASET_QUOTA } from '@/lib/db/dataset-store';
 import {
-  DATASET_QUOTA,
-  bundleDatasets,
   createDatasetFromUpload,
   deleteDataset,
   getDatasetCanonical,

@@ -6,7 +6,8 @@ import { asEvaluationError, requireValidDocument } from '@/lib/sheet/evaluation.
 import { checkCanonicalDataset } from '@/lib/datasets/canonical';
 import { datasetReferences } from '@/lib/datasets/references';
 import { BUNDLE_FORMAT, bundleSchema } from '@/lib/datasets/schema';
-import { checkBundleDatasets, loadDatasetLookup } from '@/lib/db/datasets';
+import { checkBundleDatasets } from '@/lib/db/dataset-bundles';
+import { loadDatasetLookup } from '@/lib/db/datasets';
 import type { DatasetCanonical } from '@/lib/engine/dataset';
 import { consumeRateLimit } from '@/lib/rate-limit';
 import { evaluateBodySchema } from './schema';

@@ -1,6 +1,6 @@
 import { z } from 'zod';
 import { requireSheetRole, requireUser } from '@/lib/auth/guard';
-import { bundleDatasets } from '@/lib/db/datasets';
+import { bundleDatasets } from '@/lib/db/dataset-bundles';
 import { readRevision, requireStoredResults } from '@/lib/db/revisions';
 import { listReviewEvents } from '@/lib/db/review-events';
 import { buildRecord } from '@/lib/report/record';
