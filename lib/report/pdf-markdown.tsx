@@ -2,7 +2,7 @@
  * Notes and captions in the PDF, rendered as markdown (CommonMark, parsed by mdast-util-from-markdown):
  * paragraphs, headings, **bold**, *italics*, `code` and code blocks, ordered and bulleted lists (nested),
  * block quotes, rules and links, a link printed as its text followed by its address in brackets (a printed
- * page has nothing to click). Raw HTML is never interpreted: an HTML node prints as nothing, as on the page.
+ * page has nothing to click). Raw HTML is never interpreted: it prints as the text the author wrote, as on the page.
  */
 import type { ReactNode } from 'react';
 import { Text, View } from '@react-pdf/renderer';
@@ -66,7 +66,7 @@ function inline(nodes: PhrasingContent[], depth: number): ReactNode[] {
       case 'image':
         return node.alt ? `[image: ${node.alt}${node.url ? ` (${node.url})` : ''}]` : null;
       case 'html':
-        return null;
+        return node.value;
       default:
         return 'children' in node ? inline((node as Parents).children as PhrasingContent[], depth + 1) : null;
     }
@@ -120,7 +120,11 @@ function blocks(nodes: RootContent[], depth: number): ReactNode[] {
       case 'thematicBreak':
         return <View key={i} style={{ marginVertical: 4, borderBottomWidth: 0.5, borderBottomColor: '#c9ced2' }} />;
       case 'html':
-        return null;
+        return (
+          <Text key={i} style={{ marginTop: 2 }}>
+            {node.value}
+          </Text>
+        );
       default:
         // Anything else the parser may give (definitions, tables from extensions): its text, never markup.
         return 'children' in node || 'value' in node ? (

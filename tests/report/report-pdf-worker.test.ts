@@ -22,6 +22,10 @@ const NOTE = [
   '- loose item',
   '',
   'Source: [survey log](https://example.org/log/7).',
+  '',
+  'Marked <b>by hand</b> in the log.',
+  '',
+  '<div onclick="x">raw block</div>',
 ].join('\n');
 
 function modelOf(raw: unknown, options: { status?: 'approved' | 'unsigned'; note?: string } = {}): ReportModel {
@@ -129,6 +133,9 @@ describe('report PDF in its worker thread, cached (lib/report/pdf-pool.server)',
     expect(text).toContain('1. first step 2. second step');
     expect(text).toContain('• loose item');
     expect(text).toContain('Source: survey log (https://example.org/log/7).');
+    // Raw HTML prints as the text the author wrote, never as markup (as the sheet page shows it).
+    expect(text).toContain('Marked <b>by hand</b> in the log.');
+    expect(text).toContain('<div onclick="x">raw block</div>');
     // No markdown marks reach the page.
     expect(text).not.toContain('**');
     expect(text).not.toContain('`');
