@@ -53,6 +53,11 @@ describe('distribution moments (GUM JCGM 100:2008 §4.3.7–4.3.9)', () => {
     expectClose(makeDistribution('triangular', [m(10), m(13), m(14)]).sd, Math.sqrt(13 / 18), 1e-12);
   });
 
+  it('should give the same medians away from zero (lo = 10 m: only differences from lo and hi enter)', () => {
+    expectClose(makeDistribution('triangular', [m(10), m(13), m(14)]).median, 10 + Math.sqrt(6), 1e-15);
+    expectClose(makeDistribution('triangular', [m(10), m(11), m(14)]).median, 14 - Math.sqrt(6), 1e-15);
+  });
+
   it('should accept a mode at either end (the right-angled triangles)', () => {
     const atLo = makeDistribution('triangular', [m(0), m(0), m(4)]);
     expectClose(atLo.median, 4 - Math.sqrt(8), 1e-15);
@@ -77,6 +82,8 @@ describe('distribution moments (GUM JCGM 100:2008 §4.3.7–4.3.9)', () => {
     expectClose(d.sd, 2, 1e-12);
     expectClose(d.parameters.sd!.si, 2, 1e-12);
     expect(d.parameters.sd!.value).toBe(2);
+    // In degF a difference of 9 °F is 5 K (scale 5/9), whatever the offset.
+    expectClose(makeDistribution('normal', [m(50, 'degF'), m(9, 'degF')]).sd, 5, 1e-12);
     // Plain numbers have no unit.
     const plain = makeDistribution('normal', [3, 0.4]);
     expect(plain).toMatchObject({ median: 3, sd: 0.4, unit: '', params: [3, 0.4] });
@@ -111,6 +118,14 @@ describe('inverse CDFs (quantileOf)', () => {
     expectClose(at(d, 0.01), Math.sqrt(0.01 * 4 * 1), 1e-15);
     expectClose(at(d, 0.99), 4 - Math.sqrt(0.01 * 4 * 3), 1e-14);
   });
+
+  it('should give the same triangular quantiles shifted away from zero: (10, 13, 14) m has its mode at u = 3/4', () => {
+    const d = makeDistribution('triangular', [m(10), m(13), m(14)]);
+    expectClose(at(d, 0.75), 13, 1e-15);
+    expectClose(at(d, 0.01), 10 + Math.sqrt(0.01 * 4 * 3), 1e-15);
+    expectClose(at(d, 0.99), 14 - Math.sqrt(0.01 * 4 * 1), 1e-15);
+    expectClose(at(d, 0.5), 10 + Math.sqrt(6), 1e-15);
+  });
 });
 
 describe('argument rules (CONTRACT §8.1)', () => {
@@ -135,12 +150,15 @@ describe('argument rules (CONTRACT §8.1)', () => {
     expect(refusal('uniform', [m(1), m(1)])).toBe('uniform: lo must be less than hi (1 m ≥ 1 m)');
     expect(refusal('triangular', [m(1), m(1), m(1)])).toBe('triangular: lo must be less than hi (1 m ≥ 1 m)');
     expect(refusal('triangular', [m(0), m(-1), m(4)])).toBe('triangular: mode must lie between lo and hi, got -1 m');
+    expect(refusal('triangular', [m(0), m(5), m(4)])).toBe('triangular: mode must lie between lo and hi, got 5 m');
   });
 
   it('should refuse a factor of exactly 1 and a median of 0 (lognormal needs f > 1 and m > 0)', () => {
     expect(refusal('lognormal', [m(1), 1])).toBe('lognormal: factor must be a plain number > 1, got 1');
     expect(refusal('lognormal', [m(0), 1.5])).toBe('lognormal: median must be > 0, got 0 m');
     expect(refusal('normal', [m(1), m(0)])).toBe('normal: sd must be > 0, got 0 m');
+    expect(refusal('lognormal', [m(1), m(1.5)])).toBe('lognormal: factor must be a plain number > 1, got 1.5 m');
+    expect(refusal('lognormal', [m(10, 'degC'), 1.5])).toBe('lognormal: a median in degC or degF is refused: use K');
   });
 
   it('should check the dimension of every later argument against the first', () => {

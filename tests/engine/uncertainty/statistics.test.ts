@@ -85,3 +85,24 @@ describe('degenerate samples (limits of the definitions)', () => {
     expect([...sortedCopy([10, 9, -1, 100])]).toEqual([-1, 9, 10, 100]);
   });
 });
+
+describe('small samples and the bins one by one', () => {
+  it('should give two values the standard deviation |x1 − x2|/√2 (N − 1 = 1)', () => {
+    expect(standardDeviation([1, 3])).toBeCloseTo(Math.SQRT2, 15);
+  });
+
+  it('should put each value in bin ⌊(v − lo)/width⌋ with the last bin closed: 0..1000 in bins of 24.75 on [5, 995]', () => {
+    const values = Float64Array.from({ length: 1001 }, (_, i) => i);
+    const h = histogram(values, sortedCopy(values));
+    expect(h.centres).toHaveLength(40);
+    expect(h.centres[39]).toBeCloseTo(995 - 24.75 / 2, 12);
+    // Integers in [5 + 24.75k, 5 + 24.75(k + 1)), and the last bin also takes 995 itself.
+    const expected = Array.from({ length: 40 }, (_, k) => {
+      const from = Math.ceil(5 + 24.75 * k);
+      const to = k === 39 ? 995 : Math.ceil(5 + 24.75 * (k + 1)) - 1;
+      return to - from + 1;
+    });
+    expect(h.counts).toEqual(expected);
+    expect(h.counts[0]).toBe(25);
+  });
+});
