@@ -15,6 +15,7 @@ import { execFileSync } from 'node:child_process';
 import { readFileSync } from 'node:fs';
 import os from 'node:os';
 import autocannon from 'autocannon';
+import { LOAD_TARGETS, signIn as signInAt } from './load-support.mjs';
 
 const arg = (name: string, fallback?: string) => {
   const index = process.argv.indexOf(`--${name}`);
@@ -28,7 +29,6 @@ const SLICES = Math.min(Number(arg('slices', '3')), 10);
 const SECONDS = Math.min(Number(arg('seconds', '4')), 15);
 const CONNECTIONS = Math.min(Number(arg('connections', '16')), 64);
 const ONLY = arg('only', '')!;
-const DEMO_SHEET_ID = '0d3a7e10-5c2b-4f6a-8e1d-000000000001';
 const TICKS = Number(execFileSync('getconf', ['CLK_TCK']).toString().trim()) || 100;
 
 /** The pid listening on the URL's port. */
@@ -46,49 +46,12 @@ function cpuMs(pid: number): number {
 }
 
 async function signIn(base: URL, email: string, password: string): Promise<string> {
-  const jar = new Map<string, string>();
-  const keep = (response: Response) => {
-    for (const line of response.headers.getSetCookie()) {
-      const [pair] = line.split(';');
-      const at = pair!.indexOf('=');
-      jar.set(pair!.slice(0, at), pair!.slice(at + 1));
-    }
-  };
-  const csrf = await fetch(new URL('/api/auth/csrf', base));
-  keep(csrf);
-  const { csrfToken } = (await csrf.json()) as { csrfToken: string };
-  const response = await fetch(new URL('/api/auth/callback/credentials', base), {
-    method: 'POST',
-    redirect: 'manual',
-    headers: { 'content-type': 'application/x-www-form-urlencoded', cookie: [...jar].map(([k, v]) => `${k}=${v}`).join('; ') },
-    body: new URLSearchParams({ csrfToken, email, password, json: 'true' }).toString(),
-  });
-  keep(response);
-  if (![...jar.keys()].some((k) => k.includes('session-token'))) throw new Error(`could not sign in to ${base.origin} as ${email}`);
-  return [...jar].map(([k, v]) => `${k}=${v}`).join('; ');
+  const cookie = await signInAt(base, email, password);
+  if (!cookie) throw new Error(`could not sign in to ${base.origin} as ${email}`);
+  return cookie;
 }
 
-function chainedDocument(blocks: number) {
-  return {
-    format: 'denudata-sheet@1',
-    title: 'Load: 50-block chain',
-    blocks: Array.from({ length: blocks }, (_, i) =>
-      i === 0
-        ? { id: 'b0', name: 'q0', type: 'quantities', inputs: { K: '0.004 m^2/yr', C: '-0.01 1/m' } }
-        : { id: `b${i}`, name: `f${i}`, type: 'formula', inputs: { expr: i === 1 ? 'q0.K * q0.C to mm/yr' : `f${i - 1}.value * 1.001` } },
-    ),
-  };
-}
-
-const targets = [
-  { label: 'static file (floor)', path: '/fonts/JetBrainsMono-Regular.woff2', signedIn: false },
-  { label: 'GET /api/teams', path: '/api/teams', signedIn: true },
-  { label: 'GET /api/sheets/{id}', path: `/api/sheets/${DEMO_SHEET_ID}`, signedIn: true },
-  { label: 'GET /api/sheets', path: '/api/sheets', signedIn: true },
-  { label: 'POST /api/quick', path: '/api/quick', method: 'POST', body: JSON.stringify({ expr: 'scarp_age(2 m, 0, 25 deg, 1 m^2/kyr)', preview: true }), signedIn: true, everyone: true },
-  { label: 'POST /api/evaluate (50 blocks)', path: '/api/evaluate', method: 'POST', body: JSON.stringify({ document: chainedDocument(50) }), signedIn: true, everyone: true },
-  { label: 'sheet page HTML', path: `/sheets/${DEMO_SHEET_ID}`, signedIn: true },
-].filter((t) => t.label.includes(ONLY));
+const targets = LOAD_TARGETS.filter((t) => t.label.includes(ONLY));
 
 /** The four demo accounts, then 12 accounts signed up on that side (evaluations are limited per user in flight). */
 async function accounts(base: URL): Promise<{ demo: string[]; all: string[] }> {
@@ -120,8 +83,8 @@ async function slice(side: 'A' | 'B', target: (typeof targets)[number], seconds:
     duration: seconds,
     setupClient: (client: { setHeaders: (headers: Record<string, string>) => void }) => {
       const headers: Record<string, string> = target.body ? { 'content-type': 'application/json' } : {};
-      const pool = 'everyone' in target ? cookies[side].all : cookies[side].demo;
-      if (target.signedIn) headers.cookie = pool[next++ % pool.length]!;
+      const pool = target.who === 'all' ? cookies[side].all : cookies[side].demo;
+      if (target.who !== 'none') headers.cookie = pool[next++ % pool.length]!;
       client.setHeaders(headers);
     },
   } as autocannon.Options);

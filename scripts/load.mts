@@ -15,6 +15,7 @@
  */
 import os from 'node:os';
 import autocannon from 'autocannon';
+import { LOAD_TARGETS, signIn as signInAt, type LoadTarget } from './load-support.mjs';
 
 const base = new URL(process.env.DENUDATA_APP_URL ?? 'http://127.0.0.1:3000');
 if (!['127.0.0.1', 'localhost', '[::1]'].includes(base.hostname)) {
@@ -29,30 +30,8 @@ const argument = (name: string, fallback: number) => {
 const DURATION = argument('duration', 5);
 const CONNECTIONS = argument('connections', 16);
 const EXTRA_ACCOUNTS = 12;
-const DEMO_SHEET_ID = '0d3a7e10-5c2b-4f6a-8e1d-000000000001';
 
-async function signIn(email: string, password: string): Promise<string | null> {
-  const jar = new Map<string, string>();
-  const keep = (response: Response) => {
-    for (const line of response.headers.getSetCookie()) {
-      const [pair] = line.split(';');
-      const at = pair!.indexOf('=');
-      jar.set(pair!.slice(0, at), pair!.slice(at + 1));
-    }
-  };
-  const cookie = () => [...jar].map(([k, v]) => `${k}=${v}`).join('; ');
-  const csrfResponse = await fetch(new URL('/api/auth/csrf', base));
-  keep(csrfResponse);
-  const { csrfToken } = (await csrfResponse.json()) as { csrfToken: string };
-  const response = await fetch(new URL('/api/auth/callback/credentials', base), {
-    method: 'POST',
-    redirect: 'manual',
-    headers: { 'content-type': 'application/x-www-form-urlencoded', cookie: cookie() },
-    body: new URLSearchParams({ csrfToken, email, password, json: 'true' }).toString(),
-  });
-  keep(response);
-  return [...jar.keys()].some((k) => k.includes('session-token')) ? cookie() : null;
-}
+const signIn = (email: string, password: string) => signInAt(base, email, password);
 
 /** Whether rate limits are on: the 11th wrong password for one account is 429 only when they are. */
 async function rateLimitsOn(): Promise<boolean> {
@@ -86,36 +65,7 @@ async function signUp(index: number): Promise<string | null> {
 }
 
 /** A 50-block chained sheet: a quantity, then formulas each using the one before. */
-function chainedDocument(blocks: number) {
-  return {
-    format: 'denudata-sheet@1',
-    title: 'Load: 50-block chain',
-    blocks: Array.from({ length: blocks }, (_, i) =>
-      i === 0
-        ? { id: 'b0', name: 'q0', type: 'quantities', inputs: { K: '0.004 m^2/yr', C: '-0.01 1/m' } }
-        : { id: `b${i}`, name: `f${i}`, type: 'formula', inputs: { expr: i === 1 ? 'q0.K * q0.C to mm/yr' : `f${i - 1}.value * 1.001` } },
-    ),
-  };
-}
-
-interface Target {
-  label: string;
-  path: string;
-  method?: 'GET' | 'POST';
-  body?: string;
-  /** Which accounts may make the request: the demo team's members, or anyone signed in. */
-  who: 'none' | 'demo' | 'all';
-}
-
-const targets: Target[] = [
-  { label: 'static file (floor)', path: '/fonts/JetBrainsMono-Regular.woff2', who: 'none' },
-  { label: 'GET /api/teams (trivial, signed in)', path: '/api/teams', who: 'demo' },
-  { label: 'GET /api/sheets/{id}', path: `/api/sheets/${DEMO_SHEET_ID}`, who: 'demo' },
-  { label: 'GET /api/sheets', path: '/api/sheets', who: 'demo' },
-  { label: 'POST /api/quick', path: '/api/quick', method: 'POST', body: JSON.stringify({ expr: 'scarp_age(2 m, 0, 25 deg, 1 m^2/kyr)', preview: true }), who: 'all' },
-  { label: 'POST /api/evaluate (50 blocks)', path: '/api/evaluate', method: 'POST', body: JSON.stringify({ document: chainedDocument(50) }), who: 'all' },
-  { label: 'sheet page HTML', path: `/sheets/${DEMO_SHEET_ID}`, who: 'demo' },
-];
+const targets = LOAD_TARGETS;
 
 interface Figures {
   rps: number;
@@ -125,7 +75,7 @@ interface Figures {
   rateLimited: number;
 }
 
-async function measure(target: Target, cookies: string[], overallRate?: number, duration = DURATION): Promise<Figures> {
+async function measure(target: LoadTarget, cookies: string[], overallRate?: number, duration = DURATION): Promise<Figures> {
   let next = 0;
   let rateLimited = 0;
   const result = await autocannon({
