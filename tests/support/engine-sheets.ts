@@ -1,3 +1,4 @@
+import { expect } from 'vitest';
 import { evaluateSheet, type BlockResult, type SheetBlock, type SheetDocument } from '@/lib/engine';
 
 /** A minimal document around the given blocks. */
@@ -24,4 +25,22 @@ export function outputValue(result: BlockResult, output: string): number {
   const value = result.outputs[output]?.value;
   if (typeof value !== 'number') throw new Error(`output ${output} missing or not numeric`);
   return value;
+}
+
+/** The result, after asserting that the block evaluated without an error. */
+export function okResult(result: BlockResult): BlockResult {
+  expect(result.error).toBeUndefined();
+  expect(result.status).toBe('ok');
+  return result;
+}
+
+/** The SI value of an output, or undefined when it is missing or not numeric. */
+export function siOf(result: BlockResult, output: string): number | undefined {
+  const value = result.outputs[output]?.si;
+  return typeof value === 'number' ? value : undefined;
+}
+
+/** The block type's own warnings matching a pattern (typical-range warnings are another check's business). */
+export function ownWarnings(result: BlockResult, pattern: RegExp): string[] {
+  return result.warnings.filter((w) => pattern.test(w));
 }

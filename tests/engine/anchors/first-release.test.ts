@@ -3,19 +3,13 @@ import type { BlockResult } from '@/lib/engine';
 import { getBlockType } from '@/lib/engine/registry';
 import type { InputValues, OtherInputs } from '@/lib/engine/block-type';
 import { expectClose } from '../../support/approx';
-import { outputValue, runBlock } from '../../support/engine-sheets';
+import { outputValue, runBlock, okResult as ok } from '../../support/engine-sheets';
 import { expected } from '../../support/reference-cases';
 
 // Checks found missing by mutation testing (DEVELOPERS.md, "Mutation testing"), for the small first-release
 // types. Each check has an outside basis, named beside it: a reference case (tests/fixtures/reference-cases.json,
 // copied from the shared reference cases with their sources), a threshold the block type documents from the
 // literature, or an analytic identity (a limit or a boundary case of the formula).
-
-const ok = (result: BlockResult): BlockResult => {
-  expect(result.error).toBeUndefined();
-  expect(result.status).toBe('ok');
-  return result;
-};
 
 /** Calls a type's evaluate() directly with SI values (to see the details of the error it throws). */
 function evaluateDirect(type: string, values: Record<string, number | undefined>): unknown {

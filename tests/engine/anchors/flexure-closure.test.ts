@@ -1,21 +1,14 @@
 import { describe, expect, it } from 'vitest';
-import type { BlockResult } from '@/lib/engine';
 import type { InputValues, OtherInputs } from '@/lib/engine/block-type';
 import { closureExhumation } from '@/lib/engine/blocks/closure-exhumation';
 import { plateFlexure } from '@/lib/engine/blocks/plate-flexure';
 import { EngineError } from '@/lib/engine/errors';
 import { expectClose } from '../../support/approx';
-import { outputValue, runBlock } from '../../support/engine-sheets';
+import { outputValue, runBlock, okResult as ok } from '../../support/engine-sheets';
 
 // Checks found missing by mutation testing (DEVELOPERS.md, "Mutation testing") for plate_flexure and
 // closure_exhumation: the numbers quoted in their warnings, the series labels and the input an error names.
 // Outside basis beside each: Turcotte & Schubert (2002) §3-9 for the plate, the reference case P36 for the age.
-
-const ok = (result: BlockResult): BlockResult => {
-  expect(result.error).toBeUndefined();
-  expect(result.status).toBe('ok');
-  return result;
-};
 
 const q = (value: number): { si: number; dimensions: number[] } => ({ si: value, dimensions: [0, 0, 0, 0, 0, 0, 0, 0, 0] });
 /** The `input` of the EngineError a type's evaluate throws (the block result keeps only the message). */

@@ -1,27 +1,13 @@
 import { describe, expect, it } from 'vitest';
-import type { BlockResult } from '@/lib/engine';
 import type { InputValues } from '@/lib/engine/block-type';
 import { strengthEnvelope } from '@/lib/engine/blocks/strength-envelope';
 import { EngineError } from '@/lib/engine/errors';
 import { expectClose } from '../../support/approx';
-import { outputValue, runBlock } from '../../support/engine-sheets';
+import { outputValue, runBlock, okResult as ok, siOf as si, ownWarnings as own } from '../../support/engine-sheets';
 
 // Checks found missing by mutation testing (DEVELOPERS.md, "Mutation testing") for radiogenic_geotherm and
 // strength_envelope. Each has an outside basis named beside it: a published relation, a threshold the block
 // type documents, or an analytic identity (a boundary case, a limit).
-
-const si = (result: BlockResult, output: string): number | undefined => {
-  const value = result.outputs[output]?.si;
-  return typeof value === 'number' ? value : undefined;
-};
-// Typical-range (plausibility) warnings are another check's business; these tests look at the type's own.
-const own = (result: BlockResult, pattern: RegExp): string[] => result.warnings.filter((w) => pattern.test(w));
-
-const ok = (result: BlockResult): BlockResult => {
-  expect(result.error).toBeUndefined();
-  expect(result.status).toBe('ok');
-  return result;
-};
 
 describe('radiogenic_geotherm limits (Lachenbruch 1970; Turcotte & Schubert 2002 §4-8)', () => {
   // P23 crust (Pollack & Chapman 1977): T(35 km) ≈ 8 + 455 + 86.7·(1 − e^−3.5) ≈ 546 °C, T(100 km) > 1300 °C.

@@ -1,17 +1,11 @@
 import { describe, expect, it } from 'vitest';
 import type { BlockResult } from '@/lib/engine';
 import { expectClose } from '../../support/approx';
-import { outputValue, runBlock } from '../../support/engine-sheets';
+import { outputValue, runBlock, okResult as ok } from '../../support/engine-sheets';
 
 // Checks found missing by mutation testing (DEVELOPERS.md, "Mutation testing") for the scarp, stream-power
 // and advective-geotherm types. Each has an outside basis named beside it: a published table value, a
 // threshold the block type documents from the literature, or an analytic identity.
-
-const ok = (result: BlockResult): BlockResult => {
-  expect(result.error).toBeUndefined();
-  expect(result.status).toBe('ok');
-  return result;
-};
 
 // Abramowitz & Stegun (1964) Table 7.1: erf(1) = 0.8427007929, erf(2) = 0.9953222650.
 const ERF_1 = 0.8427007929;

@@ -1,24 +1,11 @@
 import { describe, expect, it } from 'vitest';
 import type { BlockResult } from '@/lib/engine';
 import { expectClose } from '../../support/approx';
-import { outputValue, runBlock } from '../../support/engine-sheets';
+import { outputValue, runBlock, okResult as ok, siOf as si, ownWarnings as own } from '../../support/engine-sheets';
 
 // Checks found missing by mutation testing (DEVELOPERS.md, "Mutation testing") for the tectonic and
 // field-method types. Each has an outside basis named beside it: a published relation, a threshold the block
 // type documents, or an analytic identity (a boundary case, a limit).
-
-const si = (result: BlockResult, output: string): number | undefined => {
-  const value = result.outputs[output]?.si;
-  return typeof value === 'number' ? value : undefined;
-};
-// Typical-range (plausibility) warnings are another check's business; these tests look at the type's own.
-const own = (result: BlockResult, pattern: RegExp): string[] => result.warnings.filter((w) => pattern.test(w));
-
-const ok = (result: BlockResult): BlockResult => {
-  expect(result.error).toBeUndefined();
-  expect(result.status).toBe('ok');
-  return result;
-};
 
 describe('orogen_flux_balance regimes (Willett & Brandon 2002: steady when |F_a − F_e| ≤ tol·F_a, as its help says)', () => {
   // Exact binary fractions: F_a = 1 m²/s, F_e = 0.75 or 1.25 m²/s, tol = 0.25.
