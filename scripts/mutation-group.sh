@@ -31,6 +31,16 @@ case "${1:-}" in
   data)
     MUTATE="$B/scarp-fit.ts,$B/profile-evolution.ts,$B/channel-march.ts,$B/data-shared.ts,lib/engine/numerics/*.ts,lib/engine/numerics.ts"
     TESTS="$T/scarp-fit.test.ts,$T/profile-evolution.test.ts,$T/channel-march.test.ts,$T/data-blocks-uncertainty.test.ts,tests/engine/numerics.test.ts,tests/engine/demo-data-sheet.test.ts,$P" ;;
+  data-channel|data-scarp-fit|data-profile)
+    # Parts of the data group that fit a short session. The data blocks' loops run slowly when instrumented, so
+    # each part runs only its own tests, the numerics tests and the published and registry checks (the Monte Carlo
+    # tests of data-blocks-uncertainty.test.ts are left out: a mutant only those would kill is a survivor here).
+    case "$1" in
+      data-channel) MUTATE="$B/channel-march.ts,$B/data-shared.ts,lib/engine/numerics.ts"; OWN="$T/channel-march.test.ts" ;;
+      data-scarp-fit) MUTATE="$B/scarp-fit.ts,lib/engine/numerics/erf-fit.ts,lib/engine/numerics/erf.ts"; OWN="$T/scarp-fit.test.ts" ;;
+      data-profile) MUTATE="$B/profile-evolution.ts,lib/engine/numerics/diffusion-1d.ts"; OWN="$T/profile-evolution.test.ts" ;;
+    esac
+    TESTS="$OWN,tests/engine/numerics.test.ts,tests/engine/demo-data-sheet.test.ts,$P" ;;
   uncertainty)
     MUTATE="lib/engine/uncertainty/statistics.ts,lib/engine/uncertainty/distributions.ts,lib/engine/uncertainty/numeric.ts"
     TESTS="tests/engine/uncertainty/*.test.ts,$T/data-blocks-uncertainty.test.ts" ;;
@@ -42,8 +52,23 @@ case "${1:-}" in
   uncertainty-numeric)
     # The other part: expressions compiled to functions on SI floats for the samples.
     MUTATE="lib/engine/uncertainty/numeric.ts"
-    TESTS="tests/engine/uncertainty/*.test.ts,$T/data-blocks-uncertainty.test.ts" ;;
-  *) echo "usage: $0 first-release|scarp-channel|tectonic|orogen-nuclide|geotherm-strength|flexure-closure|data|uncertainty|uncertainty-statistics|uncertainty-distributions|uncertainty-numeric" >&2; exit 2 ;;
+    TESTS="tests/engine/uncertainty/numeric.test.ts,tests/engine/uncertainty/reference-cases.test.ts,tests/engine/uncertainty/stream.test.ts" ;;
+  plumbing-units|plumbing-expression|plumbing-evaluate)
+    # The engine's plumbing (units, the expression language, evaluation), each part with its fast unit tests
+    # (the 10,000-expression fuzz test is left out: it takes seconds even uninstrumented).
+    E=lib/engine; TE=tests/engine; PR="tests/engine/published-checks.test.ts,tests/engine/registry.test.ts"
+    case "$1" in
+      plumbing-units)
+        MUTATE="$E/units.ts,$E/engine-units.ts,$E/unit-format.ts,$E/temperature.ts,$E/dataset-units.ts"
+        TESTS="$TE/units.test.ts,$TE/trust/*.test.ts,$TE/dataset-input.test.ts,$TE/expression.test.ts,$TE/document.test.ts,$PR" ;;
+      plumbing-expression)
+        MUTATE="$E/expression.ts,$E/expression-language.ts,$E/natural-input.ts,$E/text.ts,$E/text-words.ts,$E/value-size.ts"
+        TESTS="$TE/expression.test.ts,$TE/limits.test.ts,$TE/trust/*.test.ts,$TE/document.test.ts,$TE/units.test.ts,$PR" ;;
+      plumbing-evaluate)
+        MUTATE="$E/evaluate.ts,$E/prepare.ts,$E/block-run.ts,$E/graph.ts,$E/document.ts,$E/canonical-json.ts,$E/cost.ts,$E/errors.ts,$E/dataset-input.ts,$E/dataset.ts,$E/typical-ranges.ts,$E/registry.ts,$E/block-type.ts,$E/index.ts"
+        TESTS="$TE/document.test.ts,$TE/graph.test.ts,$TE/incremental.test.ts,$TE/limits.test.ts,$TE/canonical-json.test.ts,$TE/cost.test.ts,$TE/dataset-input.test.ts,$TE/demo-sheets.test.ts,$TE/trust/*.test.ts,$TE/expression.test.ts,$PR" ;;
+    esac ;;
+  *) echo "usage: $0 first-release|scarp-channel|tectonic|orogen-nuclide|geotherm-strength|flexure-closure|data|data-channel|data-scarp-fit|data-profile|uncertainty|uncertainty-statistics|uncertainty-distributions|uncertainty-numeric|plumbing-units|plumbing-expression|plumbing-evaluate" >&2; exit 2 ;;
 esac
 export DENUDATA_MUTATION_TESTS="$TESTS" DENUDATA_MUTATION_REPORT="$1"
 exec nice -n 15 npx stryker run --incremental --mutate "$MUTATE" ${@:2}

@@ -1,4 +1,5 @@
 import { describe, expect, it } from 'vitest';
+import { perTest } from '../../support/per-test';
 import { evaluateSheet, hashDataset, type DatasetCanonical, type SheetDocument } from '@/lib/engine';
 import { caseDatasets, checkKey, comparableKeys, dataCase } from '../../support/data-cases';
 
@@ -32,15 +33,15 @@ function march(dataset: DatasetCanonical, inputs: Record<string, string>) {
 for (const id of ['P46', 'P47']) {
   const c = dataCase(id);
   describe(`channel_march, reference case ${id} (${c.source})`, () => {
-    const results = evaluateSheet(c.sheet!, { datasets: caseDatasets(c) });
+    const results = perTest(() => evaluateSheet(c.sheet!, { datasets: caseDatasets(c) }));
     it('should be ok without warnings', () => {
-      const result = results.blocks.march!;
+      const result = results().blocks.march!;
       expect(result.status, result.error).toBe('ok');
       expect(result.warnings).toEqual([]);
     });
     for (const key of comparableKeys(c)) {
       it(`should match ${key}`, () => {
-        expect(checkKey(results, key, c.expected[key]!)).toBeNull();
+        expect(checkKey(results(), key, c.expected[key]!)).toBeNull();
       });
     }
   });
@@ -49,17 +50,17 @@ for (const id of ['P46', 'P47']) {
 describe('channel_march against P10 node by node (Beaumont et al. 1992; Kooi & Beaumont 1994)', () => {
   const p10 = dataCase('P10');
   const p46 = dataCase('P46');
-  const result = evaluateSheet(p46.sheet!, { datasets: caseDatasets(p46) }).blocks.march!;
+  const result = perTest(() => evaluateSheet(p46.sheet!, { datasets: caseDatasets(p46) }).blocks.march!);
   const yr = 365.25 * 86400;
   it('should reproduce q_eq, q_in, dz/dt and q_out of P10 to 1e-9', () => {
     const expectList = (got: number[], want: number[], scale = 1) => {
       expect(got).toHaveLength(want.length);
       want.forEach((w, i) => expect(Math.abs(got[i]! / scale - w)).toBeLessThanOrEqual(1e-9 * Math.abs(w) + 1e-15));
     };
-    expectList(result.series!.capacity!.y, p10.expected.q_eq!.value as number[]);
-    expectList(result.series!.flux!.y.slice(0, 5), p10.expected.q_in!.value as number[]);
-    expectList(result.series!.flux!.y.slice(1), p10.expected.q_out!.value as number[]);
-    expectList(result.series!.dz_dt!.y, p10.expected.dz_dt!.value as number[], 1000); // mm/yr → m/yr
+    expectList(result().series!.capacity!.y, p10.expected.q_eq!.value as number[]);
+    expectList(result().series!.flux!.y.slice(0, 5), p10.expected.q_in!.value as number[]);
+    expectList(result().series!.flux!.y.slice(1), p10.expected.q_out!.value as number[]);
+    expectList(result().series!.dz_dt!.y, p10.expected.dz_dt!.value as number[], 1000); // mm/yr → m/yr
     expect(yr).toBe(31557600);
   });
 });

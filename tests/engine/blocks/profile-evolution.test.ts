@@ -1,4 +1,5 @@
 import { erf } from 'mathjs';
+import { perTest } from '../../support/per-test';
 import { describe, expect, it } from 'vitest';
 import { evaluateSheet, hashDataset, type BlockResult, type DatasetCanonical, type SheetDocument } from '@/lib/engine';
 import { checkKey, comparableKeys, dataCase, interpolate } from '../../support/data-cases';
@@ -30,13 +31,13 @@ function slopeProfile(rows: number[][]): { text: string; datasets: Map<string, D
 for (const id of ['P43', 'P44', 'P45']) {
   const c = dataCase(id);
   describe(`profile_evolution, reference case ${id} (${c.source})`, () => {
-    const results = evaluateSheet(c.sheet!);
+    const results = perTest(() => evaluateSheet(c.sheet!));
     it('should be ok', () => {
-      expect(results.blocks.evo!.status, results.blocks.evo!.error).toBe('ok');
+      expect(results().blocks.evo!.status, results().blocks.evo!.error).toBe('ok');
     });
     for (const key of comparableKeys(c)) {
       it(`should match ${key}`, () => {
-        expect(checkKey(results, key, c.expected[key]!)).toBeNull();
+        expect(checkKey(results(), key, c.expected[key]!)).toBeNull();
       });
     }
   });

@@ -1,4 +1,5 @@
 import { describe, expect, it } from 'vitest';
+import { perTest } from '../../support/per-test';
 import { evaluateSheet, hashDataset, type BlockResult, type DatasetCanonical, type SheetDocument } from '@/lib/engine';
 import { erf as engineErf } from '@/lib/engine/numerics/erf';
 import { erf as mathjsErf } from 'mathjs';
@@ -40,20 +41,20 @@ function synthetic(n: number, opts: { kt?: number; a?: number; b?: number; x0?: 
 for (const id of ['P41', 'P42']) {
   const c = dataCase(id);
   describe(`scarp_fit, reference case ${id} (${c.source})`, () => {
-    const results = evaluateSheet(c.sheet!, { datasets: caseDatasets(c) });
+    const results = perTest(() => evaluateSheet(c.sheet!, { datasets: caseDatasets(c) }));
     it('should be ok without warnings', () => {
-      const result = results.blocks.fit!;
+      const result = results().blocks.fit!;
       expect(result.status, result.error).toBe('ok');
       expect(result.warnings).toEqual([]);
     });
     for (const key of comparableKeys(c)) {
       it(`should match ${key}`, () => {
-        expect(checkKey(results, key, c.expected[key]!)).toBeNull();
+        expect(checkKey(results(), key, c.expected[key]!)).toBeNull();
       });
     }
     it('should match scipy curve_fit (the case info) to 1e-6 in Kt and its standard error', () => {
       const info = (c as unknown as { info: { curve_fit_popt: { kt: number }; curve_fit_se: { kt: number } } }).info;
-      const outputs = results.blocks.fit!.outputs;
+      const outputs = results().blocks.fit!.outputs;
       expect(Math.abs((outputs.kt!.value as number) / info.curve_fit_popt.kt - 1)).toBeLessThan(1e-6);
       expect(Math.abs((outputs.kt_se!.value as number) / info.curve_fit_se.kt - 1)).toBeLessThan(1e-5);
     });

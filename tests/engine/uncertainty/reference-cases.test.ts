@@ -1,4 +1,5 @@
 import { describe, expect, it } from 'vitest';
+import { perTest } from '../../support/per-test';
 import { evaluateSheet, type BlockResult, type NumericSpread, type SheetResults } from '@/lib/engine';
 import { isClose } from '../../support/approx';
 import { caseSheet, renamed, uncertaintyCase, type CaseExpectation } from './cases';
@@ -58,22 +59,22 @@ function check(label: string, got: unknown, e: CaseExpectation): void {
 
 describe.each(['P48', 'P49', 'P50', 'P51', 'P52'])('uncertainty case %s', (id) => {
   const c = uncertaintyCase(id);
-  const results = evaluateSheet(caseSheet(id));
+  const results = perTest(() => evaluateSheet(caseSheet(id)));
 
   it(`should meet every expectation of ${id} (${c.source.split(';')[0]})`, () => {
     const keys = Object.keys(c.expected);
     expect(keys.length).toBeGreaterThan(5);
     for (const key of keys) {
       const path = key.replace(/^(reference|analytic):/, '');
-      check(`${id} ${key}`, lookup(results, path), c.expected[key]!);
+      check(`${id} ${key}`, lookup(results(), path), c.expected[key]!);
     }
   });
 
   it(`should echo the settings and the declared distributions of ${id}`, () => {
-    expect(results.uncertainty?.method).toBe(c.sheet!.uncertainty!.method);
-    expect(results.uncertainty?.samples).toBe(c.sheet!.uncertainty!.samples);
-    expect(results.uncertainty?.seed).toBe(c.sheet!.uncertainty!.seed);
-    expect(results.uncertainty?.inputs.length).toBeGreaterThan(0);
+    expect(results().uncertainty?.method).toBe(c.sheet!.uncertainty!.method);
+    expect(results().uncertainty?.samples).toBe(c.sheet!.uncertainty!.samples);
+    expect(results().uncertainty?.seed).toBe(c.sheet!.uncertainty!.seed);
+    expect(results().uncertainty?.inputs.length).toBeGreaterThan(0);
   });
 });
 
