@@ -40,7 +40,7 @@ case "${1:-}" in
       data-scarp-fit) MUTATE="$B/scarp-fit.ts,lib/engine/numerics/erf-fit.ts,lib/engine/numerics/erf.ts"; OWN="$T/scarp-fit.test.ts" ;;
       data-profile) MUTATE="$B/profile-evolution.ts,lib/engine/numerics/diffusion-1d.ts"; OWN="$T/profile-evolution.test.ts" ;;
     esac
-    TESTS="$OWN,tests/engine/numerics.test.ts,tests/engine/demo-data-sheet.test.ts,$P" ;;
+    TESTS="$OWN,$T/data-shared.test.ts,tests/engine/numerics.test.ts,tests/engine/demo-data-sheet.test.ts,$P" ;;
   uncertainty)
     MUTATE="lib/engine/uncertainty/statistics.ts,lib/engine/uncertainty/distributions.ts,lib/engine/uncertainty/numeric.ts"
     TESTS="tests/engine/uncertainty/*.test.ts,$T/data-blocks-uncertainty.test.ts" ;;
