@@ -68,7 +68,21 @@ case "${1:-}" in
         MUTATE="$E/evaluate.ts,$E/prepare.ts,$E/block-run.ts,$E/graph.ts,$E/document.ts,$E/canonical-json.ts,$E/cost.ts,$E/errors.ts,$E/dataset-input.ts,$E/dataset.ts,$E/typical-ranges.ts,$E/registry.ts,$E/block-type.ts,$E/index.ts"
         TESTS="$TE/document.test.ts,$TE/graph.test.ts,$TE/incremental.test.ts,$TE/limits.test.ts,$TE/canonical-json.test.ts,$TE/cost.test.ts,$TE/dataset-input.test.ts,$TE/demo-sheets.test.ts,$TE/trust/*.test.ts,$TE/expression.test.ts,$PR" ;;
     esac ;;
-  *) echo "usage: $0 first-release|scarp-channel|tectonic|orogen-nuclide|geotherm-strength|flexure-closure|data|data-channel|data-scarp-fit|data-profile|uncertainty|uncertainty-statistics|uncertainty-distributions|uncertainty-numeric|plumbing-units|plumbing-expression|plumbing-evaluate" >&2; exit 2 ;;
+  uncertainty-pass|uncertainty-pass-propagate|uncertainty-pass-sampling|uncertainty-pass-spread)
+    # The pass itself (plan, sampling, spreads, the stream), with the fast tests written for it (a few ms each:
+    # 100–1000 samples) and stream.test.ts; the 10 000-sample sheets of reference-cases.test.ts and
+    # propagation.test.ts are left out (each covers every mutant of the pass and costs seconds instrumented).
+    # Its parts fit a short session: -propagate (propagate.ts, plan.ts), -sampling (sample-block.ts),
+    # -spread (spread.ts, stream.ts).
+    U=lib/engine/uncertainty
+    case "$1" in
+      uncertainty-pass) MUTATE="$U/propagate.ts,$U/plan.ts,$U/sample-block.ts,$U/spread.ts,$U/stream.ts" ;;
+      uncertainty-pass-propagate) MUTATE="$U/propagate.ts,$U/plan.ts" ;;
+      uncertainty-pass-sampling) MUTATE="$U/sample-block.ts" ;;
+      uncertainty-pass-spread) MUTATE="$U/spread.ts,$U/stream.ts" ;;
+    esac
+    TESTS="tests/engine/uncertainty/pass-sheets.test.ts,tests/engine/uncertainty/pass-edges.test.ts,tests/engine/uncertainty/pass-parts.test.ts,tests/engine/uncertainty/stream.test.ts" ;;
+  *) echo "usage: $0 first-release|scarp-channel|tectonic|orogen-nuclide|geotherm-strength|flexure-closure|data|data-channel|data-scarp-fit|data-profile|uncertainty|uncertainty-statistics|uncertainty-distributions|uncertainty-numeric|plumbing-units|plumbing-expression|plumbing-evaluate|uncertainty-pass|uncertainty-pass-propagate|uncertainty-pass-sampling|uncertainty-pass-spread" >&2; exit 2 ;;
 esac
 export DENUDATA_MUTATION_TESTS="$TESTS" DENUDATA_MUTATION_REPORT="$1"
 exec nice -n 15 npx stryker run --incremental --mutate "$MUTATE" ${@:2}

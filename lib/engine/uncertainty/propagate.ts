@@ -54,12 +54,7 @@ export function propagateUncertainty(context: PropagationContext): UncertaintyEc
     const prepared = context.blocks.get(name)!;
     const result = context.results.get(name);
     if (!result || result.status !== 'ok') continue;
-    const waiting = prepared.dependencies.find((d) => context.results.get(d)?.status !== 'ok');
-    if (waiting) {
-      const why = context.results.get(waiting)?.status === 'error' ? 'which has an error' : 'which is itself blocked';
-      context.results.set(name, { id: prepared.block.id, type: prepared.block.type, status: 'blocked', error: `waiting on block "${waiting}", ${why}`, warnings: [], outputs: {} });
-      continue;
-    }
+    if (blockedByUpstream(name, prepared, context)) continue;
     const upstreamFailed: Array<string | undefined> = new Array(count);
     if (linear) {
       for (const dependency of prepared.dependencies) {
@@ -95,9 +90,12 @@ export function propagateUncertainty(context: PropagationContext): UncertaintyEc
     const result = context.results.get(name)!;
     if (result.status !== 'ok') continue;
     const prepared = context.blocks.get(name)!;
+    // Linear method: a block upstream that failed on both sides of an input (below) blocks this one.
+    if (blockedByUpstream(name, prepared, context)) continue;
     const blockUpstream = (plan.upstream.get(name) ?? []).filter((j) => inputColumns[j] !== undefined);
     const outputs: SampledResult['outputs'] = {};
     let series = result.series;
+    let failedLinear: string | undefined;
     for (const [output, formatted] of Object.entries(result.outputs)) {
       const column = own.numbers.get(output);
       const texts = own.texts.get(output);
@@ -105,7 +103,13 @@ export function propagateUncertainty(context: PropagationContext): UncertaintyEc
       const upstream = outputUpstream(prepared, output, blockUpstream, plan);
       if (column instanceof Float64Array) {
         if (linear) {
-          spread = linearSpread(column, formatted, upstream, plan, failures.get(name)!, name);
+          try {
+            spread = linearSpread(column, formatted, upstream, plan, failures.get(name)!, name);
+          } catch (error) {
+            // CONTRACT §8.4: a block error when both sides of an input fail (not a failed evaluation).
+            failedLinear = toSafeMessage(error);
+            break;
+          }
         } else if (!constant(column)) {
           const built = monteCarloSpread(column, formatted, upstream, plan, settings, ranksOf);
           spread = built.spread;
@@ -124,6 +128,10 @@ export function propagateUncertainty(context: PropagationContext): UncertaintyEc
       }
       outputs[output] = spread ? { ...formatted, spread } : formatted;
     }
+    if (failedLinear !== undefined) {
+      context.results.set(name, { id: prepared.block.id, type: prepared.block.type, status: 'error', error: failedLinear, warnings: [], outputs: {} });
+      continue;
+    }
     const warnings = [...result.warnings, ...(linear ? [] : tallies.get(name)?.lines(count) ?? [])];
     const next: SampledResult = { ...result, warnings, outputs };
     if (series) next.series = series;
@@ -137,6 +145,15 @@ export function propagateUncertainty(context: PropagationContext): UncertaintyEc
       return d ? [{ block: input.block, input: input.input, distribution: d.name, parameters: d.parameters }] : [];
     }),
   };
+}
+
+/** Marks the block blocked when a block it depends on is not ok (an error, or itself blocked). */
+function blockedByUpstream(name: string, prepared: SampledBlock, context: PropagationContext): boolean {
+  const waiting = prepared.dependencies.find((d) => context.results.get(d)?.status !== 'ok');
+  if (!waiting) return false;
+  const why = context.results.get(waiting)?.status === 'error' ? 'which has an error' : 'which is itself blocked';
+  context.results.set(name, { id: prepared.block.id, type: prepared.block.type, status: 'blocked', error: `waiting on block "${waiting}", ${why}`, warnings: [], outputs: {} });
+  return true;
 }
 
 /**
