@@ -9,6 +9,7 @@ import normalQuantileRef from '@stdlib/stats-base-dists-normal-quantile';
 import { evaluateSheet, type NumericSpread, type SheetDocument, type SheetResults, type TextSpread } from '@/lib/engine';
 import { streamUniforms } from '@/lib/engine/uncertainty/stream';
 import { isClose } from '../../support/approx';
+import { perTest } from '../../support/per-test';
 
 type Blocks = SheetDocument['blocks'];
 
@@ -102,12 +103,13 @@ const sums = (method: 'monte_carlo' | 'linear', extra: Blocks = []): SheetDocume
   );
 
 describe('Monte Carlo over a sum and a scaling (JCGM 101:2008 §5, §7; GUM JCGM 100:2008 §5.1)', () => {
-  const results = evaluateSheet(sums('monte_carlo'));
+  const resultsOf = perTest(() => evaluateSheet(sums('monte_carlo')));
   const A = normals(11, 'blk-q', 'A', N).map((x) => 3 + 0.4 * x);
   const B = normals(11, 'blk-q', 'B', N).map((x) => 5 + 0.3 * x);
   const total = A.map((a, k) => a + B[k]!);
 
   it('should give each input the samples of its own seeded stream (mean, sd with N − 1, type-7 percentiles)', () => {
+    const results = resultsOf();
     const a = numericSpread(results, 'q', 'A');
     expectStatistics(a.si as unknown as Record<string, number>, statistics(A));
     expectStatistics(a as unknown as Record<string, number>, statistics(A));
@@ -118,6 +120,7 @@ describe('Monte Carlo over a sum and a scaling (JCGM 101:2008 §5, §7; GUM JCGM
   });
 
   it('should add the samples of a sum: the spread of A + B is that of the summed samples', () => {
+    const results = resultsOf();
     const spread = numericSpread(results, 'total', 'value');
     expectStatistics(spread.si as unknown as Record<string, number>, statistics(total));
     // mean of a sum is the sum of the means (textbook identity, exact for samples).
@@ -132,6 +135,7 @@ describe('Monte Carlo over a sum and a scaling (JCGM 101:2008 §5, §7; GUM JCGM
   });
 
   it('should scale the spread of c·x by |c| and mirror its percentiles for c < 0 (GUM §5.1.3)', () => {
+    const results = resultsOf();
     const spread = numericSpread(results, 'scaled', 'value');
     const a = numericSpread(results, 'q', 'A');
     expect(isClose(spread.sd, 2 * a.sd, 1e-12)).toBe(true);
@@ -149,6 +153,7 @@ describe('Monte Carlo over a sum and a scaling (JCGM 101:2008 §5, §7; GUM JCGM
   });
 
   it('should give rank sensitivities (Spearman 1904) of each input that reaches the output, and only those', () => {
+    const results = resultsOf();
     const spread = numericSpread(results, 'total', 'value');
     expect(Object.keys(spread.sensitivity!).sort()).toEqual(['q.A', 'q.B']);
     expect(isClose(spread.sensitivity!['q.A']!, spearman(A, total), 1e-12)).toBe(true);
@@ -163,6 +168,7 @@ describe('Monte Carlo over a sum and a scaling (JCGM 101:2008 §5, §7; GUM JCGM
   });
 
   it('should draw a 40-bin histogram on [p0.5, p99.5] in the display unit, counting the samples outside', () => {
+    const results = resultsOf();
     const series = results.blocks.total!.series!.hist_value!;
     const spread = numericSpread(results, 'total', 'value');
     const lo = type7(total, 0.005);
@@ -181,6 +187,7 @@ describe('Monte Carlo over a sum and a scaling (JCGM 101:2008 §5, §7; GUM JCGM
   });
 
   it('should echo the settings and each declared distribution', () => {
+    const results = resultsOf();
     expect(results.uncertainty).toMatchObject({ method: 'monte_carlo', samples: N, seed: 11 });
     expect(results.uncertainty!.inputs.map((i) => [i.block, i.input, i.distribution])).toEqual([
       ['q', 'A', 'normal'],
@@ -191,9 +198,10 @@ describe('Monte Carlo over a sum and a scaling (JCGM 101:2008 §5, §7; GUM JCGM
 });
 
 describe('first-order propagation (GUM JCGM 100:2008 §5.1; CONTRACT §8.4)', () => {
-  const results = evaluateSheet(sums('linear'));
+  const resultsOf = perTest(() => evaluateSheet(sums('linear')));
 
   it('should be exact for a sum: u_c = √(0.4² + 0.3²) = 0.5 m, contributions 0.64 and 0.36, normal percentiles', () => {
+    const results = resultsOf();
     const spread = numericSpread(results, 'total', 'value');
     expect(spread.method).toBe('linear');
     expect(isClose(spread.sd, 0.5, 1e-9)).toBe(true);
@@ -213,6 +221,7 @@ describe('first-order propagation (GUM JCGM 100:2008 §5.1; CONTRACT §8.4)', ()
   });
 
   it('should scale u by |c| for y = −2·A and give the other input no share', () => {
+    const results = resultsOf();
     const spread = numericSpread(results, 'scaled', 'value');
     expect(isClose(spread.sd, 0.8, 1e-9)).toBe(true);
     expect(spread.mean).toBe(-6);
