@@ -1,7 +1,8 @@
 #!/usr/bin/env bash
 # npm test: does all of its own set-up, runs every suite, and ends with "N passed, N failed".
-#  0. the gates: TypeScript (tsc --noEmit) and ESLint (npm run lint); each counts as one test in the summary
-#     line, and any error in either fails the run (the suites still run, so one run shows everything)
+#  0. the gates: TypeScript (tsc --noEmit) and ESLint (as npm run lint: --max-warnings 0); each counts as one
+#     test in the summary line; any error in either, or any lint warning, fails the run (the suites still
+#     run, so one run shows everything)
 #  1. unit and integration tests (vitest, real PostgreSQL test database)
 #  2. the app built into .next-test and served on 127.0.0.1:$DENUDATA_TEST_PORT (default 3100),
 #     then the API and browser tests (vitest driving Debian's headless Chromium)
@@ -45,7 +46,7 @@ gate() { # gate <name> <command...>: one pass or one failure in a vitest-shaped 
   fi
 }
 gate typecheck node_modules/.bin/tsc --noEmit
-gate lint node_modules/.bin/eslint .
+gate lint node_modules/.bin/eslint . --max-warnings 0
 
 echo "test: unit and integration suites"
 node_modules/.bin/vitest run "$@" --passWithNoTests --reporter=default --reporter=json --outputFile.json=.denudata/report-unit-$DENUDATA_TEST_PORT.json || status=1

@@ -4,7 +4,8 @@ import { closeBrackets, closeCompletion } from '@codemirror/autocomplete';
 import { EditorState, Prec, type Extension } from '@codemirror/state';
 import { EditorView, keymap } from '@codemirror/view';
 import CodeMirror from '@uiw/react-codemirror';
-import { useCallback, useMemo, useRef } from 'react';
+import { useCallback, useMemo, useState } from 'react';
+import { useLatest } from '@/components/ui/use-latest';
 import { expressionCompletion, expressionHighlight, expressionLanguage, type CompletionData } from './expression-language';
 
 export interface ExpressionFieldProps {
@@ -44,52 +45,52 @@ function attributeExtension(p: Pick<ExpressionFieldProps, 'labelId' | 'described
  * through onChange.
  */
 export default function ExpressionField(props: ExpressionFieldProps) {
-  const latest = useRef(props);
-  latest.current = props;
+  const latest = useLatest(props);
 
-  // Made once (everything they read is a ref), so the editor's state (an open completion list) survives
-  // the package's reconfiguration when the attributes below change.
-  const base = useMemo(() => {
-    const p = latest.current;
-    return [
-      expressionLanguage(new Set(p.units), new Set(p.functions)),
-      expressionHighlight,
-      expressionCompletion(() => latest.current.completion()),
-      closeBrackets(),
-      EditorView.lineWrapping,
-      // One line: Enter adds nothing; pasted line breaks become spaces.
-      Prec.high(keymap.of([{ key: 'Enter', run: () => true }])),
-      // Tab leaves the field as everywhere else: an open completion list closes first (never
-      // accepted by Tab, never left open over the next field).
-      Prec.highest(
-        keymap.of([
-          { key: 'Tab', run: (v) => (closeCompletion(v), false) },
-          { key: 'Shift-Tab', run: (v) => (closeCompletion(v), false) },
-        ]),
-      ),
-      EditorState.transactionFilter.of((tr) => {
-        if (!tr.docChanged || tr.newDoc.lines <= 1) return tr;
-        const text = tr.newDoc.toString().replace(/\s*\n\s*/g, ' ');
-        return [tr, { changes: { from: 0, to: tr.newDoc.length, insert: text }, sequential: true }];
-      }),
-      // Leaving the field (blur, Tab, a click elsewhere) closes its completion list.
-      EditorView.domEventHandlers({
-        blur: (_event, v) => {
-          closeCompletion(v);
-          latest.current.onBlur?.();
-          return false;
-        },
-      }),
-    ];
-  }, []);
+  // Made once (the callbacks read the latest props through `latest`), so the editor's state (an open
+  // completion list) survives the package's reconfiguration when the attributes below change.
+  const [base] = useState(() => [
+    expressionLanguage(new Set(props.units), new Set(props.functions)),
+    expressionHighlight,
+    expressionCompletion(() => latest().completion()),
+    closeBrackets(),
+    EditorView.lineWrapping,
+    // One line: Enter adds nothing; pasted line breaks become spaces.
+    Prec.high(keymap.of([{ key: 'Enter', run: () => true }])),
+    // Tab leaves the field as everywhere else: an open completion list closes first (never
+    // accepted by Tab, never left open over the next field).
+    Prec.highest(
+      keymap.of([
+        { key: 'Tab', run: (v) => (closeCompletion(v), false) },
+        { key: 'Shift-Tab', run: (v) => (closeCompletion(v), false) },
+      ]),
+    ),
+    EditorState.transactionFilter.of((tr) => {
+      if (!tr.docChanged || tr.newDoc.lines <= 1) return tr;
+      const text = tr.newDoc.toString().replace(/\s*\n\s*/g, ' ');
+      return [tr, { changes: { from: 0, to: tr.newDoc.length, insert: text }, sequential: true }];
+    }),
+    // Leaving the field (blur, Tab, a click elsewhere) closes its completion list.
+    EditorView.domEventHandlers({
+      blur: (_event, v) => {
+        closeCompletion(v);
+        latest().onBlur?.();
+        return false;
+      },
+    }),
+  ]);
   const { labelId, describedBy, invalid, readOnly } = props;
   const attributes = useMemo(() => attributeExtension({ labelId, describedBy, invalid, readOnly }), [labelId, describedBy, invalid, readOnly]);
   const extensions = useMemo(() => [...base, attributes], [base, attributes]);
 
   // Stable: a new onChange would make the package reconfigure the editor.
-  const onChange = useCallback((text: string) => {
-    if (text !== latest.current.value) latest.current.onChange(text);
-  }, []);
+  const onChange = useCallback(
+    (text: string) => {
+      const current = latest();
+      if (text !== current.value) current.onChange(text);
+    },
+    [latest],
+  );
 
   return (
     <CodeMirror

@@ -2,7 +2,7 @@
 
 import { Button } from '@/components/ui/button';
 import dynamic from 'next/dynamic';
-import { useEffect, useState } from 'react';
+import { useState } from 'react';
 import { DatasetPicker } from '@/components/datasets/dataset-picker';
 // The density sketch of a declared distribution (and its quantile code) loads only for a field that declares one.
 import InputHintFromText from '@/components/uncertainty/input-hint-from-text';
@@ -207,7 +207,12 @@ function WordChoice({ block, input, value, actions }: { block: SheetBlock; input
 function ParameterName({ block, name, canEdit, labelId, actions }: { block: SheetBlock; name: string; canEdit: boolean; labelId: string; actions: BlockCardActions }) {
   const [value, setValue] = useState(name);
   const [error, setError] = useState<string | null>(null);
-  useEffect(() => setValue(name), [name]);
+  // A new name from outside (undo, a merge) replaces the text (set while rendering, not in an effect).
+  const [shownName, setShownName] = useState(name);
+  if (name !== shownName) {
+    setShownName(name);
+    setValue(name);
+  }
   const commit = () => {
     if (value === name) return;
     const message = actions.renameParameter(block.id, name, value.trim());

@@ -1,6 +1,6 @@
 'use client';
 
-import { useEffect, useState } from 'react';
+import { useState } from 'react';
 import { formatSlope, formatValue } from '@/lib/sheet/format';
 import { DISPLAY_UNIT_CHOICES } from '@/lib/sheet/vocabulary';
 import type { BlockResult, CatalogType, SheetBlock } from '@/lib/sheet/types';
@@ -99,7 +99,13 @@ export function OutputsTable({
 function DisplayUnitInput({ block, output, current, siUnit, onCommit }: { block: SheetBlock; output: string; current: string; siUnit: string; onCommit: (unit: string) => void }) {
   const stored = block.display?.[output] ?? '';
   const [value, setValue] = useState(stored || current);
-  useEffect(() => setValue(stored || current), [stored, current]);
+  // A new stored or current unit from outside (undo, a merge, another display setting) replaces the text
+  // (set while rendering, not in an effect).
+  const [shown, setShown] = useState({ stored, current });
+  if (stored !== shown.stored || current !== shown.current) {
+    setShown({ stored, current });
+    setValue(stored || current);
+  }
   const listId = `units-${block.id}-${output}`;
   const choices = DISPLAY_UNIT_CHOICES[siUnit] ?? [];
   const commit = () => {

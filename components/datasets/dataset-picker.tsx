@@ -3,6 +3,7 @@
 import { useQuery } from '@tanstack/react-query';
 import Link from 'next/link';
 import { useParams } from 'next/navigation';
+import { useId } from 'react';
 import { apiFetch } from '@/lib/api-client';
 
 type DatasetItem = { sha256: string; name: string; kind: string; rowCount: number; columns: { name: string; unit: string }[] };
@@ -30,6 +31,7 @@ export function DatasetPicker({
   labelId: string;
   onPick: (text: string) => void;
 }) {
+  const descriptionId = useId();
   const params = useParams<{ sheetId?: string }>();
   const sheetId = typeof params?.sheetId === 'string' ? params.sheetId : undefined;
   // The sheet's team resolves its data inputs, which need not be the user's current team.
@@ -52,22 +54,27 @@ export function DatasetPicker({
   return (
     <div className="mt-1 flex flex-wrap items-center gap-2 text-[12px]" data-testid="dataset-picker">
       {!readOnly ? (
-        <select
-          aria-labelledby={labelId}
-          aria-description="Choose a dataset of the team"
-          value={chosen ? chosen.sha256 : ''}
-          onChange={(event) => {
-            if (event.target.value) onPick(`dataset("${event.target.value}")`);
-          }}
-          className="h-7 max-w-full rounded-[3px] border border-rule bg-chalk px-1.5 text-[12px]"
-        >
-          <option value="">{datasets.isLoading || sheet.isLoading ? 'Loading datasets…' : items.length ? 'Choose a dataset…' : 'No datasets of this kind yet'}</option>
-          {items.map((d) => (
-            <option key={d.sha256} value={d.sha256}>
-              {d.name} · {d.rowCount} rows · {d.sha256.slice(0, 12)}
-            </option>
-          ))}
-        </select>
+        <>
+          <span id={descriptionId} className="sr-only">
+            Choose a dataset of the team
+          </span>
+          <select
+            aria-labelledby={labelId}
+            aria-describedby={descriptionId}
+            value={chosen ? chosen.sha256 : ''}
+            onChange={(event) => {
+              if (event.target.value) onPick(`dataset("${event.target.value}")`);
+            }}
+            className="h-7 max-w-full rounded-[3px] border border-rule bg-chalk px-1.5 text-[12px]"
+          >
+            <option value="">{datasets.isLoading || sheet.isLoading ? 'Loading datasets…' : items.length ? 'Choose a dataset…' : 'No datasets of this kind yet'}</option>
+            {items.map((d) => (
+              <option key={d.sha256} value={d.sha256}>
+                {d.name} · {d.rowCount} rows · {d.sha256.slice(0, 12)}
+              </option>
+            ))}
+          </select>
+        </>
       ) : null}
       {current ? (
         chosen ? (

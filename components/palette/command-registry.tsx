@@ -1,6 +1,7 @@
 'use client';
 
-import { createContext, useContext, useEffect, useId, useRef, useState, useSyncExternalStore, type ReactNode } from 'react';
+import { createContext, useContext, useEffect, useId, useState, useSyncExternalStore, type ReactNode } from 'react';
+import { useLatest } from '@/components/ui/use-latest';
 
 /** One action of the palette. Pages register theirs with useRegisterCommands. */
 export interface PaletteCommand {
@@ -79,7 +80,7 @@ export function useQuickInsert(insert: QuickInsert | null): void {
   }, [source, insert, setQuickInsert]);
 }
 
-function createRegistry(callbacks: { current: { onOpen: (query?: string) => void; onShowShortcuts: () => void } }): Registry {
+function createRegistry(callbacks: () => { onOpen: (query?: string) => void; onShowShortcuts: () => void }): Registry {
   let sources: Record<string, PaletteCommand[]> = {};
   let quick: { source: string; insert: QuickInsert } | null = null;
   let snapshot: Snapshot = EMPTY;
@@ -107,8 +108,8 @@ function createRegistry(callbacks: { current: { onOpen: (query?: string) => void
       quick = next;
       publish();
     },
-    open: (query) => callbacks.current.onOpen(query),
-    showShortcuts: () => callbacks.current.onShowShortcuts(),
+    open: (query) => callbacks().onOpen(query),
+    showShortcuts: () => callbacks().onShowShortcuts(),
     subscribe(listener) {
       listeners.add(listener);
       return () => listeners.delete(listener);
@@ -126,10 +127,7 @@ export function RegistryProvider({
   onOpen: (query?: string) => void;
   onShowShortcuts: () => void;
 }) {
-  const callbacks = useRef({ onOpen, onShowShortcuts });
-  useEffect(() => {
-    callbacks.current = { onOpen, onShowShortcuts };
-  }, [onOpen, onShowShortcuts]);
+  const callbacks = useLatest({ onOpen, onShowShortcuts });
   const [registry] = useState(() => createRegistry(callbacks));
   return <RegistryContext.Provider value={registry}>{children}</RegistryContext.Provider>;
 }

@@ -5,7 +5,7 @@
 
 import { Command, defaultFilter } from 'cmdk';
 import { useQuery, useQueryClient } from '@tanstack/react-query';
-import { useEffect, useMemo, useState } from 'react';
+import { useMemo, useState } from 'react';
 import type { QuickRecord } from '@/lib/sheet/types';
 import { useRegistrySnapshot, type PaletteCommand } from './command-registry';
 import { isRiskyCommand, needsConfirmation, riskyCommandScore } from './command-safety';
@@ -49,10 +49,6 @@ export default function PaletteDialog({
     staleTime: 5_000,
   });
 
-  useEffect(() => {
-    if (!open) setNotice(null);
-  }, [open]);
-
 
   const groups = useMemo(() => {
     const byGroup = new Map<string, PaletteCommand[]>();
@@ -70,9 +66,17 @@ export default function PaletteDialog({
 
   // A destructive command waits here for an explicit confirmation.
   const [pending, setPending] = useState<PaletteCommand | null>(null);
-  useEffect(() => {
-    if (!open) setPending(null);
-  }, [open]);
+
+  // Closing the palette forgets its notice and any command waiting for confirmation (set while rendering
+  // when `open` changes, as React advises for state that follows a prop, not in an effect).
+  const [wasOpen, setWasOpen] = useState(open);
+  if (open !== wasOpen) {
+    setWasOpen(open);
+    if (!open) {
+      setNotice(null);
+      setPending(null);
+    }
+  }
 
   const runCommand = (command: PaletteCommand) => {
     if (needsConfirmation(command.id) && pending?.id !== command.id) {
@@ -105,10 +109,13 @@ export default function PaletteDialog({
   const showQuick = LOOKS_LIKE_EXPRESSION.test(trimmed) && trimmed.length <= 2000;
   const quickIsCurrent = trimmed === debounced;
   // While an expression is typed, Enter takes the quick result.
-  const [selected, setSelected] = useState('');
-  useEffect(() => {
+  // Set while rendering whenever the typed text changes, as for `open` above.
+  const [selected, setSelected] = useState(showQuick ? '__quick' : '');
+  const [selectedFor, setSelectedFor] = useState(trimmed);
+  if (trimmed !== selectedFor) {
+    setSelectedFor(trimmed);
     if (showQuick) setSelected('__quick');
-  }, [showQuick, trimmed]);
+  }
   const riskyTitles = useMemo(() => {
     const titles = new Map<string, string>();
     for (const command of commands) if (isRiskyCommand(command.id)) titles.set(commandValue(command), command.title);

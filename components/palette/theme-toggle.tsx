@@ -1,18 +1,19 @@
 'use client';
 
 import { Button } from '@/components/ui/button';
-import { useEffect, useState } from 'react';
+import { useSyncExternalStore } from 'react';
 import { useCommandRegistry } from './command-registry';
 import { currentTheme, toggleTheme, type Theme } from '@/lib/ui/theme';
 
+function subscribeTheme(onChange: () => void): () => void {
+  window.addEventListener('denudata-theme', onChange);
+  return () => window.removeEventListener('denudata-theme', onChange);
+}
+
 export function ThemeToggle() {
-  const [theme, setTheme] = useState<Theme | null>(null);
-  useEffect(() => {
-    setTheme(currentTheme());
-    const onChange = (event: Event) => setTheme((event as CustomEvent<Theme>).detail);
-    window.addEventListener('denudata-theme', onChange);
-    return () => window.removeEventListener('denudata-theme', onChange);
-  }, []);
+  // The server cannot know the stored theme: the server and the hydrating render show the neutral label
+  // (null), then the browser's theme; the 'denudata-theme' event (applyTheme) brings every change.
+  const theme = useSyncExternalStore<Theme | null>(subscribeTheme, currentTheme, () => null);
   const next = theme === 'dark' ? 'light' : 'dark';
   return (
     <Button variant="tool" size="icon-lg" onClick={() => toggleTheme()} aria-label={theme ? `Switch to the ${next} theme` : 'Switch theme'} title="Switch theme">

@@ -1,6 +1,6 @@
 'use client';
 
-import { useCallback, useMemo, useRef, useState } from 'react';
+import { useCallback, useLayoutEffect, useMemo, useRef, useState } from 'react';
 import { useSheetComments } from '@/components/comments/use-comments';
 import { useReviewActions } from '@/components/review/review-bar';
 import { useQuickInsert, useRegisterCommands, useCommandRegistry } from '@/components/palette/command-registry';
@@ -63,8 +63,11 @@ export function SheetWorkspace({
   const canFork = forkTeams.length > 0;
   const draft = useSheetDraft({ sheetId, initialVersion: initial.version, initialDocument: initial.document, canEdit });
   const { doc, apply, setNotice } = draft;
+  // The rendered document, for callbacks that run on user events (written before paint, never during render).
   const docRef = useRef(doc);
-  docRef.current = doc;
+  useLayoutEffect(() => {
+    docRef.current = doc;
+  }, [doc]);
   const { selectedId, setSelectedId, selectedRef, renamingId, setRenamingId, captionId, setCaptionId, freshIds, markFresh, revealAll, selectAdjacent, goTo, editFields } =
     useBlockSelection(docRef, initial.document.blocks[0]?.id ?? null);
   const [railTab, setRailTab] = useState('help');

@@ -1,6 +1,6 @@
 'use client';
 
-import { useCallback, useRef, useState, type RefObject } from 'react';
+import { useCallback, useLayoutEffect, useRef, useState, type RefObject } from 'react';
 import type { SheetDocument } from '@/lib/sheet/types';
 import { focusBlock } from './use-block-actions';
 
@@ -10,8 +10,11 @@ import { focusBlock } from './use-block-actions';
  */
 export function useBlockSelection(docRef: RefObject<SheetDocument>, firstId: string | null) {
   const [selectedId, setSelectedId] = useState<string | null>(firstId);
+  // The selection, for callbacks that run on user events (written before paint, never during render).
   const selectedRef = useRef(selectedId);
-  selectedRef.current = selectedId;
+  useLayoutEffect(() => {
+    selectedRef.current = selectedId;
+  }, [selectedId]);
   const [renamingId, setRenamingId] = useState<string | null>(null);
   const [captionId, setCaptionId] = useState<string | null>(null);
   const [freshIds, setFreshIds] = useState<ReadonlySet<string>>(() => new Set());

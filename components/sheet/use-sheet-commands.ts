@@ -209,6 +209,7 @@ export function useSheetCommands({
     if (head) {
       list.push(
         { id: 'report-open', title: `Open the calculation report of r${head.number}`, group: 'Review', keywords: ['report', 'print', 'sign-off', 'pdf'], run: () => router.push(`/sheets/${sheetId}/revisions/${head.number}/report`) },
+        // eslint-disable-next-line @next/next/no-location-assign-relative-destination -- a PDF download from a route handler (attachment), not a page the client router can show
         { id: 'report-pdf', title: `Download the PDF report of r${head.number}`, group: 'Review', keywords: ['report', 'pdf', 'print', 'export'], run: () => window.location.assign(`/api/sheets/${sheetId}/revisions/${head.number}/report.pdf`) },
       );
     }
