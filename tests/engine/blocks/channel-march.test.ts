@@ -148,3 +148,72 @@ describe('channel_march inputs, units and drainage area', () => {
     expect(result.warnings.some((w) => w.startsWith('drainage area decreases downstream on 1 reach(es), first at distance 0 m'))).toBe(true);
   });
 });
+
+describe('channel_march messages, warnings and series', () => {
+  const base = { coefficient: '0.01', length_scale: '500 m' };
+
+  it('should count reverse reaches but not flat ones, name the first, and not call a reach of exactly l_f/2 long', () => {
+    // Reaches: 0→200 rises (reverse), 200→300 flat, 300→450 rises, 450→700 (dx = l_f/2 exactly) and 700→800 fall.
+    const rows = [[0, 10, 100], [200, 10.5, 100], [300, 10.5, 100], [450, 11, 100], [700, 9, 100], [800, 8, 100]];
+    const result = march(profile(rows), base);
+    expect(result.status, result.error).toBe('ok');
+    expect(result.warnings).toEqual(['reverse slope on 2 reach(es), first at distance 0 m: capacity set to 0']);
+    expect(result.series!.capacity!.y.slice(0, 3)).toEqual([0, 0, 0]); // reverse and flat reaches carry no capacity
+    expect(result.series!.capacity!.y[3]).toBeCloseTo(0.01 * 100 * (2 / 250), 15); // K_f·q_w·S on the falling reach
+  });
+
+  it('should give the number of long reaches and the largest dx/l_f', () => {
+    const result = march(profile([[0, 10, 100], [300, 9, 100], [400, 8, 100], [800, 7, 100]]), base);
+    expect(result.warnings).toEqual([
+      '2 reach(es) longer than half the length_scale (dx/l_f up to 0.8): the first-order explicit scheme is inaccurate there; use a finer profile or a longer length_scale',
+    ]);
+  });
+
+  it('should count drops in drainage area and name the first', () => {
+    const data = profile([[0, 10, 3], [100, 9, 3], [200, 8, 2], [300, 7, 2], [400, 6, 1]], 'drainage_area', ['m', 'm', 'km^2']);
+    const result = march(data, { ...base, runoff: '1 m/yr', width: '5 m' });
+    expect(result.warnings).toEqual(['drainage area decreases downstream on 2 reach(es), first at distance 100 m: check the order and the area column']);
+  });
+
+  it('should name the reach that is not shorter than l_f', () => {
+    const result = march(profile([[0, 10, 100], [100, 9, 100], [700, 8, 100]]), base);
+    expect(result.error).toBe('block "march", explicit march needs every reach shorter than length_scale (reach 2 at distance 100 m is 600 m long, length_scale 500 m)');
+  });
+
+  it('should refuse width without runoff for drainage area, and runoff alone for discharge', () => {
+    const area = profile([[0, 10, 1], [100, 9, 2], [200, 8, 3]], 'drainage_area', ['m', 'm', 'km^2']);
+    expect(march(area, { ...base, width: '5 m' }).error).toContain('a drainage_area dataset needs both runoff and width');
+    const discharge = profile([[0, 10, 100], [100, 9, 100], [200, 8, 100]]);
+    expect(march(discharge, { ...base, runoff: '1 m/yr' }).error).toContain('runoff and width apply only to a drainage_area dataset');
+  });
+
+  it('should march a profile of two rows (one reach) and refuse one row', () => {
+    const two = march(profile([[0, 10, 100], [100, 9, 100]]), base);
+    expect(two.status, two.error).toBe('ok');
+    expect(two.outputs.reaches!.value).toBe(1);
+    // One reach: q_eq = K_f·q_w·S = 0.01·100·0.01 = 0.01 m²/yr; q_out = q_eq·dx/l_f = 0.002 m²/yr (P10's scheme).
+    expect(two.outputs.outgoing_flux!.value as number).toBeCloseTo(0.002, 15);
+    expect(march(profile([[0, 10, 100]]), base).error).toBe('block "march", a long profile needs at least 2 rows');
+  });
+
+  it('should refuse a long profile with neither discharge nor drainage area', () => {
+    const dataset: DatasetCanonical = { columns: [{ name: 'distance', unit: 'm' }, { name: 'elevation', unit: 'm' }], format: 'denudata-dataset@1', kind: 'long_profile', rows: [[0, 10], [100, 9]] };
+    const sha = hashDataset(dataset);
+    const document: SheetDocument = { format: 'denudata-sheet@1', title: 'm', blocks: [{ id: 'b1', name: 'march', type: 'channel_march', inputs: { data: `dataset("${sha}")`, ...base } }] };
+    expect(evaluateSheet(document, { datasets: new Map([[sha, dataset]]) }).blocks.march!.error).toBe('block "march", data: the long profile has neither discharge nor drainage_area');
+  });
+
+  it('should label every series with its axis and unit (dz/dt in mm/yr, fluxes in m²/yr)', () => {
+    const result = march(profile([[0, 10, 100], [100, 9, 100], [200, 8, 100]]), base);
+    const labels = Object.fromEntries(Object.entries(result.series!).map(([name, s]) => [name, [s.xLabel, s.xUnit, s.yLabel, s.yUnit]]));
+    expect(labels).toEqual({
+      capacity: ['Distance downstream', 'm', 'Capacity q_eq', 'm^2/yr'],
+      flux: ['Distance downstream', 'm', 'Sediment flux q_s', 'm^2/yr'],
+      dz_dt: ['Distance downstream', 'm', 'dz/dt', 'mm/yr'],
+    });
+    // A refused profile still shows what was measured.
+    const refused = march(profile([[0, 10, 100], [600, 9, 100]]), base);
+    expect(refused.status).toBe('error');
+    expect(refused.series!.measured).toEqual({ x: [0, 600], y: [10, 9], xLabel: 'Distance downstream', yLabel: 'Elevation', xUnit: 'm', yUnit: 'm' });
+  });
+});
