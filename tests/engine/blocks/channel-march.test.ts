@@ -39,11 +39,11 @@ for (const id of ['P46', 'P47']) {
       expect(result.status, result.error).toBe('ok');
       expect(result.warnings).toEqual([]);
     });
-    for (const key of comparableKeys(c)) {
-      it(`should match ${key}`, () => {
-        expect(checkKey(results(), key, c.expected[key]!)).toBeNull();
-      });
-    }
+    it(`should match each of the case's ${comparableKeys(c).length} expected values`, () => {
+      // One evaluation for all of them (each key's difference is named when it fails).
+      const misses = comparableKeys(c).map((key) => checkKey(results(), key, c.expected[key]!)).filter((miss) => miss !== null);
+      expect(misses).toEqual([]);
+    });
   });
 }
 
