@@ -9,7 +9,8 @@ import { toPublicUser, type PublicUser } from './users';
 export type MemberItem = { user: PublicUser; role: TeamRole; joinedAt: string };
 export type PendingInvitation = { id: string; email: string; role: TeamRole; invitedBy: PublicUser | null; expiresAt: string; createdAt: string };
 
-const ROLE_ORDER: Record<TeamRole, number> = { owner: 0, editor: 1, reviewer: 2, viewer: 3 };
+/** Members are listed owners first, then editors, reviewers and viewers (then by name). */
+export const ROLE_ORDER: Record<TeamRole, number> = { owner: 0, editor: 1, reviewer: 2, viewer: 3 };
 
 /** A team's members (owners first, then by name). */
 export async function listMembersByTeam({ teamId }: { teamId: string }): Promise<{ items: MemberItem[]; total: number }> {

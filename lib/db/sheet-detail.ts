@@ -17,38 +17,26 @@ export type SheetDetail = {
   forks: { id: string; title: string; site: string | null; revision: number | null }[];
 };
 
-/**
- * Everything the sheet page and `GET /api/sheets/{id}` show; forks from other teams are left out, and a
- * source sheet the reader cannot see is named by nothing but the revision it was forked at (neither its
- * id nor its title). One plain query (forks in a subquery).
- */
-export async function getSheetDetail({
-  sheetId,
-  visibleTeamIds,
-}: {
-  sheetId: string;
-  visibleTeamIds: string[];
-}): Promise<SheetDetail> {
-  if (!isUuid(sheetId)) throw notFound('Sheet');
-  const [row] = await db().query<
-    RecordRow & {
-      draft_document: unknown;
-      creator_id: string | null;
-      creator_name: string | null;
-      creator_email: string | null;
-      updater_id: string | null;
-      updater_name: string | null;
-      updater_email: string | null;
-      head_number: number | null;
-      head_hash: string | null;
-      head_status: ReviewStatus | null;
-      head_evaluating: boolean | null;
-      source_team_id: string | null;
-      source_title: string | null;
-      forks: { id: string; title: string; site: string | null; revision: number | null }[];
-    }
-  >(
-    `SELECT ${RECORD_COLUMNS}, s.draft_document,
+/** The columns of a sheet detail row (sheet `s`, head revision `h`; `$2` holds the reader's team ids). */
+export type DetailRow = RecordRow & {
+  draft_document: unknown;
+  creator_id: string | null;
+  creator_name: string | null;
+  creator_email: string | null;
+  updater_id: string | null;
+  updater_name: string | null;
+  updater_email: string | null;
+  head_number: number | null;
+  head_hash: string | null;
+  head_status: ReviewStatus | null;
+  head_evaluating: boolean | null;
+  source_team_id: string | null;
+  source_title: string | null;
+  forks: { id: string; title: string; site: string | null; revision: number | null }[];
+};
+
+/** The select list of the detail query; the sheet page's query adds columns to it (lib/db/sheet-page.ts). */
+export const DETAIL_SELECT = `SELECT ${RECORD_COLUMNS}, s.draft_document,
             cu.id AS creator_id, cu.name AS creator_name, cu.email AS creator_email,
             uu.id AS updater_id, uu.name AS updater_name, uu.email AS updater_email,
             h.number AS head_number, h.hash AS head_hash, h.review_status AS head_status, (h.results IS NULL) AS head_evaluating,
@@ -56,16 +44,18 @@ export async function getSheetDetail({
             coalesce((SELECT json_agg(json_build_object('id', f.id, 'title', f.title, 'site', f.site_name, 'revision', f.forked_from_revision)
                                       ORDER BY f.created_at, f.id)
                         FROM sheets f
-                       WHERE f.forked_from_sheet_id = s.id AND f.team_id = ANY($2::uuid[])), '[]'::json) AS forks
-       FROM sheets s
+                       WHERE f.forked_from_sheet_id = s.id AND f.team_id = ANY($2::uuid[])), '[]'::json) AS forks`;
+
+/** The tables of the detail query: `$1` is the sheet's id. */
+export const DETAIL_FROM = `FROM sheets s
        LEFT JOIN users cu ON cu.id = s.created_by
        LEFT JOIN users uu ON uu.id = s.updated_by
        LEFT JOIN sheet_revisions h ON h.sheet_id = s.id AND h.number = s.head_revision AND s.head_revision > 0
        LEFT JOIN sheets src ON src.id = s.forked_from_sheet_id
-      WHERE s.id = $1`,
-    { bind: [sheetId, visibleTeamIds.filter(isUuid)], type: QueryTypes.SELECT },
-  );
-  if (!row) throw notFound('Sheet');
+      WHERE s.id = $1`;
+
+/** A detail row as the reader may see it. */
+export function detailOfRow(row: DetailRow, visibleTeamIds: string[]): SheetDetail {
   const person = (id: string | null, name: string | null, email: string | null): PublicUser | null =>
     id ? { id, name: name!, email: email! } : null;
   const record = recordOfRow(row);
@@ -95,4 +85,26 @@ export async function getSheetDetail({
       : {}),
     forks: row.forks.map((f) => ({ id: f.id, title: f.title, site: f.site, revision: f.revision })),
   };
+}
+
+/**
+ * Everything the sheet page and `GET /api/sheets/{id}` show; forks from other teams are left out, and a
+ * source sheet the reader cannot see is named by nothing but the revision it was forked at (neither its
+ * id nor its title). One plain query (forks in a subquery).
+ */
+export async function getSheetDetail({
+  sheetId,
+  visibleTeamIds,
+}: {
+  sheetId: string;
+  visibleTeamIds: string[];
+}): Promise<SheetDetail> {
+  if (!isUuid(sheetId)) throw notFound('Sheet');
+  const [row] = await db().query<DetailRow>(`${DETAIL_SELECT}
+       ${DETAIL_FROM}`, {
+    bind: [sheetId, visibleTeamIds.filter(isUuid)],
+    type: QueryTypes.SELECT,
+  });
+  if (!row) throw notFound('Sheet');
+  return detailOfRow(row, visibleTeamIds);
 }

@@ -15,6 +15,11 @@ export function json(data: unknown, status = 200, headers?: HeadersInit): NextRe
   return NextResponse.json(data, { status, headers });
 }
 
+/** A 200 answer whose JSON text is already made (the same body and content type as json() gives for its value). */
+export function jsonText(text: string): NextResponse {
+  return new NextResponse(text, { status: 200, headers: { 'content-type': 'application/json' } });
+}
+
 /** The first problem zod found, as a message and a dotted field path. */
 export function firstIssue(error: z.ZodError): { message: string; field?: string } {
   const issue = error.issues[0];
@@ -71,7 +76,11 @@ export async function readBodyText(request: Request, maxBytes = MAX_BODY_BYTES):
 
 /** Reads a JSON body (at most MAX_BODY_BYTES) and parses it with the schema: 400 or 413 otherwise. */
 export async function readJson<T>(request: Request, schema: ZodType<T>, maxBytes = MAX_BODY_BYTES): Promise<T> {
-  const text = await readBodyText(request, maxBytes);
+  return parseJsonText(await readBodyText(request, maxBytes), schema);
+}
+
+/** A body already read (readBodyText) parsed as readJson parses it: the same checks and the same 400s. */
+export function parseJsonText<T>(text: string, schema: ZodType<T>): T {
   let body: unknown;
   try {
     body = text.length ? JSON.parse(text) : undefined;

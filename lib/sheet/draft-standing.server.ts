@@ -21,13 +21,23 @@ export async function getDraftStanding({
 }): Promise<DraftStanding> {
   if (!head) return { head: null, approved: null };
   db();
-  const parsed = parseSheetDocument(draftDocument);
-  const draftHash = parsed.ok ? hashSheetDocument(parsed.document) : null;
   const approved = await SheetRevision.findOne({
     where: { sheetId, reviewStatus: 'approved' },
     attributes: ['number', 'hash'],
     order: [['number', 'DESC']],
   });
+  return draftStandingOf(draftDocument, head, approved ? { number: approved.number, hash: approved.hash } : null);
+}
+
+/** The standing from revisions already read (the sheet page reads the last approved one in its own query). */
+export function draftStandingOf(
+  draftDocument: unknown,
+  head: { number: number; hash: string } | null,
+  approved: { number: number; hash: string } | null,
+): DraftStanding {
+  if (!head) return { head: null, approved: null };
+  const parsed = parseSheetDocument(draftDocument);
+  const draftHash = parsed.ok ? hashSheetDocument(parsed.document) : null;
   return {
     head: { number: head.number, differs: draftHash !== head.hash },
     approved: approved ? { number: approved.number, differs: draftHash !== approved.hash } : null,

@@ -92,6 +92,31 @@ describe('POST /api/evaluate', () => {
     expect(response.body.blocks.thermal.status).toBe('ok');
   });
 
+  it('should answer a repeated body with the same text as its full evaluation, and equal a textually different body of the same document', async () => {
+    const client = await signedInAs('editor');
+    const document = { ...thermalSheet(), title: `API check: repeated body ${Date.now()}` };
+    const raw = JSON.stringify({ document });
+    const first = await client.request('POST', '/api/evaluate', undefined, { raw });
+    const again = await client.request('POST', '/api/evaluate', undefined, { raw });
+    expect(first.status).toBe(200);
+    expect(again.status).toBe(200);
+    expect(again.headers.get('content-type')).toBe(first.headers.get('content-type'));
+    expect(first.headers.get('content-type')).toBe('application/json');
+    expect(JSON.stringify(again.body)).toBe(JSON.stringify(first.body));
+    expectClose(again.body.blocks.thermal.outputs.temperature_at_depth.value, 379.985479, 0.0005);
+    // The same document as other text (indented): a full evaluation again, with the same results.
+    const spaced = await client.request('POST', '/api/evaluate', undefined, { raw: JSON.stringify({ document }, null, 2) });
+    expect(spaced.status).toBe(200);
+    expect(JSON.stringify(spaced.body)).toBe(JSON.stringify(first.body));
+    // A repeated invalid body is refused again with the same 400 (only answers of evaluations are kept).
+    const invalid = JSON.stringify({ document: { ...document, blocks: [{ ...document.blocks[0], type: 'no_such_type' }] } });
+    for (let i = 0; i < 2; i++) {
+      const refused = await client.request('POST', '/api/evaluate', undefined, { raw: invalid });
+      expect(refused.status).toBe(400);
+      expect(refused.body.error.code).toBe('validation');
+    }
+  });
+
   it('should answer 401 without a session', async () => {
     const response = await new ApiClient().post('/api/evaluate', thermalSheet());
     expect(response.status).toBe(401);

@@ -2,14 +2,8 @@ import type { Metadata } from 'next';
 import { notFound, redirect } from 'next/navigation';
 import { cache } from 'react';
 import { SheetWorkspace } from '@/components/sheet/sheet-workspace';
-import { getSheetPreferences } from '@/lib/db/sheet-preferences';
 import { roleAllows } from '@/lib/auth/permissions';
-import { listMembersByTeam } from '@/lib/db/members';
-import { getReviewSummary } from '@/lib/db/revisions';
-import { listReviewEvents } from '@/lib/db/review-events';
-import { getDraftStanding, latestApprovedRevision } from '@/lib/sheet/draft-standing.server';
-import { getSheetDetail } from '@/lib/db/sheet-detail';
-import { listSheetsByTeam } from '@/lib/db/sheet-list';
+import { getSheetPageData } from '@/lib/db/sheet-page';
 import { AppError } from '@/lib/errors';
 import { publishedCatalog } from '@/lib/sheet/catalog.server';
 import { catalogUrl } from '@/lib/sheet/catalog-url';
@@ -20,12 +14,13 @@ import type { SheetDocument } from '@/lib/sheet/types';
 type Params = { params: Promise<{ sheetId: string }>; searchParams?: Promise<Record<string, string | string[] | undefined>> };
 
 // One load per request, shared by generateMetadata and the page; the access check is the layout's
-// (requireSheetPage, cached for the request: a sheet the user may not see is a 404 there).
+// (requireSheetPage, cached for the request: a sheet the user may not see is a 404 there). Everything
+// else the page shows comes from one query (getSheetPageData).
 const loadSheet = cache(async (sheetId: string) => {
   const { user, teams, sheet, role, visibleTeamIds } = await requireSheetPage(sheetId);
   try {
-    const detail = await getSheetDetail({ sheetId, visibleTeamIds });
-    return { user, teams, sheet, role, detail };
+    const data = await getSheetPageData({ sheetId, visibleTeamIds });
+    return { user, teams, sheet, role, detail: data.detail, data };
   } catch (error) {
     if (error instanceof AppError && (error.status === 404 || error.status === 403)) notFound();
     throw error;
@@ -41,21 +36,13 @@ export async function generateMetadata({ params }: Params): Promise<Metadata> {
 export default async function SheetPage({ params, searchParams }: Params) {
   const { sheetId } = await params;
   const query = (await searchParams) ?? {};
-  const { user, teams, sheet, role, detail } = await loadSheet(sheetId);
+  const { user, teams, sheet, role, detail, data } = await loadSheet(sheetId);
   // Viewers (and reviewers with nothing awaiting their check) open the latest approved revision, or the
   // newest one, so a draft's numbers are never read as signed ones; ?draft=1 opens the working draft.
   if (detail.head && query.draft !== '1' && (role === 'viewer' || (role === 'reviewer' && !['in_review', 'checked'].includes(detail.head.status)))) {
-    const approved = await latestApprovedRevision({ sheetId });
-    redirect(`/sheets/${sheetId}/revisions/${approved ?? detail.head.number}`);
+    redirect(`/sheets/${sheetId}/revisions/${data.approvedRevision ?? detail.head.number}`);
   }
-  const [others, members, review, notes, standing, preferences] = await Promise.all([
-    listSheetsByTeam({ teamId: sheet.teamId }),
-    listMembersByTeam({ teamId: sheet.teamId }),
-    detail.head ? getReviewSummary({ sheetId, number: detail.head.number }) : Promise.resolve(null),
-    detail.head ? listReviewEvents({ sheetId, revision: detail.head.number }) : Promise.resolve([]),
-    getDraftStanding({ sheetId, draftDocument: detail.draft.document, head: detail.head }),
-    getSheetPreferences({ sheetId }),
-  ]);
+  const { teamSheets, members, review, reviewEvents: notes, draftStanding: standing, preferences } = data;
   // The block catalog goes by its version, fetched once by the browser (and cached), not in this payload.
   const { version: catalogVersion } = publishedCatalog();
   preload(catalogUrl(catalogVersion), { as: 'fetch', crossOrigin: 'anonymous' });
@@ -80,11 +67,11 @@ export default async function SheetPage({ params, searchParams }: Params) {
       canEdit={roleAllows(role, 'edit')}
       role={role}
       user={{ id: user.id, name: user.name }}
-      checkers={members.items.filter((m) => roleAllows(m.role, 'check')).map((m) => m.user)}
-      members={members.items.map((m) => m.user)}
+      checkers={members.filter((m) => roleAllows(m.role, 'check')).map((m) => m.user)}
+      members={members.map((m) => m.user)}
       preferences={preferences}
       forkTeams={forkTeams}
-      otherSheets={others.items.filter((s) => s.id !== sheetId).map((s) => ({ id: s.id, title: s.title }))}
+      otherSheets={teamSheets.filter((s) => s.id !== sheetId).map((s) => ({ id: s.id, title: s.title }))}
     />
   );
 }

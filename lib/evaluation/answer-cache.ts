@@ -1,0 +1,68 @@
+import { createHash } from 'node:crypto';
+
+/**
+ * Answers of `POST /api/evaluate` kept by the SHA-256 of the request body's text, for a body whose answer
+ * depends on nothing but that text (a document whose datasets, if any, all came in the body: evaluation
+ * is deterministic, so the same text gives the same results). A repeated body is then answered without
+ * parsing, validating, cloning to a worker thread or serialising again. Only an optimisation: a miss
+ * evaluates in full, and every check before the body (session, rate limit, size) still runs.
+ *
+ * A small LRU bounded in entries and in bytes (the answers' text length); an answer over a quarter of
+ * the byte bound is not kept; a body longer than `maxKeyedBytes` is not looked up at all (hashing it
+ * would cost more than a rare repeat saves).
+ */
+export class AnswerCache {
+  private entries = new Map<string, string>();
+  private totalBytes = 0;
+
+  constructor(
+    readonly capacity = 256,
+    readonly maxBytes = 32 * 1024 * 1024,
+    readonly maxKeyedBytes = 256 * 1024,
+  ) {}
+
+  /** The cache key of a body's text, or null when the body is too long to be kept. */
+  keyOf(text: string): string | null {
+    if (text.length > this.maxKeyedBytes) return null;
+    return createHash('sha256').update(text, 'utf8').digest('base64');
+  }
+
+  get(key: string | null): string | undefined {
+    if (key === null) return undefined;
+    const answer = this.entries.get(key);
+    if (answer !== undefined) {
+      this.entries.delete(key);
+      this.entries.set(key, answer);
+    }
+    return answer;
+  }
+
+  set(key: string | null, answer: string): void {
+    if (key === null) return;
+    this.remove(key);
+    if (answer.length > this.maxBytes / 4) return;
+    this.entries.set(key, answer);
+    this.totalBytes += answer.length;
+    while (this.entries.size > this.capacity || this.totalBytes > this.maxBytes) {
+      const oldest = this.entries.keys().next().value;
+      if (oldest === undefined) break;
+      this.remove(oldest);
+    }
+  }
+
+  private remove(key: string): void {
+    const answer = this.entries.get(key);
+    if (answer === undefined) return;
+    this.entries.delete(key);
+    this.totalBytes -= answer.length;
+  }
+
+  get size(): number {
+    return this.entries.size;
+  }
+
+  /** Characters held (the answers' text length). */
+  get bytes(): number {
+    return this.totalBytes;
+  }
+}
