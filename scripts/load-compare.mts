@@ -79,6 +79,7 @@ async function slice(side: 'A' | 'B', target: (typeof targets)[number], seconds:
     url: new URL(target.path, sides[side]).href,
     method: (target.method ?? 'GET') as 'GET',
     body: target.body,
+    ...(target.unique ? { idReplacement: true } : {}),
     connections: CONNECTIONS,
     duration: seconds,
     setupClient: (client: { setHeaders: (headers: Record<string, string>) => void }) => {

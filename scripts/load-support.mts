@@ -30,10 +30,10 @@ export async function signIn(base: URL, email: string, password: string): Promis
 }
 
 /** A sheet of a quantities block and a chain of formula blocks, each reading the previous one. */
-export function chainedDocument(blocks: number) {
+export function chainedDocument(blocks: number, title = 'Load: 50-block chain') {
   return {
     format: 'denudata-sheet@1',
-    title: 'Load: 50-block chain',
+    title,
     blocks: Array.from({ length: blocks }, (_, i) =>
       i === 0
         ? { id: 'b0', name: 'q0', type: 'quantities', inputs: { K: '0.004 m^2/yr', C: '-0.01 1/m' } }
@@ -49,6 +49,8 @@ export interface LoadTarget {
   body?: string;
   /** Which accounts may make the request: none (signed out), the demo team's members, or anyone signed in. */
   who: 'none' | 'demo' | 'all';
+  /** autocannon replaces `[<id>]` in the body with a new id per request (a body never sent before). */
+  unique?: boolean;
 }
 
 /** The routes issue 8's load figures name, in the order they are measured. */
@@ -59,5 +61,14 @@ export const LOAD_TARGETS: LoadTarget[] = [
   { label: 'GET /api/sheets', path: '/api/sheets', who: 'demo' },
   { label: 'POST /api/quick', path: '/api/quick', method: 'POST', body: JSON.stringify({ expr: 'scarp_age(2 m, 0, 25 deg, 1 m^2/kyr)', preview: true }), who: 'all' },
   { label: 'POST /api/evaluate (50 blocks)', path: '/api/evaluate', method: 'POST', body: JSON.stringify({ document: chainedDocument(50) }), who: 'all' },
+  // The same evaluation work, but each body's text is new (its title carries a request id), so no answer is reused.
+  {
+    label: 'POST /api/evaluate (50 blocks, new text each time)',
+    path: '/api/evaluate',
+    method: 'POST',
+    body: JSON.stringify({ document: chainedDocument(50, 'Load: 50-block chain [<id>]') }),
+    who: 'all',
+    unique: true,
+  },
   { label: 'sheet page HTML', path: `/sheets/${DEMO_SHEET_ID}`, who: 'demo' },
 ];

@@ -82,6 +82,7 @@ async function measure(target: LoadTarget, cookies: string[], overallRate?: numb
     url: new URL(target.path, base).href,
     method: target.method ?? 'GET',
     body: target.body,
+    ...(target.unique ? { idReplacement: true } : {}),
     headers: target.body ? { 'content-type': 'application/json' } : {},
     connections: CONNECTIONS,
     duration,
