@@ -1,0 +1,226 @@
+// Direct unit tests of lib/engine/numerics/erf-fit.ts (the weighted least-squares fit of the erf scarp model
+// z = c + a·erf((x − x0)/(2√(Kt))) + b·(x − x0), Hanks et al. 1984) on small data (a few tens of points), fast
+// enough for mutation testing. References: an identity (noise-free data made by the model return its parameters);
+// an independent least-squares fit by the npm package ml-levenberg-marquardt (a general-purpose reference
+// library; finite-difference Jacobian) started near the optimum; the covariance (JᵀWJ)⁻¹ of Bates & Watts (1988,
+// Nonlinear Regression Analysis, §2.3) with J computed here by central differences and inverted by mathjs.
+import { erf as mathjsErf, inv } from 'mathjs';
+import { levenbergMarquardt } from 'ml-levenberg-marquardt';
+import { describe, expect, it } from 'vitest';
+import { erfModel, fitErfScarp, type FitData, type FitOptions, type FitResult } from '@/lib/engine/numerics/erf-fit';
+import { expectClose } from '../../support/approx';
+
+type Params = [c: number, a: number, b: number, kt: number, x0: number];
+
+/** The model written out independently (mathjs's erf). */
+function model([c, a, b, kt, x0]: Params, x: number): number {
+  return c + a * (mathjsErf((x - x0) / (2 * Math.sqrt(kt))) as number) + b * (x - x0);
+}
+
+const TRUE: Params = [50, 3, 0.08, 2, 0.7];
+const OPTIONS: FitOptions = { ktMin: 0.01, ktMax: 100, x0Min: -5, x0Max: 5 };
+
+/** n points from −10 to 10 m; deterministic "noise" of the given size (a fixed pseudo-random sequence). */
+function dataset(params: Params, n: number, noise = 0, weights?: (i: number) => number): FitData {
+  const x = Float64Array.from({ length: n }, (_, i) => -10 + (20 * i) / (n - 1));
+  const z = Float64Array.from(x, (v, i) => model(params, v) + noise * Math.sin(12.9898 * (i + 1)) * 1.7);
+  const w = Float64Array.from({ length: n }, (_, i) => (weights ? weights(i) : 1));
+  return { x, z, w };
+}
+
+function paramsOf(result: FitResult): Params {
+  return [result.c, result.a, result.b, result.kt, result.x0];
+}
+
+function sumOfSquares(data: FitData, params: Params): number {
+  let S = 0;
+  for (let i = 0; i < data.x.length; i++) S += data.w[i]! * (data.z[i]! - model(params, data.x[i]!)) ** 2;
+  return S;
+}
+
+/** An independent fit by ml-levenberg-marquardt (its weights are 1/σ, ours 1/σ²), from a start near the optimum. */
+function referenceFit(data: FitData, start: Params, fitX0: boolean): { params: Params; S: number } {
+  const fixedX0 = start[4];
+  const toParams = (p: number[]): Params => [p[0]!, p[1]!, p[2]!, p[3]!, fitX0 ? p[4]! : fixedX0];
+  const result = levenbergMarquardt(
+    { x: Array.from(data.x), y: Array.from(data.z) },
+    (p: number[]) => (x: number) => model(toParams(p), x),
+    {
+      initialValues: fitX0 ? [...start] : start.slice(0, 4),
+      weights: Array.from(data.w, (w) => Math.sqrt(w)),
+      damping: 1e-3,
+      gradientDifference: 1e-7,
+      centralDifference: true,
+      maxIterations: 500,
+      errorTolerance: 0,
+      improvementThreshold: 1e-9,
+    },
+  );
+  const params = toParams(result.parameterValues);
+  return { params, S: sumOfSquares(data, params) };
+}
+
+/** (JᵀWJ)⁻¹ with J by central differences of the independent model (Bates & Watts 1988). */
+function finiteDifferenceInverse(data: FitData, params: Params, fitX0: boolean): number[][] {
+  const p = fitX0 ? 5 : 4;
+  const rows = Array.from(data.x, (x) =>
+    Array.from({ length: p }, (_, k) => {
+      const h = 1e-6 * Math.max(Math.abs(params[k]!), 1);
+      const up = [...params] as Params;
+      const down = [...params] as Params;
+      up[k] = up[k]! + h;
+      down[k] = down[k]! - h;
+      return (model(up, x) - model(down, x)) / (2 * h);
+    }),
+  );
+  const JtWJ = Array.from({ length: p }, (_, j) =>
+    Array.from({ length: p }, (__, k) => rows.reduce((sum, row, i) => sum + data.w[i]! * row[j]! * row[k]!, 0)),
+  );
+  return inv(JtWJ) as number[][];
+}
+
+function expectMatrixClose(got: number[][] | null, expected: number[][], relTol: number): void {
+  expect(got).not.toBeNull();
+  expect(got!.length).toBe(expected.length);
+  for (let j = 0; j < expected.length; j++) {
+    expect(got![j]!.length).toBe(expected.length);
+    for (let k = 0; k < expected.length; k++) {
+      // Relative to the geometric mean of the diagonal entries (off-diagonal entries can be near 0).
+      const scale = Math.sqrt(Math.abs(expected[j]![j]! * expected[k]![k]!));
+      expectClose(got![j]![k]!, expected[j]![k]!, 0, relTol * scale);
+    }
+  }
+}
+
+describe('numerics/erf-fit', () => {
+  it('erfModel is c + a·erf((x − x0)/(2√Kt)) + b·(x − x0) (Hanks et al. 1984; erf by mathjs)', () => {
+    for (const x of [-7, -0.3, 0.7, 2, 9]) expectClose(erfModel(x, ...TRUE), model(TRUE, x), 1e-15);
+    expectClose(erfModel(2.7, 1, 2, -0.5, 4, 0.7), 1 + 2 * (mathjsErf(0.5) as number) - 1, 1e-15);
+  });
+
+  it('returns the parameters of noise-free model data with x0 fixed (an identity)', () => {
+    const data = dataset(TRUE, 21);
+    const result = fitErfScarp(data, { ...OPTIONS, x0: 0.7 });
+    expect(result.failure).toBeUndefined();
+    const got = paramsOf(result);
+    for (let k = 0; k < 4; k++) expectClose(got[k]!, TRUE[k]!, 1e-8);
+    expect(result.x0).toBe(0.7);
+    expect(result.S).toBeLessThan(1e-16);
+    expect(result.iterations).toBeGreaterThan(0);
+    expect(result.inverse).toHaveLength(4);
+  });
+
+  it('returns the parameters of noise-free model data with x0 fitted (an identity)', () => {
+    const data = dataset(TRUE, 11);
+    const result = fitErfScarp(data, OPTIONS);
+    expect(result.failure).toBeUndefined();
+    const got = paramsOf(result);
+    for (let k = 0; k < 5; k++) expectClose(got[k]!, TRUE[k]!, 1e-7);
+    expect(result.S).toBeLessThan(1e-16);
+    expect(result.inverse).toHaveLength(5);
+    // A descending scarp with a negative far-field slope and x0 below 0 too.
+    const other: Params = [-12, -1.5, -0.02, 0.3, -2.2];
+    const second = fitErfScarp(dataset(other, 11), OPTIONS);
+    const got2 = paramsOf(second);
+    for (let k = 0; k < 5; k++) expectClose(got2[k]!, other[k]!, 1e-7);
+  });
+
+  it('agrees with ml-levenberg-marquardt on noisy data, x0 fixed and fitted (same parameters and S)', () => {
+    const data = dataset(TRUE, 21, 0.05);
+    for (const fitX0 of [false, true]) {
+      const result = fitErfScarp(data, fitX0 ? OPTIONS : { ...OPTIONS, x0: 0.7 });
+      expect(result.failure).toBeUndefined();
+      const start: Params = [50.01, 2.98, 0.081, 2.05, fitX0 ? 0.69 : 0.7];
+      const reference = referenceFit(data, start, fitX0);
+      const got = paramsOf(result);
+      for (let k = 0; k < 5; k++) expectClose(got[k]!, reference.params[k]!, 2e-5, 1e-7);
+      // At the optimum S agrees to second order in the parameter differences.
+      expectClose(result.S, reference.S, 1e-8);
+      expectClose(result.S, sumOfSquares(data, got), 1e-10);
+      // The reference cannot do better from its start (S is a minimum).
+      expect(result.S).toBeLessThanOrEqual(reference.S * (1 + 1e-10));
+      expect(result.S).toBeGreaterThan(0.005);
+    }
+  });
+
+  it('gives (JᵀWJ)⁻¹ equal to the finite-difference covariance of Bates & Watts (1988), fixed and fitted x0', () => {
+    const data = dataset(TRUE, 21, 0.05, (i) => 1 + (i % 3));
+    for (const fitX0 of [false, true]) {
+      const result = fitErfScarp(data, fitX0 ? OPTIONS : { ...OPTIONS, x0: 0.7 });
+      expect(result.failure).toBeUndefined();
+      const expected = finiteDifferenceInverse(data, paramsOf(result), fitX0);
+      expectMatrixClose(result.inverse, expected, 1e-6);
+    }
+  });
+
+  it('fits x0 when asked and keeps it when fixed: a wrong fixed x0 gives a larger S', () => {
+    const data = dataset(TRUE, 12, 0.02);
+    const fitted = fitErfScarp(data, OPTIONS);
+    const fixedRight = fitErfScarp(data, { ...OPTIONS, x0: fitted.x0 });
+    const fixedWrong = fitErfScarp(data, { ...OPTIONS, x0: -1 });
+    expect(fixedWrong.x0).toBe(-1);
+    expectClose(fitted.x0, 0.7, 0, 0.1);
+    expectClose(fixedRight.S, fitted.S, 1e-9);
+    expectClose(fixedRight.kt, fitted.kt, 1e-6);
+    expect(fixedWrong.S).toBeGreaterThan(10 * fitted.S);
+    expect(fixedWrong.failure).toBeUndefined();
+  });
+
+  it('uses the weights: a far outlier with a negligible weight is ignored; scaling all weights scales S and (JᵀWJ)⁻¹', () => {
+    const outlier = 7;
+    const clean = dataset(TRUE, 21);
+    const data = dataset(TRUE, 21, 0, (i) => (i === outlier ? 1e-14 : 1));
+    data.z[outlier] = data.z[outlier]! + 5;
+    const result = fitErfScarp(data, { ...OPTIONS, x0: 0.7 });
+    const got = paramsOf(result);
+    for (let k = 0; k < 4; k++) expectClose(got[k]!, TRUE[k]!, 1e-6);
+    // The same outlier at full weight moves the fit.
+    const heavy = fitErfScarp({ ...data, w: clean.w }, { ...OPTIONS, x0: 0.7 });
+    expect(Math.abs(heavy.c - TRUE[0])).toBeGreaterThan(0.01);
+    expect(heavy.S).toBeGreaterThan(1);
+
+    const noisy = dataset(TRUE, 21, 0.05);
+    const base = fitErfScarp(noisy, { ...OPTIONS, x0: 0.7 });
+    const scaled = fitErfScarp({ ...noisy, w: noisy.w.map((w) => 4 * w) }, { ...OPTIONS, x0: 0.7 });
+    expectClose(scaled.kt, base.kt, 1e-8);
+    expectClose(scaled.S, 4 * base.S, 1e-8);
+    expectClose(scaled.inverse![3]![3]!, base.inverse![3]![3]! / 4, 1e-6);
+    expectClose(scaled.inverse![0]![1]!, base.inverse![0]![1]! / 4, 1e-6);
+  });
+
+  it('stays inside the Kt scan range: data sharper than ktMin end at the scan edge', () => {
+    // Kt = 0.001 m² (a step between two points) with ktMin = 0.01: the fit cannot make it sharper than the points
+    // show, and any Kt below the point spacing fits the step exactly; the scan starts at or above ktMin.
+    const data = dataset([10, 1, 0, 0.001, 0.5], 20);
+    const result = fitErfScarp(data, { ...OPTIONS, x0: 0.5 });
+    expect(result.kt).toBeLessThan(0.05);
+    expectClose(result.a, 1, 1e-3);
+    expectClose(result.c, 10, 1e-3);
+  });
+
+  it("fails with 'singular Jacobian' on degenerate data: one x for every point, or no scarp at all", () => {
+    const same: FitData = {
+      x: Float64Array.from([2, 2, 2, 2, 2, 2]),
+      z: Float64Array.from([1, 2, 3, 4, 5, 6]),
+      w: Float64Array.from([1, 1, 1, 1, 1, 1]),
+    };
+    const first = fitErfScarp(same, { ...OPTIONS, x0: 0 });
+    expect(first.failure).toBe('singular Jacobian');
+    expect(first.inverse).toBeNull();
+    expect(first.iterations).toBe(0);
+    for (const v of paramsOf(first)) expect(v).toBeNaN();
+    expect(first.S).toBeNaN();
+
+    // A plane: a = 0, so neither Kt nor x0 changes the model and JᵀWJ is singular.
+    const plane: FitData = {
+      x: Float64Array.from([0, 1, 2, 3, 4, 5, 6]),
+      z: Float64Array.from([1, 1.5, 2, 2.5, 3, 3.5, 4]),
+      w: Float64Array.from([1, 1, 1, 1, 1, 1, 1]),
+    };
+    for (const options of [{ ...OPTIONS, x0Min: 1, x0Max: 5 }, { ...OPTIONS, x0: 3 }]) {
+      const result = fitErfScarp(plane, options);
+      expect(result.failure).toBe('singular Jacobian');
+      expect(result.inverse).toBeNull();
+    }
+  });
+});
