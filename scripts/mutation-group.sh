@@ -32,9 +32,8 @@ case "${1:-}" in
     MUTATE="$B/scarp-fit.ts,$B/profile-evolution.ts,$B/channel-march.ts,$B/data-shared.ts,lib/engine/numerics/*.ts,lib/engine/numerics.ts"
     TESTS="$T/scarp-fit.test.ts,$T/profile-evolution.test.ts,$T/channel-march.test.ts,$T/data-blocks-uncertainty.test.ts,tests/engine/numerics.test.ts,tests/engine/demo-data-sheet.test.ts,$P" ;;
   data-channel|data-scarp-fit|data-profile)
-    # Parts of the data group that fit a short session. The data blocks' loops run slowly when instrumented, so
-    # each part runs only its own tests, the numerics tests and the published and registry checks (the Monte Carlo
-    # tests of data-blocks-uncertainty.test.ts are left out: a mutant only those would kill is a survivor here).
+    # Parts of the data group that fit a short session: each block with its own tests, the shared helpers',
+    # uncertainty, cost, numerics and demo tests, and the published and registry checks.
     case "$1" in
       data-channel) MUTATE="$B/channel-march.ts,$B/data-shared.ts,lib/engine/numerics.ts"; OWN="$T/channel-march.test.ts" ;;
       # The solvers (numerics/erf-fit.ts, erf.ts, diffusion-1d.ts) are left out of these two: instrumented, their
@@ -42,7 +41,7 @@ case "${1:-}" in
       data-scarp-fit) MUTATE="$B/scarp-fit.ts"; OWN="$T/scarp-fit.test.ts" ;;
       data-profile) MUTATE="$B/profile-evolution.ts"; OWN="$T/profile-evolution.test.ts" ;;
     esac
-    TESTS="$OWN,$T/data-shared.test.ts,tests/engine/numerics.test.ts,tests/engine/demo-data-sheet.test.ts,$P" ;;
+    TESTS="$OWN,$T/data-shared.test.ts,$T/data-blocks-uncertainty.test.ts,tests/engine/cost.test.ts,tests/engine/numerics.test.ts,tests/engine/demo-data-sheet.test.ts,$P" ;;
   uncertainty)
     MUTATE="lib/engine/uncertainty/statistics.ts,lib/engine/uncertainty/distributions.ts,lib/engine/uncertainty/numeric.ts"
     TESTS="tests/engine/uncertainty/*.test.ts,$T/data-blocks-uncertainty.test.ts" ;;

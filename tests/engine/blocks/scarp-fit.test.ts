@@ -185,3 +185,54 @@ describe('the engine erf (Cody 1969) against mathjs erf', () => {
     for (let x = -7; x <= 7; x += 0.0137) expect(Math.abs(engineErf(x) - (mathjsErf(x) as number))).toBeLessThanOrEqual(2e-16 + 1e-15 * Math.abs(mathjsErf(x) as number));
   });
 });
+
+describe('scarp_fit series, sides and one-sided far field', () => {
+  it('should draw the fitted model at 201 even points from the first to the last x (Hanks et al. 1984 model)', () => {
+    const rows = synthetic(41, { kt: 20, a: 2, b: 0.05, x0: 1, noise: 0.01 });
+    const result = fit(profile(rows));
+    expect(result.status, result.error).toBe('ok');
+    const { fitted, residual, measured } = result.series!;
+    expect(fitted!.x).toHaveLength(201);
+    expect(fitted!.x[0]).toBe(-30);
+    expect(fitted!.x[200]).toBe(30);
+    expect(fitted!.x[100]).toBeCloseTo(0, 12);
+    expect(fitted!.x[1]! - fitted!.x[0]!).toBeCloseTo(0.3, 12);
+    // z = c + a·erf((x − x0)/(2√Kt)) + b·(x − x0), from the block's own outputs (c is the midpoint elevation).
+    const o = result.outputs;
+    const [c, offset, b, kt, x0] = ['midpoint_elevation', 'offset', 'far_field_slope', 'kt', 'x0'].map((k) => o[k]!.value as number) as [number, number, number, number, number];
+    const a = offset / 2; // the output is the offset 2a
+    for (const k of [0, 37, 100, 163, 200]) {
+      const x = fitted!.x[k]!;
+      expect(fitted!.y[k]).toBeCloseTo(c + a * mathjsErf((x - x0) / (2 * Math.sqrt(kt))) + b * (x - x0), 9);
+    }
+    expect(residual!.x).toEqual(rows.map(([x]) => x));
+    expect(residual!.y).toHaveLength(41);
+    const labels = [measured, fitted, residual].map((s) => [s!.xLabel, s!.xUnit, s!.yLabel, s!.yUnit]);
+    expect(labels).toEqual([
+      ['Distance', 'm', 'Elevation (measured)', 'm'],
+      ['Distance', 'm', 'Elevation (fitted)', 'm'],
+      ['Distance', 'm', 'Residual', 'm'],
+    ]);
+  });
+
+  it('should not count a point at x0 on either side, and accept exactly 2 points on a side', () => {
+    const rows = synthetic(30); // x = −30 … 30 in 29 steps
+    const x1 = rows[1]![0]!;
+    const x28 = rows[28]![0]!;
+    expect(fit(profile(rows), { x0: `${x1} m` }).error).toBe(`block "fit", x0 must have at least 2 points on each side (x0 = ${Number(x1.toPrecision(4))} m has 1 before and 28 after)`);
+    expect(fit(profile(rows), { x0: `${x28} m` }).error).toBe(`block "fit", x0 must have at least 2 points on each side (x0 = ${Number(x28.toPrecision(4))} m has 28 before and 1 after)`);
+    const between = (rows[1]![0]! + rows[2]![0]!) / 2;
+    expect(fit(profile(rows), { x0: `${between} m` }).error ?? '').not.toContain('x0 must have');
+    const nearEnd = (rows[27]![0]! + rows[28]![0]!) / 2;
+    expect(fit(profile(rows), { x0: `${nearEnd} m` }).error ?? '').not.toContain('x0 must have');
+  });
+
+  it('should warn when only one side falls short of the far field (3√Kt from x0)', () => {
+    const rows = synthetic(61, { kt: 30, noise: 0.0005, from: -8, to: 40, x0: 0 }); // 3√30 ≈ 16.4 m: short on the left only
+    const result = fit(profile(rows), { x0: '0 m' });
+    expect(result.status, result.error).toBe('ok');
+    expect(result.warnings.some((w) => w.startsWith('the profile does not reach the far-field slope on both sides'))).toBe(true);
+    const mirrored = fit(profile(rows.map(([x, z]) => [-x!, 200 - z!]).reverse()), { x0: '0 m' });
+    expect(mirrored.warnings.some((w) => w.startsWith('the profile does not reach the far-field slope on both sides'))).toBe(true);
+  });
+});
