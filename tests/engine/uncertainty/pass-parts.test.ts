@@ -228,6 +228,12 @@ describe('spreads from columns of samples (spread.ts; CONTRACT §8.4, §8.5)', (
       );
     });
 
+    it('should take the central difference when both points stand, not a one-sided one', () => {
+      // y+ − y0 = 3e-4 but y0 − y− = 1e-4 (a curved relation): central c·u = (y+ − y−)/2e-4 = 2, forward would be 3.
+      const curved = new Float64Array([10 + 3e-4, 10 - 1e-4, 10, 10]);
+      expect(linearSpread(curved, formatFromSI(y0, ''), [0, 1], plan, none, 'q')!.sd).toBeCloseTo(2, 9);
+    });
+
     it('should give no spread when no input moves the output (u_c = 0)', () => {
       expect(linearSpread(new Float64Array([10, 10, 10, 10]), formatFromSI(10, ''), [0, 1], plan, none, 'q')).toBeUndefined();
       expect(linearSpread(column, formatFromSI(10, ''), [], plan, none, 'q')).toBeUndefined();
