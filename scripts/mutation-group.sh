@@ -86,20 +86,22 @@ case "${1:-}" in
     # spread.ts and stream.ts have unit tests of their own: the sheets are left out of that part (a mutant they
     # alone would catch counts as a survivor there).
     if [ "$1" = uncertainty-pass-spread ]; then TESTS="tests/engine/uncertainty/pass-parts.test.ts,tests/engine/uncertainty/stream.test.ts"; fi ;;
-  solver-erf|solver-erf-fit|solver-erf-fit-a|solver-erf-fit-b|solver-diffusion)
+  solver-erf|solver-erf-fit|solver-erf-fit-a|solver-erf-fit-p|solver-erf-fit-b|solver-diffusion)
     # The solvers of the data blocks, each with its own fast unit tests (tens of points, a few steps: the block
     # tests of scarp_fit and profile_evolution take minutes a mutant when these inner loops are instrumented).
     N=lib/engine/numerics; TN=tests/engine/numerics
     case "$1" in
       solver-erf) MUTATE="$N/erf.ts"; TESTS="$TN/erf.test.ts,tests/engine/published-checks.test.ts" ;;
       solver-erf-fit) MUTATE="$N/erf-fit.ts"; TESTS="$TN/erf-fit.test.ts" ;;
-      # Its two halves by lines (each fits a short session): -a the linear algebra, projection, scan and Jacobian,
-      # -b the normal equations, Levenberg–Marquardt and the fit itself.
-      solver-erf-fit-a) MUTATE="$N/erf-fit.ts:1-220"; TESTS="$TN/erf-fit.test.ts" ;;
+      # Its parts by lines (each fits a short session): -a the small linear algebra, -p the projection, scan and
+      # Jacobian (its loops make every test tens of times slower instrumented), -b the normal equations,
+      # Levenberg–Marquardt and the fit itself.
+      solver-erf-fit-a) MUTATE="$N/erf-fit.ts:1-97"; TESTS="$TN/erf-fit.test.ts" ;;
+      solver-erf-fit-p) MUTATE="$N/erf-fit.ts:98-220"; TESTS="$TN/erf-fit.test.ts" ;;
       solver-erf-fit-b) MUTATE="$N/erf-fit.ts:221-343"; TESTS="$TN/erf-fit.test.ts" ;;
       solver-diffusion) MUTATE="$N/diffusion-1d.ts"; TESTS="$TN/diffusion-1d.test.ts" ;;
     esac ;;
-  *) echo "usage: $0 first-release|scarp-channel|tectonic|orogen-nuclide|geotherm-strength|flexure-closure|data|data-channel|data-scarp-fit|data-profile|uncertainty|uncertainty-statistics|uncertainty-distributions|uncertainty-numeric|plumbing-units|plumbing-expression|plumbing-evaluate|uncertainty-pass|uncertainty-pass-propagate|uncertainty-pass-sampling|uncertainty-pass-spread|solver-erf|solver-erf-fit|solver-erf-fit-a|solver-erf-fit-b|solver-diffusion" >&2; exit 2 ;;
+  *) echo "usage: $0 first-release|scarp-channel|tectonic|orogen-nuclide|geotherm-strength|flexure-closure|data|data-channel|data-scarp-fit|data-profile|uncertainty|uncertainty-statistics|uncertainty-distributions|uncertainty-numeric|plumbing-units|plumbing-expression|plumbing-evaluate|uncertainty-pass|uncertainty-pass-propagate|uncertainty-pass-sampling|uncertainty-pass-spread|solver-erf|solver-erf-fit|solver-erf-fit-a|solver-erf-fit-p|solver-erf-fit-b|solver-diffusion" >&2; exit 2 ;;
 esac
 export DENUDATA_MUTATION_TESTS="$TESTS" DENUDATA_MUTATION_REPORT="$1"
 exec nice -n 15 npx stryker run --incremental --mutate "$MUTATE" ${@:2}
