@@ -1,15 +1,26 @@
 // Sums the group reports of `scripts/mutation-group.sh` (reports/mutation/<group>.json) into one table:
 // per file, per group and overall, killed (timeouts count as killed, as Stryker does), survived, no coverage, ignored.
 // Usage: node scripts/mutation-summary.mjs [--survivors]
-import { readFileSync, readdirSync } from 'node:fs';
+import { readFileSync, readdirSync, statSync } from 'node:fs';
 import path from 'node:path';
 
 const dir = path.resolve('reports/mutation');
+// A file may be measured in parts (line ranges) by several groups, or again by a later run: each mutant (by
+// place, operator and replacement) keeps its newest result, and the file is listed under its newest group.
 const files = new Map();
-for (const name of readdirSync(dir).filter((n) => n.endsWith('.json') && !n.startsWith('incremental-'))) {
+const reports = readdirSync(dir)
+  .filter((n) => n.endsWith('.json') && !n.startsWith('incremental-'))
+  .map((name) => ({ name, time: statSync(path.join(dir, name)).mtimeMs }))
+  .sort((a, b) => a.time - b.time);
+for (const { name } of reports) {
   const report = JSON.parse(readFileSync(path.join(dir, name), 'utf8'));
-  for (const [file, entry] of Object.entries(report.files ?? {})) files.set(file, { group: name.replace(/\.json$/, ''), mutants: entry.mutants, source: entry.source });
+  for (const [file, entry] of Object.entries(report.files ?? {})) {
+    const known = files.get(file) ?? { mutants: new Map() };
+    for (const m of entry.mutants) known.mutants.set(`${m.location.start.line}:${m.location.start.column}:${m.mutatorName}:${m.replacement}`, m);
+    files.set(file, { group: name.replace(/\.json$/, ''), mutants: known.mutants, source: entry.source });
+  }
 }
+for (const entry of files.values()) entry.mutants = [...entry.mutants.values()];
 const rows = [];
 const total = { killed: 0, survived: 0, noCoverage: 0, ignored: 0, errors: 0 };
 for (const [file, { group, mutants }] of [...files.entries()].sort()) {
