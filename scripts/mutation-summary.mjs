@@ -16,7 +16,7 @@ for (const { name } of reports) {
   const report = JSON.parse(readFileSync(path.join(dir, name), 'utf8'));
   for (const [file, entry] of Object.entries(report.files ?? {})) {
     const known = files.get(file) ?? { mutants: new Map() };
-    for (const m of entry.mutants) known.mutants.set(`${m.location.start.line}:${m.location.start.column}:${m.mutatorName}:${m.replacement}`, m);
+    for (const m of entry.mutants) known.mutants.set(`${m.location.start.line}:${m.location.start.column}-${m.location.end.line}:${m.location.end.column}:${m.mutatorName}:${m.replacement}`, m);
     files.set(file, { group: name.replace(/\.json$/, ''), mutants: known.mutants, source: entry.source });
   }
 }
