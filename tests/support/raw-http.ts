@@ -3,6 +3,9 @@
 import http from 'node:http';
 import { appUrl } from './http';
 
+/** Bodies above this (with a Content-Length) wait for an early refusal before they are sent. */
+const LARGE_BODY_BYTES = 1024 * 1024;
+
 export type RawAnswer = { status: number; headers: http.IncomingHttpHeaders; text: string; body: any };
 
 export function rawRequest(options: {
@@ -32,15 +35,28 @@ export function rawRequest(options: {
             parsed = null;
           }
           resolve({ status: response.statusCode ?? 0, headers: response.headers, text, body: parsed });
+          request.destroy(); // a body never sent leaves the connection open
         });
         response.on('error', reject);
       },
     );
-    request.on('error', (error: NodeJS.ErrnoException) => {
-      // The server may answer 413 and close before a large body is fully sent.
-      if (error.code === 'EPIPE' || error.code === 'ECONNRESET') reject(error);
-      else reject(error);
-    });
+    request.on('error', reject);
+    if (body !== undefined && !options.chunked && body.length > LARGE_BODY_BYTES) {
+      // As a client that sends `Expect: 100-continue` may (RFC 9110 §10.1.1): send the headers, and give the server
+      // a moment to refuse the body by its declared length before sending it. A server that answers 413 and
+      // closes while a large body is still being written makes the write fail (EPIPE) and the answer unreadable.
+      request.flushHeaders();
+      let answered = false;
+      request.once('response', () => {
+        answered = true;
+      });
+      setTimeout(() => {
+        if (answered) return;
+        request.write(body);
+        request.end();
+      }, 1000);
+      return;
+    }
     if (body !== undefined) {
       if (options.chunked) {
         // Several chunks of at most 64 kB, without a Content-Length.
