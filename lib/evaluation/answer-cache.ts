@@ -1,4 +1,5 @@
 import { createHash } from 'node:crypto';
+import { ByteBoundedLru } from '@/lib/cache/byte-bounded-lru';
 
 /**
  * Answers of `POST /api/evaluate` kept by the SHA-256 of the request body's text, for a body whose answer
@@ -12,14 +13,15 @@ import { createHash } from 'node:crypto';
  * would cost more than a rare repeat saves).
  */
 export class AnswerCache {
-  private entries = new Map<string, string>();
-  private totalBytes = 0;
+  private readonly lru: ByteBoundedLru<string, string>;
 
   constructor(
     readonly capacity = 256,
     readonly maxBytes = 32 * 1024 * 1024,
     readonly maxKeyedBytes = 256 * 1024,
-  ) {}
+  ) {
+    this.lru = new ByteBoundedLru(capacity, maxBytes, (answer) => answer.length);
+  }
 
   /** The cache key of a body's text, or null when the body is too long to be kept. */
   keyOf(text: string): string | null {
@@ -28,41 +30,19 @@ export class AnswerCache {
   }
 
   get(key: string | null): string | undefined {
-    if (key === null) return undefined;
-    const answer = this.entries.get(key);
-    if (answer !== undefined) {
-      this.entries.delete(key);
-      this.entries.set(key, answer);
-    }
-    return answer;
+    return key === null ? undefined : this.lru.get(key);
   }
 
   set(key: string | null, answer: string): void {
-    if (key === null) return;
-    this.remove(key);
-    if (answer.length > this.maxBytes / 4) return;
-    this.entries.set(key, answer);
-    this.totalBytes += answer.length;
-    while (this.entries.size > this.capacity || this.totalBytes > this.maxBytes) {
-      const oldest = this.entries.keys().next().value;
-      if (oldest === undefined) break;
-      this.remove(oldest);
-    }
-  }
-
-  private remove(key: string): void {
-    const answer = this.entries.get(key);
-    if (answer === undefined) return;
-    this.entries.delete(key);
-    this.totalBytes -= answer.length;
+    if (key !== null) this.lru.set(key, answer);
   }
 
   get size(): number {
-    return this.entries.size;
+    return this.lru.size;
   }
 
   /** Characters held (the answers' text length). */
   get bytes(): number {
-    return this.totalBytes;
+    return this.lru.bytes;
   }
 }

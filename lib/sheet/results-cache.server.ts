@@ -1,4 +1,5 @@
 import 'server-only';
+import { ByteBoundedLru } from '@/lib/cache/byte-bounded-lru';
 
 /**
  * The last results of each sheet's draft, kept in this server process so the next evaluation of
@@ -24,22 +25,14 @@ function defaultSizeOf(entry: CachedEvaluation<unknown, unknown>): number {
 }
 
 export class ResultsCache<Doc, Results> {
-  private entries = new Map<string, { entry: CachedEvaluation<Doc, Results>; bytes: number }>();
-  private totalBytes = 0;
+  private readonly lru: ByteBoundedLru<string, CachedEvaluation<Doc, Results>>;
 
-  constructor(
-    private readonly capacity = 200,
-    private readonly maxBytes = RESULTS_CACHE_BYTES,
-    private readonly sizeOf: (entry: CachedEvaluation<Doc, Results>) => number = defaultSizeOf,
-  ) {}
+  constructor(capacity = 200, maxBytes = RESULTS_CACHE_BYTES, sizeOf: (entry: CachedEvaluation<Doc, Results>) => number = defaultSizeOf) {
+    this.lru = new ByteBoundedLru(capacity, maxBytes, sizeOf);
+  }
 
   get(sheetId: string): CachedEvaluation<Doc, Results> | undefined {
-    const slot = this.entries.get(sheetId);
-    if (slot) {
-      this.entries.delete(sheetId);
-      this.entries.set(sheetId, slot);
-    }
-    return slot?.entry;
+    return this.lru.get(sheetId);
   }
 
   /**
@@ -47,33 +40,17 @@ export class ResultsCache<Doc, Results> {
    * of the byte bound is not kept at all (and drops the sheet's older one).
    */
   set(sheetId: string, entry: CachedEvaluation<Doc, Results>): void {
-    const current = this.entries.get(sheetId);
-    if (current && current.entry.draftVersion > entry.draftVersion) return;
-    this.remove(sheetId);
-    const bytes = this.sizeOf(entry);
-    if (bytes > this.maxBytes / 4) return;
-    this.entries.set(sheetId, { entry, bytes });
-    this.totalBytes += bytes;
-    while (this.entries.size > this.capacity || this.totalBytes > this.maxBytes) {
-      const oldest = this.entries.keys().next().value;
-      if (oldest === undefined) break;
-      this.remove(oldest);
-    }
-  }
-
-  private remove(sheetId: string): void {
-    const slot = this.entries.get(sheetId);
-    if (!slot) return;
-    this.entries.delete(sheetId);
-    this.totalBytes -= slot.bytes;
+    const current = this.lru.peek(sheetId);
+    if (current && current.draftVersion > entry.draftVersion) return;
+    this.lru.set(sheetId, entry);
   }
 
   get size(): number {
-    return this.entries.size;
+    return this.lru.size;
   }
 
   /** Bytes held, as sizeOf counts them. */
   get bytes(): number {
-    return this.totalBytes;
+    return this.lru.bytes;
   }
 }
