@@ -29,8 +29,8 @@ case "${1:-}" in
     MUTATE="$B/plate-flexure.ts,$B/closure-exhumation.ts"
     TESTS="$T/plate-flexure.test.ts,$T/closure-exhumation.test.ts,tests/engine/tectonic-conventions.test.ts,$P" ;;
   data)
-    MUTATE="$B/scarp-fit.ts,$B/profile-evolution.ts,$B/channel-march.ts,$B/data-shared.ts,lib/engine/numerics/*.ts,lib/engine/numerics.ts"
-    TESTS="$T/scarp-fit.test.ts,$T/profile-evolution.test.ts,$T/channel-march.test.ts,$T/data-blocks-uncertainty.test.ts,tests/engine/numerics.test.ts,tests/engine/demo-data-sheet.test.ts,$P" ;;
+    MUTATE="$B/scarp-fit.ts,$B/profile-evolution*.ts,$B/channel-march.ts,$B/data-shared.ts,lib/engine/numerics/*.ts,lib/engine/numerics.ts"
+    TESTS="$T/scarp-fit.test.ts,$T/profile-evolution*.test.ts,$T/channel-march.test.ts,$T/data-blocks-uncertainty.test.ts,tests/engine/numerics.test.ts,tests/engine/demo-data-sheet.test.ts,$P" ;;
   data-channel|data-scarp-fit|data-profile)
     # Parts of the data group that fit a short session: each block with its own tests, the shared helpers',
     # uncertainty, cost, numerics and demo tests, and the published and registry checks.
@@ -39,7 +39,7 @@ case "${1:-}" in
       # The solvers (numerics/erf-fit.ts, erf.ts, diffusion-1d.ts) are left out of these two: instrumented, their
       # inner loops make each fit or run tens of times slower (the scarp_fit tests' first run: 143 s, not 2 s).
       data-scarp-fit) MUTATE="$B/scarp-fit.ts"; OWN="$T/scarp-fit.test.ts" ;;
-      data-profile) MUTATE="$B/profile-evolution.ts"; OWN="$T/profile-evolution.test.ts" ;;
+      data-profile) MUTATE="$B/profile-evolution.ts,$B/profile-evolution-cost.ts,$B/profile-evolution-grid.ts,$B/profile-evolution-run.ts"; OWN="$T/profile-evolution*.test.ts" ;;
     esac
     TESTS="$OWN,$T/data-shared.test.ts,$T/data-blocks-uncertainty.test.ts,tests/engine/cost.test.ts,tests/engine/numerics.test.ts,tests/engine/demo-data-sheet.test.ts,$P" ;;
   uncertainty)
@@ -63,10 +63,10 @@ case "${1:-}" in
         MUTATE="$E/units.ts,$E/engine-units.ts,$E/unit-format.ts,$E/temperature.ts,$E/dataset-units.ts"
         TESTS="$TE/units.test.ts,$TE/trust/*.test.ts,$TE/dataset-input.test.ts,$TE/expression.test.ts,$TE/document.test.ts,$PR" ;;
       plumbing-expression)
-        MUTATE="$E/expression.ts,$E/expression-language.ts,$E/natural-input.ts,$E/text.ts,$E/text-words.ts,$E/value-size.ts"
+        MUTATE="$E/expression.ts,$E/locked-math.ts,$E/expression-language.ts,$E/natural-input.ts,$E/text.ts,$E/text-words.ts,$E/value-size.ts"
         TESTS="$TE/expression.test.ts,$TE/limits.test.ts,$TE/trust/*.test.ts,$TE/document.test.ts,$TE/units.test.ts,$PR" ;;
       plumbing-evaluate)
-        MUTATE="$E/evaluate.ts,$E/prepare.ts,$E/block-run.ts,$E/graph.ts,$E/document.ts,$E/canonical-json.ts,$E/cost.ts,$E/errors.ts,$E/dataset-input.ts,$E/dataset.ts,$E/typical-ranges.ts,$E/registry.ts,$E/block-type.ts,$E/index.ts"
+        MUTATE="$E/evaluate.ts,$E/results-document.ts,$E/block-evaluation.ts,$E/prepare.ts,$E/block-run.ts,$E/graph.ts,$E/document.ts,$E/canonical-json.ts,$E/cost.ts,$E/errors.ts,$E/dataset-input.ts,$E/dataset.ts,$E/typical-ranges.ts,$E/registry.ts,$E/block-type.ts,$E/index.ts"
         TESTS="$TE/document.test.ts,$TE/graph.test.ts,$TE/incremental.test.ts,$TE/limits.test.ts,$TE/canonical-json.test.ts,$TE/cost.test.ts,$TE/dataset-input.test.ts,$TE/demo-sheets.test.ts,$TE/trust/*.test.ts,$TE/expression.test.ts,$PR" ;;
     esac ;;
   uncertainty-pass|uncertainty-pass-propagate|uncertainty-pass-sampling|uncertainty-pass-spread)

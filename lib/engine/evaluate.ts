@@ -1,235 +1,31 @@
 /**
  * Evaluation of a sheet: expressions are checked and their references resolved, the dependency
- * graph orders the blocks, and each block becomes ok, error or blocked. Incremental evaluation
- * reuses previous results for blocks that neither changed nor depend on a change.
+ * graph orders the blocks, and each block becomes ok, error or blocked (block-evaluation.ts). Incremental
+ * evaluation reuses previous results for blocks that neither changed nor depend on a change. The results
+ * document and its size cap are in results-document.ts.
  */
-import { collectCallWarnings, formatBlockOutput, runBlockType, type RunOptions } from './block-run';
-import { BlockFailure, type Series } from './block-type';
-import { DatasetReference } from './dataset-input';
-import { hashSheetDocument, type SheetBlock, type SheetDocument } from './document';
-import { EngineError, toSafeMessage } from './errors';
+import type { RunOptions } from './block-run';
+import { Run } from './block-evaluation';
+import { hashSheetDocument, type SheetDocument } from './document';
 import type { DependencyGraph } from './graph';
 import { blockMessage, prepare, type PreparedBlock } from './prepare';
-import { formatValue, valueFromFormatted, type FormattedOutput } from './unit-format';
-import { isDistributionName, makeDistribution, valueOf, type Distribution } from './uncertainty/distributions';
-import { DISTRIBUTION_CALL, planUncertainty, type Spread, type UncertaintyEcho, type UncertaintyPlan } from './uncertainty/plan';
+import {
+  assemble,
+  blockResultBytes,
+  ENGINE_VERSION,
+  failed,
+  MAX_RESULTS_BYTES,
+  RESULTS_ENVELOPE_BYTES,
+  RESULTS_FORMAT,
+  type BlockResult,
+  type SheetResults,
+} from './results-document';
+import { DISTRIBUTION_CALL, planUncertainty, type UncertaintyPlan } from './uncertainty/plan';
 import { propagateUncertainty } from './uncertainty/propagate';
 
 export type { Spread, UncertaintyEcho } from './uncertainty/plan';
-
-export const ENGINE_VERSION = '1.0.0';
-/** CONTRACT §3 Limits: the size of a results document (UTF-8 bytes of its JSON). */
-export const MAX_RESULTS_BYTES = 16 * 1024 * 1024;
-/** Room kept for the envelope (format, hash, engine) and the block names as keys. */
-const RESULTS_ENVELOPE_BYTES = 4096;
-
-/** UTF-8 length of a string, without encoding it (the engine is pure: no Buffer). */
-function utf8Length(text: string): number {
-  let bytes = 0;
-  for (let i = 0; i < text.length; i++) {
-    const code = text.charCodeAt(i);
-    if (code < 0x80) bytes += 1;
-    else if (code < 0x800) bytes += 2;
-    else if (code >= 0xd800 && code <= 0xdbff && i + 1 < text.length) {
-      bytes += 4;
-      i++;
-    } else bytes += 3;
-  }
-  return bytes;
-}
-
-/** The bytes a block's entry adds to the results document ("name":{...},). */
-export function blockResultBytes(name: string, result: BlockResult): number {
-  return utf8Length(JSON.stringify(name)) + utf8Length(JSON.stringify(result)) + 2;
-}
-export const RESULTS_FORMAT = 'denudata-results@1';
-
-export type BlockStatus = 'ok' | 'error' | 'blocked';
-
-/** One output in the results: its nominal value, and its spread when it is uncertain (§8.5). */
-export type OutputResult = FormattedOutput & { spread?: Spread };
-
-export interface BlockResult {
-  id: string;
-  type: string;
-  status: BlockStatus;
-  error?: string;
-  warnings: string[];
-  outputs: Record<string, OutputResult>;
-  series?: Record<string, Series>;
-}
-
-export interface SheetResults {
-  format: typeof RESULTS_FORMAT;
-  sheetHash: string;
-  engine: string;
-  /** The uncertainty settings used and the declared distributions (sheets with distributions). */
-  uncertainty?: UncertaintyEcho;
-  blocks: Record<string, BlockResult>;
-}
-
-
-function failed(block: SheetBlock, status: 'error' | 'blocked', error: string, series?: Record<string, Series>): BlockResult {
-  const result: BlockResult = { id: block.id, type: block.type, status, error, warnings: [], outputs: {} };
-  if (series) result.series = series;
-  return result;
-}
-
-/** Evaluation state shared by the blocks of one run. */
-class Run {
-  readonly results = new Map<string, BlockResult>();
-  /** Distributions made in this run, by `<block>\u0000<input>` (uncertain sheets only). */
-  readonly distributions = new Map<string, Distribution>();
-  /** The nominal input values of the blocks downstream of a distribution. */
-  readonly nominalInputs = new Map<string, Map<string, unknown>>();
-
-
-  private readonly scopeObjects = new Map<string, Record<string, unknown>>();
-  /** One scope for every expression of the run, holding only what the current block reads. */
-  private readonly scope = new Map<string, unknown>();
-
-  constructor(
-    private readonly options: RunOptions = {},
-    private readonly uncertain: ReadonlySet<string> = new Set(),
-  ) {}
-
-  /** The values of a block's outputs as expressions see them (rebuilt from the results). */
-  scopeObject(name: string): Record<string, unknown> {
-    let object = this.scopeObjects.get(name);
-    if (!object) {
-      object = {};
-      const outputs = this.results.get(name)!.outputs;
-      for (const output of Object.keys(outputs)) object[output] = valueFromFormatted(outputs[output]!);
-      this.scopeObjects.set(name, object);
-    }
-    return object;
-  }
-
-  evaluateBlock(prepared: PreparedBlock, graph: DependencyGraph): BlockResult {
-    const { block } = prepared;
-    const cycle = graph.cycles.get(block.name);
-    if (cycle) {
-      return failed(block, 'error', cycle.length === 2 ? `block "${block.name}" refers to itself` : `part of a dependency cycle: ${cycle.join(' → ')}`);
-    }
-    if (prepared.problem) return failed(block, 'error', prepared.problem);
-    for (const dependency of prepared.dependencies) {
-      const upstream = this.results.get(dependency)!;
-      if (upstream.status !== 'ok') {
-        const why = upstream.status === 'error' ? 'which has an error' : 'which is itself blocked';
-        return failed(block, 'blocked', `waiting on block "${dependency}", ${why}`);
-      }
-    }
-    const scope = this.scope;
-    scope.clear();
-    for (const reference of prepared.references) {
-      const upstream = this.results.get(reference.block)!;
-      if (!(reference.output in upstream.outputs)) {
-        const message = `${reference.block}.${reference.output} has no value (block "${reference.block}" did not produce it)`;
-        return failed(block, 'error', blockMessage(block.name, message));
-      }
-      if (!scope.has(reference.block)) scope.set(reference.block, this.scopeObject(reference.block));
-    }
-    try {
-      return this.compute(prepared, scope);
-    } catch (error) {
-      const series = error instanceof BlockFailure ? error.series : undefined;
-      return failed(block, 'error', blockMessage(block.name, toSafeMessage(error)), series);
-    } finally {
-      scope.clear();
-    }
-  }
-
-  /** Warnings of block-type functions called in the current block's expressions. */
-  private callWarnings: string[] = [];
-
-  private evaluateInput(prepared: PreparedBlock, name: string, scope: Map<string, unknown>): unknown {
-    const input = prepared.inputs.get(name);
-    if (!input) return undefined;
-    let value: unknown;
-    try {
-      const call = input.checked.distribution;
-      if (call && isDistributionName(call.name)) {
-        // The nominal pass: the distribution at its median (CONTRACT §8.3).
-        const distribution = makeDistribution(call.name, call.args.map((arg) => arg.evaluate(scope)));
-        this.distributions.set(`${prepared.block.name}\u0000${name}`, distribution);
-        value = valueOf(distribution, distribution.median);
-      } else {
-        const collected = collectCallWarnings(() => input.checked.evaluate(scope));
-        for (const warning of collected.warnings) {
-          const text = `${name}: ${warning}`;
-          if (!this.callWarnings.includes(text)) this.callWarnings.push(text);
-        }
-        value = collected.value;
-      }
-    } catch (error) {
-      throw new EngineError(`${name}: ${toSafeMessage(error)}`, { input: name });
-    }
-    this.recordNominal(prepared.block.name, name, value);
-    return value;
-  }
-
-  /** Keeps the nominal input values of blocks downstream of a distribution, for the samples. */
-  private recordNominal(block: string, input: string, value: unknown): void {
-    if (!this.uncertain.has(block)) return;
-    let values = this.nominalInputs.get(block);
-    if (!values) {
-      values = new Map();
-      this.nominalInputs.set(block, values);
-    }
-    values.set(input, value);
-  }
-
-  private compute(prepared: PreparedBlock, scope: Map<string, unknown>): BlockResult {
-    const { block, type } = prepared;
-    const display = block.display;
-    this.callWarnings = [];
-
-    if (type.freeInputs || type.id === 'formula') {
-      const outputs: Record<string, FormattedOutput> = {};
-      const names = type.freeInputs ? Object.keys(block.inputs) : FORMULA_INPUTS;
-      for (const name of names) {
-        const value = this.evaluateInput(prepared, name, scope);
-        if (value === undefined) throw new EngineError(`${name}: the expression is empty`, { input: name });
-        const outputName = type.freeInputs ? name : 'value';
-        try {
-          outputs[outputName] = formatValue(value, display?.[outputName]);
-        } catch (error) {
-          throw new EngineError(`${name}: ${toSafeMessage(error)}`, { input: name });
-        }
-      }
-      return { id: block.id, type: block.type, status: 'ok', warnings: this.callWarnings, outputs };
-    }
-
-    const values: Record<string, unknown> = {};
-    for (const spec of type.inputs) {
-      const sha256 = prepared.data.get(spec.name);
-      values[spec.name] = sha256 !== undefined ? new DatasetReference(sha256) : this.evaluateInput(prepared, spec.name, scope);
-      if (sha256 !== undefined) this.recordNominal(block.name, spec.name, values[spec.name]);
-    }
-    const outcome = runBlockType(type, values, this.options);
-    const outputs: Record<string, FormattedOutput> = {};
-    for (const spec of type.outputs) {
-      const formatted = formatBlockOutput(spec, outcome, display?.[spec.name]);
-      if (formatted) outputs[spec.name] = formatted;
-    }
-    const warnings = this.callWarnings.length > 0 ? [...outcome.warnings, ...this.callWarnings] : outcome.warnings;
-    const result: BlockResult = { id: block.id, type: block.type, status: 'ok', warnings, outputs };
-    if (outcome.series) result.series = outcome.series;
-    return result;
-  }
-}
-
-const FORMULA_INPUTS: readonly string[] = ['expr'];
-
-function assemble(document: SheetDocument, results: Map<string, BlockResult>, sheetHash: string, uncertainty?: UncertaintyEcho): SheetResults {
-  const blocks: Record<string, BlockResult> = {};
-  for (const block of document.blocks) {
-    const result = results.get(block.name);
-    if (result) blocks[block.name] = result;
-  }
-  if (uncertainty) return { format: RESULTS_FORMAT, sheetHash, engine: ENGINE_VERSION, uncertainty, blocks };
-  return { format: RESULTS_FORMAT, sheetHash, engine: ENGINE_VERSION, blocks };
-}
+export { blockResultBytes, ENGINE_VERSION, MAX_RESULTS_BYTES, RESULTS_FORMAT } from './results-document';
+export type { BlockResult, BlockStatus, OutputResult, SheetResults } from './results-document';
 
 /** Options of an evaluation: the datasets data inputs resolve against, and a progress hook. */
 export interface EvaluateOptions extends RunOptions {
