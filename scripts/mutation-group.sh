@@ -61,7 +61,7 @@ case "${1:-}" in
     case "$1" in
       plumbing-units)
         MUTATE="$E/units.ts,$E/engine-units.ts,$E/unit-format.ts,$E/temperature.ts,$E/dataset-units.ts"
-        TESTS="$TE/units.test.ts,$TE/trust/*.test.ts,$TE/dataset-input.test.ts,$TE/expression.test.ts,$TE/document.test.ts,$PR" ;;
+        TESTS="$TE/units.test.ts,$TE/unit-plumbing.test.ts,$TE/trust/*.test.ts,$TE/dataset-input.test.ts,$TE/expression.test.ts,$TE/document.test.ts,$PR" ;;
       plumbing-expression)
         MUTATE="$E/expression.ts,$E/locked-math.ts,$E/expression-language.ts,$E/natural-input.ts,$E/text.ts,$E/text-words.ts,$E/value-size.ts"
         TESTS="$TE/expression.test.ts,$TE/limits.test.ts,$TE/trust/*.test.ts,$TE/document.test.ts,$TE/units.test.ts,$PR" ;;
