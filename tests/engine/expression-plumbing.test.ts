@@ -1,0 +1,336 @@
+import { isMatrix, matrix } from 'mathjs';
+import { describe, expect, it } from 'vitest';
+import { EngineError } from '@/lib/engine/errors';
+import { checkNesting, MAX_NESTING_DEPTH } from '@/lib/engine/expression-language';
+import { explainParseError, rewriteNaturalInput } from '@/lib/engine/natural-input';
+import { findControlCharacter, safeText } from '@/lib/engine/text';
+import { quoteAdvice, textInputWords, withQuoteAdvice } from '@/lib/engine/text-words';
+import {
+  assertElementCount,
+  checkValueSize,
+  countElements,
+  flattenSizes,
+  MAX_MATRIX_ELEMENTS,
+  MAX_STRING_LENGTH,
+  numericArgument,
+  sizeChecked,
+} from '@/lib/engine/value-size';
+
+// The expression language's plumbing on its own, small and fast (no sheet is evaluated). Code points:
+// the Unicode Standard (U+0000–U+001F C0 controls, U+007F DEL, U+0009 tab, U+000A line feed); the caps
+// are CONTRACT §3's; element counts of broadcasts and matrix products follow mathjs's documented
+// semantics (mathjs 15, "Matrices": broadcasting, multiply) and are checked here by counting.
+
+/** The EngineError a call throws (fails the test when it throws nothing or something else). */
+function engineError(call: () => unknown): EngineError {
+  try {
+    call();
+  } catch (error) {
+    expect(error).toBeInstanceOf(EngineError);
+    return error as EngineError;
+  }
+  throw new Error('expected an EngineError, nothing was thrown');
+}
+
+describe('text a user writes (text.ts)', () => {
+  it('should name the first control character as U+XXXX (the Unicode Standard)', () => {
+    expect(findControlCharacter('plain text')).toBeNull();
+    expect(findControlCharacter('a\u0000b')).toBe('U+0000');
+    expect(findControlCharacter('tab\there')).toBe('U+0009');
+    expect(findControlCharacter('x\u001fy\u0001')).toBe('U+001F');
+    expect(findControlCharacter('del\u007f')).toBe('U+007F');
+    expect(findControlCharacter('é ü – °')).toBeNull();
+  });
+
+  it('should keep tab and line feed in text that may span lines, and nothing else', () => {
+    expect(findControlCharacter('one\ttwo\nthree', true)).toBeNull();
+    expect(findControlCharacter('one\r\ntwo', true)).toBe('U+000D');
+    expect(findControlCharacter('a\u000bb', true)).toBe('U+000B');
+    expect(findControlCharacter('a\u0008b', true)).toBe('U+0008');
+    expect(findControlCharacter('a\u007fb', true)).toBe('U+007F');
+    expect(findControlCharacter('line\n', false)).toBe('U+000A');
+  });
+
+  it('should refuse control characters in the zod schema, with the field’s rules chained after it', () => {
+    const title = safeText().trim().min(1).max(20);
+    expect(title.parse('  Ridge A  ')).toBe('Ridge A');
+    const single = title.safeParse('a\nb');
+    expect(single.success).toBe(false);
+    expect(single.error!.issues[0]!.message).toBe('must not contain control characters (found U+000A)');
+    const note = safeText({ multiline: true });
+    expect(note.parse('first\n\tsecond')).toBe('first\n\tsecond');
+    const multi = note.safeParse('bell\u0007');
+    expect(multi.error!.issues[0]!.message).toBe('must not contain control characters (found U+0007; only tab and line feed are allowed)');
+    expect(safeText().safeParse(3).error!.issues[0]!.message).toBe('must be text');
+    expect(safeText({ error: 'a title is text' }).safeParse(null).error!.issues[0]!.message).toBe('a title is text');
+  });
+});
+
+describe('words of the text inputs (text-words.ts)', () => {
+  it('should collect the choices and aliases of every text input, once', () => {
+    const words = textInputWords();
+    for (const word of ['thrust', 'strike_slip', 'normal', 'reverse', 'strike-slip', 'continuous', 'broken', 'fixed', 'zero_flux']) {
+      expect(words.has(word), word).toBe(true);
+    }
+    expect(words.has('granite')).toBe(false);
+    expect(textInputWords()).toBe(words);
+  });
+
+  it('should advise quotes only for a text word (any case) or in a text input', () => {
+    expect(quoteAdvice('thrust')).toBe('; write the word in double quotes, such as "thrust"');
+    expect(quoteAdvice('Thrust')).toBe('; write the word in double quotes, such as "Thrust"');
+    expect(quoteAdvice('granite')).toBe('');
+    expect(quoteAdvice('granite', true)).toBe('; write the word in double quotes, such as "granite"');
+  });
+
+  it('should add the advice to a refusal of a bare word called as a function, and to nothing else', () => {
+    expect(withQuoteAdvice('"broken" can only be called as a function')).toBe(
+      '"broken" can only be called as a function; write the word in double quotes, such as "broken"',
+    );
+    expect(withQuoteAdvice('"granite" can only be called as a function')).toBe('"granite" can only be called as a function');
+    expect(withQuoteAdvice('"granite" can only be called as a function', true)).toBe(
+      '"granite" can only be called as a function; write the word in double quotes, such as "granite"',
+    );
+    expect(withQuoteAdvice('x "broken" can only be called as a function')).toBe('x "broken" can only be called as a function');
+    expect(withQuoteAdvice('unknown name')).toBe('unknown name');
+  });
+});
+
+describe('nesting (checkNesting)', () => {
+  const nested = (depth: number, open = '(', close = ')') => `${open.repeat(depth)}1${close.repeat(depth)}`;
+
+  it('should allow 40 levels of brackets of any kind and refuse 41', () => {
+    expect(MAX_NESTING_DEPTH).toBe(40);
+    expect(() => checkNesting(nested(40))).not.toThrow();
+    expect(engineError(() => checkNesting(nested(41))).message).toBe('the expression is nested more than 40 levels deep');
+    expect(() => checkNesting(nested(41, '[', ']'))).toThrow(EngineError);
+    expect(() => checkNesting(nested(41, '{', '}'))).toThrow(EngineError);
+    expect(() => checkNesting(`${nested(20, '(', ')')}+${nested(20, '[', ']')}+${nested(40, '{', '}')}`)).not.toThrow();
+    // Closing brackets of every kind bring the depth down again.
+    expect(() => checkNesting(`${nested(30)} ${nested(30, '[', ']')} ${nested(30, '{', '}')}`)).not.toThrow();
+    expect(() => checkNesting(`${'('.repeat(21)}${']'.repeat(21)}${'('.repeat(21)}`)).not.toThrow();
+    expect(() => checkNesting(`${'('.repeat(21)}${'}'.repeat(21)}${'['.repeat(21)}`)).not.toThrow();
+  });
+
+  it('should not count brackets inside quoted text, either quote, with escaped quotes', () => {
+    expect(() => checkNesting(`"${'('.repeat(50)}"`)).not.toThrow();
+    expect(() => checkNesting(`'${'['.repeat(50)}'`)).not.toThrow();
+    expect(() => checkNesting(`"a\\"${'('.repeat(50)}"`)).not.toThrow();
+    expect(() => checkNesting(`"a'"${'('.repeat(41)}`)).toThrow(EngineError);
+    expect(() => checkNesting(`'a"'${'('.repeat(41)}`)).toThrow(EngineError);
+    expect(() => checkNesting(`"x"${'('.repeat(41)}`)).toThrow(EngineError);
+  });
+});
+
+describe('natural input (rewriteNaturalInput)', () => {
+  it('should rewrite degrees, powers and "1/unit" after a number, keeping each character’s origin', () => {
+    expect(rewriteNaturalInput('21°')).toEqual({ text: '21 deg', origin: [0, 1, 2, 2, 2, 2] });
+    expect(rewriteNaturalInput('5°C')).toEqual({ text: '5 degC', origin: [0, 1, 1, 1, 1, 1] });
+    expect(rewriteNaturalInput('5°F')).toEqual({ text: '5 degF', origin: [0, 1, 1, 1, 1, 1] });
+    expect(rewriteNaturalInput('m²')).toEqual({ text: 'm^2', origin: [0, 1, 1] });
+    expect(rewriteNaturalInput('m³')).toEqual({ text: 'm^3', origin: [0, 1, 1] });
+    expect(rewriteNaturalInput('2 1/m')).toEqual({ text: '2 /m', origin: [0, 1, 3, 4] });
+    expect(rewriteNaturalInput('2.5e-3  1/ km').text).toBe('2.5e-3  / km');
+    expect(rewriteNaturalInput('.5 1/s').text).toBe('.5 /s');
+  });
+
+  it('should leave "1/" alone where it is not a unit after a number', () => {
+    for (const text of ['1/m', 'x 1/m', 'v2 1/m', '2 1/2', '2 1/(m)', '2 1/', 'a.b 1/m', '21/m']) expect(rewriteNaturalInput(text).text, text).toBe(text);
+    // Only the 60 characters before the 1 are read.
+    expect(rewriteNaturalInput(`2${' '.repeat(60)}1/m`).text).toBe(`2${' '.repeat(60)}1/m`);
+    expect(rewriteNaturalInput(`2${' '.repeat(58)}1/m`).text).toBe(`2${' '.repeat(58)}/m`);
+  });
+
+  it('should leave quoted text alone, either quote, with escapes', () => {
+    expect(rewriteNaturalInput('"21° m² 2 1/m"').text).toBe('"21° m² 2 1/m"');
+    expect(rewriteNaturalInput("'5°C' 5°C").text).toBe("'5°C' 5 degC");
+    expect(rewriteNaturalInput('"a\\"²" m²')).toEqual({ text: '"a\\"²" m^2', origin: [0, 1, 2, 3, 4, 5, 6, 7, 8, 8] });
+    expect(rewriteNaturalInput('"a\'b" m²').text).toBe('"a\'b" m^2');
+    expect(rewriteNaturalInput('"x\\').text).toBe('"x\\');
+  });
+
+  it('should refuse ± and +- at their position, and keep + and - apart', () => {
+    expect(engineError(() => rewriteNaturalInput('3 ± 1')).position).toBe(2);
+    const plusMinus = engineError(() => rewriteNaturalInput('3 m +- 1 m'));
+    expect(plusMinus.position).toBe(4);
+    expect(plusMinus.message).toBe(
+      'an uncertainty is not written with ± or +-: make the whole input a distribution, such as normal(1.1 m^2/kyr, 0.3 m^2/kyr) or lognormal(1.1 m^2/kyr, 1.5)',
+    );
+    expect(rewriteNaturalInput('3 + -1').text).toBe('3 + -1');
+    expect(rewriteNaturalInput('3 -+ 1').text).toBe('3 -+ 1');
+    expect(rewriteNaturalInput('"3 +- 1"').text).toBe('"3 +- 1"');
+  });
+});
+
+describe('parser messages in plain words (explainParseError)', () => {
+  const explain = (raw: string, source: string) => explainParseError(new Error(raw), source, rewriteNaturalInput(source));
+
+  it('should put each known parser message in words, with the position in the text as typed', () => {
+    const cases: Array<[string, string, string, number | undefined]> = [
+      ['Unexpected end of expression (char 4)', '3 + ', 'the expression ends too early: a value or a closing parenthesis is missing (at character 4)', 3],
+      ['Parenthesis ) expected (char 3)', '(3 ', 'a closing parenthesis ")" is missing (at character 3)', 2],
+      ['Parenthesis ] expected (char 3)', '[3 ', 'a closing bracket "]" is missing (at character 3)', 2],
+      ['Value expected (char 3)', '3 *', 'a value is missing here (at character 3)', 2],
+      ['Unexpected operator * (char 1)', '* 3', 'the operator "*" has no value on one side (at character 1)', 0],
+      ['Unexpected part "x" (char 3)', '3 x', '"x" cannot follow what comes before it (a value and its unit go together as 2 m; put an operator between two values) (at character 3)', 2],
+      ['Syntax error in part "@" (char 5)', '3 m @ 2', '"@" is not part of the expression language (at character 5)', 4],
+      ['Unterminated string (char 1)', '"abc', 'a text in double quotes is not closed (at character 1)', 0],
+      ['Invalid number (char 1)', '1e', 'invalid number (char 1) (at character 1)', 0],
+      ['Something new (char 2)\nsecond line', 'ab', 'Something new (at character 2)', 1],
+      ['No position given', 'ab', 'No position given', undefined],
+    ];
+    for (const [raw, source, words, position] of cases) {
+      const error = explain(raw, source);
+      expect(error.message, raw).toBe(`the expression does not parse: ${words}`);
+      expect(error.position, raw).toBe(position);
+    }
+  });
+
+  it('should map positions back through rewrites, and past the end to the end of the text', () => {
+    // "21° @" is read as "21 deg @": the @ at index 7 of the rewritten text is index 4 as typed.
+    expect(explain('Syntax error in part "@" (char 8)', '21° @').position).toBe(4);
+    expect(explain('Unexpected end of expression (char 40)', '21°').position).toBe(3);
+    expect(explain('Value expected (char 0)', '3 *').position).toBe(0);
+    expect(explainParseError('Value expected (char 2)', '3*', rewriteNaturalInput('3*')).message).toBe(
+      'the expression does not parse: a value is missing here (at character 2)',
+    );
+  });
+
+  it('should explain a decimal comma, quoting the number as typed', () => {
+    const comma = explain('Unexpected operator , (char 2)', '2,4 m');
+    expect(comma.message).toBe(
+      'the expression does not parse: decimal comma in "2,4": use a decimal point (2.4); a comma only separates the inputs of a function',
+    );
+    expect(comma.position).toBe(1);
+    const long = explain('Unexpected part "5" (char 8)', 'x + 12.3,5 m');
+    expect(long.message).toContain('decimal comma in "12.3,5": use a decimal point (12.3.5)');
+    expect(long.position).toBe(8);
+    expect(explain('Parenthesis ) expected (char 9)', 'f(1,2').message).toContain('decimal comma in "1,2"');
+    expect(explain('Value expected (char 4)', '3,5 +').message).toContain('decimal comma');
+    expect(explain('Unexpected end of expression (char 4)', '3,5 +').message).toContain('decimal comma');
+    // A comma between numbers with another parser fault is not taken for a decimal comma.
+    expect(explain('Unterminated string (char 5)', 'f(1,2, "').message).toBe('the expression does not parse: a text in double quotes is not closed (at character 5)');
+    expect(explain('Unexpected part "x" (char 3)', '1, x').message).not.toContain('decimal comma');
+  });
+});
+
+describe('size caps (value-size.ts, CONTRACT §3)', () => {
+  it('should read sizes as plain numbers (true is 1, false 0), skipping a storage format', () => {
+    expect(numericArgument('ones', 3)).toBe(3);
+    expect(numericArgument('ones', true)).toBe(1);
+    expect(numericArgument('ones', false)).toBe(0);
+    expect(engineError(() => numericArgument('zeros', '3')).message).toBe('zeros: expects plain numbers for sizes');
+    expect(flattenSizes('ones', [2, [3, [4]], 'dense', matrix([5, 6]), true])).toEqual([2, 3, 4, 5, 6, 1]);
+    expect(engineError(() => flattenSizes('ones', [[2, 'x']])).message).toBe('ones: expects plain numbers for sizes');
+    expect(engineError(() => flattenSizes('ones', [matrix([[1]]), {}])).message).toBe('ones: expects plain numbers for sizes');
+  });
+
+  it('should allow 100 000 elements and refuse more, or a count that is not finite', () => {
+    expect(MAX_MATRIX_ELEMENTS).toBe(100_000);
+    expect(() => assertElementCount('ones', 100_000)).not.toThrow();
+    expect(engineError(() => assertElementCount('ones', 100_001)).message).toBe('ones: a matrix may hold at most 100000 elements (asked for 100001)');
+    expect(engineError(() => assertElementCount('zeros', Infinity)).message).toBe('zeros: a matrix may hold at most 100000 elements (asked for too many)');
+    expect(engineError(() => assertElementCount('zeros', NaN)).message).toBe('zeros: a matrix may hold at most 100000 elements (asked for too many)');
+  });
+
+  it('should check a value’s string length and element count', () => {
+    expect(MAX_STRING_LENGTH).toBe(1000);
+    expect(() => checkValueSize('concat', 'x'.repeat(1000))).not.toThrow();
+    expect(engineError(() => checkValueSize('concat', 'x'.repeat(1001))).message).toBe(
+      'concat: the text would be 1001 characters long, over the limit of 1000 characters in a string value',
+    );
+    expect(() => checkValueSize('ones', new Array(100_000).fill(0))).not.toThrow();
+    expect(engineError(() => checkValueSize('ones', new Array(100_001).fill(0))).message).toBe(
+      'ones: the result would hold 100001 elements, over the limit of 100000 elements in a matrix value',
+    );
+    // Nested arrays are counted element by element (ragged ones too).
+    expect(engineError(() => checkValueSize('x', [new Array(60_000).fill(0), [new Array(40_001).fill(1)]])).message).toContain('100001 elements');
+    expect(() => checkValueSize('x', [new Array(60_000).fill(0), [new Array(40_000).fill(1)]])).not.toThrow();
+    expect(engineError(() => checkValueSize('x', matrix(new Array(100_001).fill(0)))).message).toContain('100001 elements');
+    expect(() => checkValueSize('x', 5)).not.toThrow();
+  });
+
+  it('should count elements of arrays and matrices', () => {
+    expect(countElements([[1, 2], [3, [4, 5]]])).toBe(5);
+    expect(countElements(matrix([[1, 2, 3], [4, 5, 6]]))).toBe(6);
+    expect(countElements(7)).toBe(1);
+    expect(countElements([])).toBe(0);
+  });
+
+  const counting = () => {
+    const calls: unknown[][] = [];
+    const fn = (...args: unknown[]) => {
+      calls.push(args);
+      return 'done';
+    };
+    return { calls, fn };
+  };
+  const shape = (rows: number, columns?: number) => ({ size: () => (columns === undefined ? [rows] : [rows, columns]) });
+  // shapeOf reads mathjs matrices (isMatrix) and nested arrays; a stand-in with size() is not a matrix.
+  const ones = (rows: number, columns?: number) => matrix(columns === undefined ? new Array(rows).fill(1) : new Array(rows).fill(0).map(() => new Array(columns).fill(1)));
+
+  it('should refuse before the call a product or broadcast whose element count is over the cap', () => {
+    expect(isMatrix(shape(2))).toBe(false);
+    const refusals: Array<[string, unknown[], number]> = [
+      ['multiply', [ones(400, 1), ones(1, 400)], 160_000],
+      ['multiply', [2, ones(400, 1), ones(1, 400)], 160_000],
+      ['multiply', [ones(400, 1), 3, ones(1, 400)], 160_000],
+      ['add', [ones(400, 1), ones(1, 400)], 160_000],
+      ['add', [ones(400, 1), [[1, 1, 1, 1]].map(() => new Array(400).fill(1))], 160_000],
+      // Shapes of different rank line up at their last dimension: [300, 1] and [400] broadcast to [300, 400].
+      ['add', [ones(300, 1), ones(400)], 120_000],
+      ['add', [ones(400), ones(300, 1)], 120_000],
+      ['dotMultiply', [ones(1, 400), ones(400, 1), 5], 160_000],
+      ['concat', [ones(60_000), ones(40_001)], 100_001],
+      ['concat', [new Array(60_000).fill(1), ones(40_001)], 100_001],
+    ];
+    for (const [name, args, count] of refusals) {
+      const { calls, fn } = counting();
+      const error = engineError(() => sizeChecked(name, fn)(...args));
+      expect(error.message, name).toBe(`${name}: the result would hold ${count} elements, over the limit of 100000 elements in a matrix value`);
+      expect(calls, name).toHaveLength(0);
+    }
+  });
+
+  it('should call through when the predicted count is within the cap or cannot be predicted', () => {
+    const allowed: Array<[string, unknown[]]> = [
+      ['multiply', [ones(300, 1), ones(1, 300)]],
+      ['multiply', [ones(1000), ones(1000)]],
+      ['multiply', [ones(1, 1000), ones(1000, 1)]],
+      ['multiply', [ones(400, 2), ones(2)]],
+      ['multiply', [ones(2), ones(2, 400)]],
+      // Shapes mathjs refuses itself (a 3-D operand) are left to mathjs.
+      ['multiply', [ones(400, 1), [[[1]]], ones(1, 400)]],
+      ['multiply', [2, 3]],
+      ['add', [ones(400, 1), 1]],
+      ['add', [ones(300, 1), ones(1, 300)]],
+      ['concat', [ones(50_000), ones(50_000)]],
+      ['concat', ['x', 'y']],
+    ];
+    for (const [name, args] of allowed) {
+      const { calls, fn } = counting();
+      expect(sizeChecked(name, fn)(...args), name).toBe('done');
+      expect(calls, name).toHaveLength(1);
+    }
+  });
+
+  it('should check every result after the call, and only the result of a lazily evaluated operator', () => {
+    const long = sizeChecked('concat', () => 'x'.repeat(1001));
+    expect(engineError(() => long()).message).toBe('concat: the text would be 1001 characters long, over the limit of 1000 characters in a string value');
+    const big = sizeChecked('range', () => new Array(100_001).fill(0));
+    expect(engineError(() => big()).message).toContain('range: the result would hold 100001 elements');
+    const seen: unknown[][] = [];
+    const lazy = Object.assign((...args: unknown[]) => {
+      seen.push(args);
+      return args.length;
+    }, { rawArgs: true });
+    const checkedLazy = sizeChecked('or', lazy);
+    expect(checkedLazy.rawArgs).toBe(true);
+    // Arguments of a lazy operator are parse nodes: never measured before the call.
+    expect(checkedLazy(ones(400, 1), ones(1, 400))).toBe(2);
+    expect(seen).toHaveLength(1);
+    const lazyLong = sizeChecked('or', Object.assign(() => 'y'.repeat(1001), { rawArgs: true }));
+    expect(engineError(() => lazyLong()).message).toContain('or: the text would be 1001 characters long');
+    expect(sizeChecked('add', (a: unknown) => a).rawArgs).toBeUndefined();
+  });
+});
