@@ -54,7 +54,7 @@ case "${1:-}" in
     # The other part: expressions compiled to functions on SI floats for the samples.
     MUTATE="lib/engine/uncertainty/numeric.ts"
     TESTS="tests/engine/uncertainty/numeric.test.ts,tests/engine/uncertainty/reference-cases.test.ts,tests/engine/uncertainty/stream.test.ts" ;;
-  plumbing-units|plumbing-expression|plumbing-expression-a|plumbing-expression-b|plumbing-evaluate)
+  plumbing-units|plumbing-expression|plumbing-expression-a|plumbing-expression-b|plumbing-evaluate|plumbing-evaluate-a|plumbing-evaluate-b|plumbing-evaluate-c)
     # The engine's plumbing (units, the expression language, evaluation), each part with its fast unit tests
     # (the 10,000-expression fuzz test is left out: it takes seconds even uninstrumented).
     E=lib/engine; TE=tests/engine; PR="tests/engine/published-checks.test.ts,tests/engine/registry.test.ts"
@@ -77,6 +77,18 @@ case "${1:-}" in
       plumbing-evaluate)
         MUTATE="$E/evaluate.ts,$E/results-document.ts,$E/block-evaluation.ts,$E/prepare.ts,$E/block-run.ts,$E/graph.ts,$E/document.ts,$E/canonical-json.ts,$E/cost.ts,$E/errors.ts,$E/dataset-input.ts,$E/dataset.ts,$E/typical-ranges.ts,$E/registry.ts,$E/block-type.ts,$E/index.ts"
         TESTS="$TE/document.test.ts,$TE/graph.test.ts,$TE/incremental.test.ts,$TE/limits.test.ts,$TE/canonical-json.test.ts,$TE/cost.test.ts,$TE/dataset-input.test.ts,$TE/demo-sheets.test.ts,$TE/trust/*.test.ts,$TE/expression.test.ts,$PR" ;;
+      # Its parts: -a the document, graph, canonical JSON, errors and dataset references (their own fast tests);
+      # -b the evaluation itself (evaluate, prepare, block-run, the public entry points); -c the registry, block-type
+      # helpers, typical ranges and the cost estimate.
+      plumbing-evaluate-a)
+        MUTATE="$E/document.ts,$E/graph.ts,$E/canonical-json.ts,$E/errors.ts,$E/dataset.ts,$E/dataset-input.ts"
+        TESTS="$TE/document.test.ts,$TE/graph.test.ts,$TE/canonical-json.test.ts,$TE/dataset-input.test.ts,$TE/evaluate-plumbing.test.ts" ;;
+      plumbing-evaluate-b)
+        MUTATE="$E/evaluate.ts,$E/prepare.ts,$E/block-run.ts,$E/index.ts"
+        TESTS="$TE/document.test.ts,$TE/graph.test.ts,$TE/incremental.test.ts,$TE/limits.test.ts,$TE/dataset-input.test.ts,$TE/demo-sheets.test.ts,$TE/trust/*.test.ts,$TE/expression.test.ts,$TE/evaluate-plumbing.test.ts,$PR" ;;
+      plumbing-evaluate-c)
+        MUTATE="$E/cost.ts,$E/typical-ranges.ts,$E/registry.ts,$E/block-type.ts"
+        TESTS="$TE/cost.test.ts,$TE/trust/plausibility.test.ts,$TE/evaluate-plumbing.test.ts,$PR" ;;
     esac ;;
   uncertainty-pass|uncertainty-pass-propagate|uncertainty-pass-sampling|uncertainty-pass-spread)
     # The pass itself (plan, sampling, spreads, the stream), with the fast tests written for it (a few ms each:
@@ -110,7 +122,7 @@ case "${1:-}" in
       solver-erf-fit-b) MUTATE="$N/erf-fit.ts:221-343"; TESTS="$TN/erf-fit.test.ts" ;;
       solver-diffusion) MUTATE="$N/diffusion-1d.ts"; TESTS="$TN/diffusion-1d.test.ts" ;;
     esac ;;
-  *) echo "usage: $0 first-release|scarp-channel|tectonic|orogen-nuclide|geotherm-strength|flexure-closure|data|data-channel|data-scarp-fit|data-profile|uncertainty|uncertainty-statistics|uncertainty-distributions|uncertainty-numeric|plumbing-units|plumbing-expression|plumbing-expression-a|plumbing-expression-b|plumbing-evaluate|uncertainty-pass|uncertainty-pass-propagate|uncertainty-pass-sampling|uncertainty-pass-spread|solver-erf|solver-erf-fit|solver-erf-fit-a|solver-erf-fit-p|solver-erf-fit-b|solver-diffusion" >&2; exit 2 ;;
+  *) echo "usage: $0 first-release|scarp-channel|tectonic|orogen-nuclide|geotherm-strength|flexure-closure|data|data-channel|data-scarp-fit|data-profile|uncertainty|uncertainty-statistics|uncertainty-distributions|uncertainty-numeric|plumbing-units|plumbing-expression|plumbing-expression-a|plumbing-expression-b|plumbing-evaluate|plumbing-evaluate-a|plumbing-evaluate-b|plumbing-evaluate-c|uncertainty-pass|uncertainty-pass-propagate|uncertainty-pass-sampling|uncertainty-pass-spread|solver-erf|solver-erf-fit|solver-erf-fit-a|solver-erf-fit-p|solver-erf-fit-b|solver-diffusion" >&2; exit 2 ;;
 esac
 export DENUDATA_MUTATION_TESTS="$TESTS" DENUDATA_MUTATION_REPORT="$1"
 exec nice -n 15 npx stryker run --incremental --mutate "$MUTATE" ${@:2}

@@ -1,0 +1,263 @@
+import canonicalize from 'canonicalize';
+import { createHash } from 'node:crypto';
+import { describe, expect, it } from 'vitest';
+import { canonicalJson, canonicalString } from '@/lib/engine/canonical-json';
+import { canonicalDatasetJson, hashDataset, SHA256_PATTERN, type DatasetCanonical } from '@/lib/engine/dataset';
+import { EngineError, InputError, toSafeMessage } from '@/lib/engine/errors';
+import { buildDependencyGraph, downstreamOf, type GraphNode } from '@/lib/engine/graph';
+
+// The evaluation's plumbing on its own, small and fast. References: the canonicalize package (RFC 8785,
+// JSON Canonicalization Scheme) for canonical JSON; Node's crypto (FIPS 180-4 SHA-256) for hashes; for the
+// dependency graph, the definitions themselves, checked by brute force on random graphs (a block is in a
+// cycle exactly when it can reach itself; a cycle path is a shortest walk back to the block; every
+// dependency outside a block's cycle comes before it; Tarjan 1972 for the algorithm).
+
+describe('engine errors (errors.ts)', () => {
+  it('should carry the details it was given, invalid by default', () => {
+    const plain = new EngineError('bad');
+    expect(plain.message).toBe('bad');
+    expect(plain.name).toBe('EngineError');
+    expect(plain.code).toBe('invalid');
+    expect(plain.position).toBeUndefined();
+    const full = new EngineError('over', { code: 'limit_exceeded', block: 'b1', input: 'x', expected: 'a length', given: '3 s', position: 0 });
+    expect([full.code, full.block, full.input, full.expected, full.given, full.position]).toEqual(['limit_exceeded', 'b1', 'x', 'a length', '3 s', 0]);
+    expect(full).toBeInstanceOf(Error);
+  });
+
+  it('should prefix an input error with its input and keep the other details', () => {
+    const error = new InputError('diffusivity', 'expected an area per time', { expected: 'L^2/T', code: 'invalid' });
+    expect(error.message).toBe('diffusivity: expected an area per time');
+    expect(error.name).toBe('InputError');
+    expect(error.input).toBe('diffusivity');
+    expect(error.expected).toBe('L^2/T');
+    expect(error).toBeInstanceOf(EngineError);
+    expect(new InputError('k', 'no').code).toBe('invalid');
+  });
+
+  it('should turn anything thrown into a short, safe message', () => {
+    expect(toSafeMessage(new EngineError('an engine message'))).toBe('an engine message');
+    expect(toSafeMessage(new RangeError('Maximum call stack size exceeded'))).toBe('the expression is nested too deeply');
+    expect(toSafeMessage(new RangeError('Invalid array length'))).toBe('Invalid array length');
+    expect(toSafeMessage(new TypeError('Unexpected type of argument in function to (expected: Unit, actual: number, index: 0)'))).toBe(
+      'to converts a value that has a unit, and the value before it is a plain number (atan, asin and acos give radians as plain numbers: write (atan(x) rad) to deg)',
+    );
+    expect(toSafeMessage(new TypeError('Unexpected type of argument in function sqrt (expected: number or Unit, actual: string, index: 0)'))).toBe(
+      'sqrt: input 1 should be number or Unit, not string',
+    );
+    expect(toSafeMessage(new TypeError('Unexpected type of argument in function add (expected: number, index: 1)'))).toBe('add: input 2 should be number');
+    expect(toSafeMessage(new Error('first line\nsecond line'))).toBe('first line');
+    expect(toSafeMessage(new Error('  padded  '))).toBe('padded');
+    expect(toSafeMessage(new Error('x'.repeat(400)))).toBe('x'.repeat(300));
+    expect(toSafeMessage(new Error(''))).toBe('the expression could not be evaluated');
+    expect(toSafeMessage(new Error('\nafter an empty line'))).toBe('the expression could not be evaluated');
+    expect(toSafeMessage('a string')).toBe('the expression could not be evaluated');
+    expect(toSafeMessage(undefined)).toBe('the expression could not be evaluated');
+  });
+});
+
+/** A small deterministic generator (a linear congruential generator, Numerical Recipes constants). */
+function generator(seed: number): () => number {
+  let state = seed >>> 0;
+  return () => {
+    state = (Math.imul(state, 1664525) + 1013904223) >>> 0;
+    return state / 2 ** 32;
+  };
+}
+
+function randomGraph(seed: number, size: number): GraphNode[] {
+  const random = generator(seed);
+  const names = Array.from({ length: size }, (_, i) => `b${i}`);
+  return names.map((name) => {
+    const dependencies = new Set<string>();
+    const count = Math.floor(random() * 3);
+    for (let k = 0; k < count; k++) dependencies.add(random() < 0.1 ? `missing${k}` : names[Math.floor(random() * size)]!);
+    return { name, dependencies: [...dependencies] };
+  });
+}
+
+/** Shortest number of steps from `from` to `to` over existing blocks (breadth-first), or Infinity. */
+function distance(nodes: GraphNode[], from: string, to: string): number {
+  const deps = new Map(nodes.map((n) => [n.name, n.dependencies]));
+  let frontier = [from];
+  const seen = new Set<string>();
+  for (let steps = 1; frontier.length > 0; steps++) {
+    const next: string[] = [];
+    for (const name of frontier) {
+      for (const dep of deps.get(name) ?? []) {
+        if (!deps.has(dep)) continue;
+        if (dep === to) return steps;
+        if (!seen.has(dep)) {
+          seen.add(dep);
+          next.push(dep);
+        }
+      }
+    }
+    frontier = next;
+  }
+  return Infinity;
+}
+
+describe('dependency graph (graph.ts)', () => {
+  it('should agree with the definitions on random graphs: cycles, shortest cycle paths, order, dependents', () => {
+    let withCycles = 0;
+    for (let seed = 1; seed <= 20; seed++) {
+      const nodes = randomGraph(seed, 10);
+      const graph = buildDependencyGraph(nodes);
+      if (graph.cycles.size > 0) withCycles += 1;
+      const names = nodes.map((n) => n.name);
+      expect([...graph.order].sort(), `seed ${seed}`).toEqual([...names].sort());
+      const position = new Map(graph.order.map((name, i) => [name, i]));
+      for (const node of nodes) {
+        const loop = distance(nodes, node.name, node.name);
+        expect(graph.cycles.has(node.name), `seed ${seed} ${node.name}`).toBe(loop !== Infinity);
+        const path = graph.cycles.get(node.name);
+        if (path) {
+          expect(path[0]).toBe(node.name);
+          expect(path[path.length - 1]).toBe(node.name);
+          expect(path.length - 1, `seed ${seed} ${node.name}: ${path.join(' → ')}`).toBe(loop);
+          for (let i = 0; i + 1 < path.length; i++) expect(nodes.find((n) => n.name === path[i])!.dependencies).toContain(path[i + 1]);
+        }
+        for (const dep of node.dependencies) {
+          if (!names.includes(dep)) {
+            expect(graph.dependents.has(dep)).toBe(false);
+            continue;
+          }
+          expect(graph.dependents.get(dep), `seed ${seed}`).toContain(node.name);
+          const sameCycle = distance(nodes, dep, node.name) !== Infinity;
+          if (!sameCycle) expect(position.get(dep)!, `seed ${seed}: ${dep} before ${node.name}`).toBeLessThan(position.get(node.name)!);
+        }
+        expect(graph.dependencies.get(node.name)).toBe(node.dependencies);
+        // Every block downstream is one that reaches this one.
+        const downstream = downstreamOf(graph, [node.name]);
+        for (const other of names) expect(downstream.has(other), `seed ${seed}: ${other} downstream of ${node.name}`).toBe(distance(nodes, other, node.name) !== Infinity);
+      }
+    }
+    // The sample holds graphs with and without cycles.
+    expect(withCycles).toBeGreaterThan(3);
+    expect(withCycles).toBeLessThan(20);
+  });
+
+  it('should keep document order among independent blocks and put a cycle where it closes', () => {
+    const graph = buildDependencyGraph([
+      { name: 'x', dependencies: [] },
+      { name: 'w', dependencies: ['v'] },
+      { name: 'v', dependencies: [] },
+      { name: 'p', dependencies: ['q'] },
+      { name: 'q', dependencies: ['p', 'x'] },
+    ]);
+    // The members of a cycle come in the order they were reached, after what the cycle reads.
+    expect(graph.order).toEqual(['x', 'v', 'w', 'p', 'q']);
+    expect(graph.cycles.get('p')).toEqual(['p', 'q', 'p']);
+    expect(graph.cycles.get('q')).toEqual(['q', 'p', 'q']);
+    expect(graph.dependents.get('x')).toEqual(['q']);
+    expect(graph.dependents.get('p')).toEqual(['q']);
+    expect(graph.dependents.get('w')).toEqual([]);
+  });
+
+  it('should find the shortest way back in a cycle with a chord, and a self reference inside a larger cycle', () => {
+    const graph = buildDependencyGraph([
+      { name: 'a', dependencies: ['b'] },
+      { name: 'b', dependencies: ['c', 'b'] },
+      { name: 'c', dependencies: ['d', 'a'] },
+      { name: 'd', dependencies: ['a'] },
+    ]);
+    expect(graph.cycles.get('a')).toEqual(['a', 'b', 'c', 'a']);
+    expect(graph.cycles.get('b')).toEqual(['b', 'b']);
+    expect(graph.cycles.get('d')).toEqual(['d', 'a', 'b', 'c', 'd']);
+  });
+
+  it('should find what is downstream of several blocks, not the blocks themselves unless reachable', () => {
+    const graph = buildDependencyGraph([
+      { name: 'a', dependencies: [] },
+      { name: 'b', dependencies: ['a'] },
+      { name: 'c', dependencies: ['b'] },
+      { name: 'd', dependencies: [] },
+      { name: 'e', dependencies: ['d', 'c'] },
+      { name: 'f', dependencies: ['f'] },
+    ]);
+    expect([...downstreamOf(graph, ['a'])].sort()).toEqual(['b', 'c', 'e']);
+    expect([...downstreamOf(graph, ['d', 'b'])].sort()).toEqual(['c', 'e']);
+    expect([...downstreamOf(graph, ['f'])]).toEqual(['f']);
+    expect([...downstreamOf(graph, ['unknown'])]).toEqual([]);
+  });
+});
+
+describe('canonical JSON (canonical-json.ts, RFC 8785; the canonicalize package as reference)', () => {
+  it('should write what the package writes for edge cases of arrays, objects and toJSON', () => {
+    const shared = { k: [1, 2] };
+    const samples: unknown[] = [
+      null,
+      true,
+      false,
+      0,
+      -0,
+      1e21,
+      5e-324,
+      '',
+      'é\u2028\ud83d\ude00',
+      [],
+      {},
+      [undefined, () => 1, Symbol('s'), null],
+      { u: undefined, f: () => 1, s: Symbol('s'), n: null, b: false },
+      { z: 1, y: { x: [shared, shared] }, '\u00e9': 2, '\ud83d\ude00': 3, '\ufb33': 4, A: 5 },
+      { when: new Date(Date.UTC(2026, 0, 2)) },
+      { custom: { toJSON: () => ({ b: 2, a: 1 }) } },
+      [{ toJSON: () => 'text' }],
+    ];
+    for (const sample of samples) expect(canonicalJson(sample)).toBe(canonicalize(sample));
+  });
+
+  it('should refuse NaN, Infinity, cycles and lone surrogates, naming which', () => {
+    expect(() => canonicalJson({ a: NaN })).toThrow('NaN is not allowed');
+    expect(() => canonicalJson([Infinity])).toThrow('Infinity is not allowed');
+    expect(() => canonicalJson([-Infinity])).toThrow('Infinity is not allowed');
+    const cycle: Record<string, unknown> = { a: 1 };
+    cycle.self = { back: cycle };
+    expect(() => canonicalJson(cycle)).toThrow('Circular reference detected');
+    const list: unknown[] = [];
+    list.push(list);
+    expect(() => canonicalJson(list)).toThrow('Circular reference detected');
+    for (const text of ['\ud800', 'a\udc00b', '\ud83d', '\ud83dx']) {
+      expect(() => canonicalString(text)).toThrow('Lone surrogate is not allowed');
+      expect(() => canonicalJson({ [text]: 1 })).toThrow('Lone surrogate is not allowed');
+    }
+    expect(canonicalString('\ud83d\ude00')).toBe('"\ud83d\ude00"');
+    expect(canonicalString('tab\there')).toBe('"tab\\there"');
+  });
+
+  it('should let the same object appear twice when it is not its own ancestor', () => {
+    const leaf = { v: 1 };
+    expect(canonicalJson({ b: leaf, a: leaf })).toBe('{"a":{"v":1},"b":{"v":1}}');
+    const seen = new Set<object>();
+    canonicalJson({ x: [leaf] }, seen);
+    expect(seen.size).toBe(0);
+  });
+});
+
+describe('datasets (dataset.ts, CONTRACT §7.4)', () => {
+  it('should hash the RFC 8785 text of a canonical dataset with SHA-256 (FIPS 180-4, Node crypto)', () => {
+    const dataset: DatasetCanonical = {
+      kind: 'slope_profile',
+      format: 'denudata-dataset@1',
+      rows: [[0, 10.5, 0.2], [5, 9.25, 0.2]],
+      columns: [{ name: 'distance', unit: 'm' }, { name: 'elevation', unit: 'm' }, { name: 'elevation_sd', unit: 'm' }],
+    };
+    const text = canonicalize(dataset)!;
+    expect(canonicalDatasetJson(dataset)).toBe(text);
+    expect(text.startsWith('{"columns":[{"name":"distance","unit":"m"}')).toBe(true);
+    const hash = hashDataset(dataset);
+    expect(hash).toBe(createHash('sha256').update(Buffer.from(text, 'utf8')).digest('hex'));
+    expect(hash).toMatch(SHA256_PATTERN);
+    expect(hashDataset({ ...dataset, rows: [[0, 10.5, 0.2], [5, 9.25, 0.21]] })).not.toBe(hash);
+    // UTF-8 bytes, not UTF-16: a unit with a non-ASCII character hashes its UTF-8 encoding.
+    const micro = { ...dataset, columns: dataset.columns.map((c) => ({ ...c, unit: 'µm' })) };
+    expect(hashDataset(micro)).toBe(createHash('sha256').update(Buffer.from(canonicalize(micro)!, 'utf8')).digest('hex'));
+  });
+
+  it('should recognise a lowercase hex SHA-256 and nothing else', () => {
+    expect(SHA256_PATTERN.test('a'.repeat(64))).toBe(true);
+    expect(SHA256_PATTERN.test('A'.repeat(64))).toBe(false);
+    expect(SHA256_PATTERN.test('a'.repeat(63))).toBe(false);
+    expect(SHA256_PATTERN.test(`x${'a'.repeat(64)}`)).toBe(false);
+  });
+});
