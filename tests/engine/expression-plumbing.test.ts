@@ -1,6 +1,7 @@
 import { isMatrix, matrix } from 'mathjs';
 import { describe, expect, it } from 'vitest';
 import { EngineError } from '@/lib/engine/errors';
+import { checkExpression, math, reservedNameReason } from '@/lib/engine/expression';
 import { checkNesting, MAX_NESTING_DEPTH } from '@/lib/engine/expression-language';
 import { explainParseError, rewriteNaturalInput } from '@/lib/engine/natural-input';
 import { findControlCharacter, safeText } from '@/lib/engine/text';
@@ -332,5 +333,131 @@ describe('size caps (value-size.ts, CONTRACT §3)', () => {
     const lazyLong = sizeChecked('or', Object.assign(() => 'y'.repeat(1001), { rawArgs: true }));
     expect(engineError(() => lazyLong()).message).toContain('or: the text would be 1001 characters long');
     expect(sizeChecked('add', (a: unknown) => a).rawArgs).toBeUndefined();
+  });
+});
+
+describe('the locked instance and the expression checks (expression.ts)', () => {
+  /** The size of what an expression evaluates to, or its value. */
+  const run = (text: string): unknown => {
+    const value = checkExpression(text).evaluate(new Map());
+    return math.isMatrix(value) ? (value as { size(): number[] }).size() : value;
+  };
+  const refusal = (text: string): string => engineError(() => run(text)).message;
+
+  it('should bound the constructors before they allocate, at exactly 100 000 elements (CONTRACT §3)', () => {
+    expect(run('ones(100000)')).toEqual([100_000]);
+    expect(refusal('ones(100001)')).toBe('ones: a matrix may hold at most 100000 elements (asked for 100001)');
+    expect(run('zeros(400, 250)')).toEqual([400, 250]);
+    expect(refusal('zeros(400, 251)')).toBe('zeros: a matrix may hold at most 100000 elements (asked for 100400)');
+    expect(refusal('ones([400, 251])')).toBe('ones: a matrix may hold at most 100000 elements (asked for 100400)');
+    expect(run('identity(316)')).toEqual([316, 316]);
+    expect(refusal('identity(317)')).toBe('identity: a matrix may hold at most 100000 elements (asked for 100489)');
+    expect(run('identity(2, 3)')).toEqual([2, 3]);
+    expect(refusal('identity(100, 1001)')).toBe('identity: a matrix may hold at most 100000 elements (asked for 100100)');
+    // A negative size counts as none (mathjs then refuses it in its own words).
+    expect(() => run('ones(-400, -400)')).toThrow(/positive integers/);
+    expect(() => run('zeros(-400, -400)')).toThrow(/positive integers/);
+    expect(() => run('identity(-400, -400)')).toThrow(/positive integers/);
+    expect(run('matrix([[1, 2], [3, 4]])')).toEqual([2, 2]);
+  });
+
+  it('should bound ranges by their count, refusing a zero step and anything but plain numbers', () => {
+    expect(run('range(0, 99999)')).toEqual([99_999]);
+    expect(run('range(0, 99999, 1)')).toEqual([99_999]);
+    expect(run('0:99999')).toEqual([99_999]);
+    expect(refusal('range(0, 100000)')).toBe('range: a matrix may hold at most 100000 elements (asked for 100001)');
+    expect(refusal('range(100000, 0, -1)')).toBe('range: a matrix may hold at most 100000 elements (asked for 100001)');
+    expect(refusal('range(0, 20, 0.0002)')).toBe('range: a matrix may hold at most 100000 elements (asked for 100001)');
+    expect(run('range(0, 1, 0.0001)')).toEqual([10_000]);
+    expect(run('range(5, 0, -1)')).toEqual([5]);
+    expect(run('range(true, 3)')).toEqual([2]);
+    expect(refusal('range(0, 10, 0)')).toBe('range: the step must not be zero');
+    expect(refusal('range("1", 5)')).toBe('range: expects plain numbers, as range(start, end) or range(start, end, step)');
+    expect(refusal('range(1, 5 m)')).toBe('range: expects plain numbers, as range(start, end) or range(start, end, step)');
+  });
+
+  it('should say why a name is reserved, in order: words, units, engine functions, distributions, built-ins', () => {
+    expect(reservedNameReason('to')).toBe('"to" is a word of the expression language');
+    expect(reservedNameReason('true')).toBe('"true" is a word of the expression language');
+    expect(reservedNameReason('km')).toBe('"km" is a unit the engine knows, so km.x would be ambiguous');
+    expect(reservedNameReason('dataset')).toBe('"dataset" is a block type\'s function in expressions');
+    expect(reservedNameReason('lognormal')).toBe('"lognormal" is a distribution the engine knows, such as lognormal(…) in an input');
+    expect(reservedNameReason('sqrt')).toBe('"sqrt" is a function the engine knows');
+    expect(reservedNameReason('pi')).toBe('"pi" is a constant the engine knows');
+    expect(reservedNameReason('gravity')).toBe('"gravity" is a constant the engine knows');
+    expect(reservedNameReason('hill')).toBeNull();
+  });
+
+  it('should list references once each, free names once each, and leave units and constants out', () => {
+    const checked = checkExpression('a.b + a.b * c.d + foo + bar2 * foo + km + pi');
+    expect(checked.references).toEqual([{ block: 'a', output: 'b' }, { block: 'c', output: 'd' }]);
+    expect(checked.freeSymbols).toEqual(['foo', 'bar2']);
+    expect(checked.distribution).toBeNull();
+    expect(checked.nestedDistribution).toBe(false);
+    expect(checked.text).toBe('a.b + a.b * c.d + foo + bar2 * foo + km + pi');
+    expect(checkExpression('x[1]').freeSymbols).toEqual(['x']);
+    expect(checkExpression('(f)(2)').freeSymbols).toEqual(['f']);
+  });
+
+  it('should recognise a distribution as the whole expression (through parentheses) and flag one nested anywhere', () => {
+    const whole = checkExpression('(normal(1 m, 0.2 m))');
+    expect(whole.distribution!.name).toBe('normal');
+    expect(whole.distribution!.args.map((arg) => String(arg.evaluate(new Map())))).toEqual(['1 m', '0.2 m']);
+    expect(whole.nestedDistribution).toBe(false);
+    for (const text of ['normal(1, 2) + 1', '2 * uniform(1, 2)', 'sqrt(triangular(1, 2, 3))']) {
+      const nested = checkExpression(text);
+      expect(nested.distribution, text).toBeNull();
+      expect(nested.nestedDistribution, text).toBe(true);
+    }
+    const inner = checkExpression('normal(normal(1, 1), 1)');
+    expect(inner.distribution!.name).toBe('normal');
+    expect(inner.nestedDistribution).toBe(true);
+    expect(checkExpression('sqrt(4)').distribution).toBeNull();
+    expect(refusal('normal(1, 2) + 1')).toBe('a distribution must be the whole expression of an input');
+  });
+
+  it('should refuse each kind of statement and call the language does not have, in words', () => {
+    const cases: Array<[string, string]> = [
+      ['x = 1', 'assignments (=) are not allowed: each input is a single expression'],
+      ['f(x) = 1', 'defining functions is not allowed in expressions'],
+      ['1; 2', 'only one expression per input: ";" and line breaks separating statements are not allowed'],
+      ['{a: 1}', 'objects ({...}) are not allowed in expressions'],
+      ['a.b(2)', 'only named functions can be called, such as sqrt(x)'],
+      ['f(2)', 'the function "f" is not available in Denudata expressions'],
+      ['sqrt', '"sqrt" can only be called as a function, such as sqrt(x)'],
+      ['normal + 1', '"normal" can only be called as a function, such as normal(x)'],
+      ['dataset * 2', '"dataset" can only be called as a function, such as dataset(x)'],
+      ['version', '"version" can only be called as a function, such as version(x)'],
+      ['foo.bar.baz', 'a dot may only follow a block name, as in name.output'],
+      ['', 'the expression is empty'],
+      [' \t ', 'the expression is empty'],
+      [`"${'x'.repeat(1001)}"`, 'a text in quotes may be at most 1000 characters long (this one has 1001)'],
+      [`1${' '.repeat(2000)}`, 'the expression is longer than 2000 characters'],
+      [`${'-'.repeat(161)}1`, 'the expression is nested too deeply'],
+      ['3 +', 'the expression does not parse: the expression ends too early: a value or a closing parenthesis is missing (at character 4)'],
+      ['dataset("abc")', 'dataset(…) can only be the whole input of a data input (data of scarp_fit, profile_evolution or channel_march)'],
+    ];
+    for (const [text, message] of cases) expect(refusal(text), text.slice(0, 20)).toBe(message);
+    // Just inside each cap.
+    expect(run(`"${'x'.repeat(1000)}"`)).toHaveLength(1000);
+    expect(run(`1${' '.repeat(1999)}`)).toBe(1);
+    expect(run(`${'-'.repeat(158)}1`)).toBe(1);
+    expect(run(Array.from({ length: 150 }, () => '1').join('+'))).toBe(150);
+    expect(run('pi * e')).toBeCloseTo(Math.PI * Math.E, 14);
+  });
+
+  it('should refuse more than 1000 parts, counting a reference as three', () => {
+    // A list of n references [a.b, a.b, …] is 1 + 3n parts (one array, and a.b is a name, a dot and a key).
+    const refs = (n: number) => `[${Array.from({ length: n }, () => 'a.b').join(',')}]`;
+    expect(checkExpression(refs(333)).references).toEqual([{ block: 'a', output: 'b' }]);
+    expect(engineError(() => checkExpression(refs(334))).message).toBe('the expression has more than 1000 parts');
+    // 999 numbers in a list are 1000 parts.
+    expect(run(`[${Array.from({ length: 999 }, () => '1').join(',')}]`)).toEqual([999]);
+  });
+
+  it('should check and compile each text once', () => {
+    const first = checkExpression('2 * 21');
+    expect(checkExpression('2 * 21')).toBe(first);
+    expect(first.evaluate(new Map())).toBe(42);
   });
 });
