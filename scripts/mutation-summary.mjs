@@ -1,14 +1,17 @@
 // Sums the group reports of `scripts/mutation-group.sh` (reports/mutation/<group>.json) into one table:
 // per file, per group and overall, killed (timeouts count as killed, as Stryker does), survived, no coverage, ignored.
-// Usage: node scripts/mutation-summary.mjs [--survivors]
-import { readFileSync, readdirSync, statSync } from 'node:fs';
+// Usage: node scripts/mutation-summary.mjs [--survivors] [--keep DEVELOPERS.md]
+// --keep <file>: the per-file rows of the score table in <file> (between `<!-- scores -->` markers) whose files no
+// report here measures are kept as they are (their report files may be gone, e.g. on a fresh machine), so the
+// totals cover every file measured so far; rows of files measured here are replaced.
+import { existsSync, readFileSync, readdirSync, statSync } from 'node:fs';
 import path from 'node:path';
 
 const dir = path.resolve('reports/mutation');
 // A file may be measured in parts (line ranges) by several groups, or again by a later run: each mutant (by
 // place, operator and replacement) keeps its newest result, and the file is listed under its newest group.
 const files = new Map();
-const reports = readdirSync(dir)
+const reports = (existsSync(dir) ? readdirSync(dir) : [])
   .filter((n) => n.endsWith('.json') && !n.startsWith('incremental-'))
   .map((name) => ({ name, time: statSync(path.join(dir, name)).mtimeMs }))
   .sort((a, b) => a.time - b.time);
@@ -21,9 +24,8 @@ for (const { name } of reports) {
   }
 }
 for (const entry of files.values()) entry.mutants = [...entry.mutants.values()];
-const rows = [];
-const total = { killed: 0, survived: 0, noCoverage: 0, ignored: 0, errors: 0 };
-for (const [file, { group, mutants }] of [...files.entries()].sort()) {
+const counted = new Map();
+for (const [file, { group, mutants }] of files) {
   const count = { killed: 0, survived: 0, noCoverage: 0, ignored: 0, errors: 0 };
   for (const m of mutants) {
     if (m.status === 'Killed' || m.status === 'Timeout') count.killed += 1;
@@ -32,9 +34,23 @@ for (const [file, { group, mutants }] of [...files.entries()].sort()) {
     else if (m.status === 'Ignored') count.ignored += 1;
     else count.errors += 1;
   }
-  for (const key of Object.keys(total)) total[key] += count[key];
-  rows.push({ file, group, ...count });
+  counted.set(file, { file, group, ...count });
 }
+const keepAt = process.argv.indexOf('--keep');
+if (keepAt !== -1) {
+  const text = readFileSync(process.argv[keepAt + 1], 'utf8');
+  const table = text.slice(text.indexOf('<!-- scores -->'), text.indexOf('<!-- /scores -->'));
+  for (const line of table.split('\n')) {
+    const cells = line.split('|').map((cell) => cell.trim());
+    const file = /^`(.+)`$/.exec(cells[1] ?? '')?.[1];
+    if (!file || counted.has(file)) continue;
+    const [killed, survived, noCoverage, ignored] = cells.slice(3, 7).map(Number);
+    counted.set(file, { file, group: cells[2], killed, survived, noCoverage, ignored, errors: 0 });
+  }
+}
+const rows = [...counted.values()].sort((a, b) => (a.file < b.file ? -1 : a.file > b.file ? 1 : 0));
+const total = { killed: 0, survived: 0, noCoverage: 0, ignored: 0, errors: 0 };
+for (const row of rows) for (const key of Object.keys(total)) total[key] += row[key];
 const score = (c) => {
   const valid = c.killed + c.survived + c.noCoverage;
   return valid === 0 ? 'n/a' : `${((100 * c.killed) / valid).toFixed(1)} %`;
