@@ -2,6 +2,7 @@ import canonicalize from 'canonicalize';
 import { createHash } from 'node:crypto';
 import { describe, expect, it } from 'vitest';
 import { canonicalJson, canonicalString } from '@/lib/engine/canonical-json';
+import { canonicalSheetJson, checkBlockName, checkSheetDocument, hashCanonicalText, hashSheetDocument, parseSheetDocument } from '@/lib/engine/document';
 import { canonicalDatasetJson, hashDataset, SHA256_PATTERN, type DatasetCanonical } from '@/lib/engine/dataset';
 import { EngineError, InputError, toSafeMessage } from '@/lib/engine/errors';
 import { buildDependencyGraph, downstreamOf, type GraphNode } from '@/lib/engine/graph';
@@ -259,5 +260,114 @@ describe('datasets (dataset.ts, CONTRACT §7.4)', () => {
     expect(SHA256_PATTERN.test('A'.repeat(64))).toBe(false);
     expect(SHA256_PATTERN.test('a'.repeat(63))).toBe(false);
     expect(SHA256_PATTERN.test(`x${'a'.repeat(64)}`)).toBe(false);
+  });
+});
+
+describe('the sheet document (document.ts)', () => {
+  const base = (blocks: unknown[], extra: Record<string, unknown> = {}) => ({ format: 'denudata-sheet@1', title: 'Plumbing', blocks, ...extra });
+  const fault = (input: unknown) => {
+    const checked = checkSheetDocument(input);
+    expect(checked.ok).toBe(false);
+    return checked.ok ? { message: '', path: '' } : { message: checked.message, path: checked.path };
+  };
+
+  it('should check block names: the pattern, type functions, reserved names', () => {
+    expect(checkBlockName('hill_1')).toBeNull();
+    expect(checkBlockName('a'.repeat(40))).toBeNull();
+    for (const name of ['a'.repeat(41), '1abc', 'Hill', 'hill-1', '', '_x']) {
+      expect(checkBlockName(name), name).toBe(`"${name}" is not a valid block name: use 1–40 characters, lower-case letters, digits and _, starting with a letter`);
+    }
+    expect(checkBlockName('advective_geotherm')).toBe('"advective_geotherm" cannot be a block name: it is a block type\'s function in expressions');
+    expect(checkBlockName('channel_march')).toBeNull();
+    expect(checkBlockName('km')).toBe('"km" cannot be a block name: "km" is a unit the engine knows, so km.x would be ambiguous');
+    expect(checkBlockName('sqrt')).toBe('"sqrt" cannot be a block name: "sqrt" is a function the engine knows');
+    // Asked again, the same answer (remembered).
+    expect(checkBlockName('km')).toBe('"km" cannot be a block name: "km" is a unit the engine knows, so km.x would be ambiguous');
+  });
+
+  it('should refuse input and display keys a block type does not have, naming the first', () => {
+    expect(fault(base([{ id: 'n', name: 'n', type: 'note', inputs: { x: '1', y: '2' } }]))).toEqual({ message: 'a note block takes no inputs; use {}', path: 'blocks[0].inputs.x' });
+    expect(fault(base([{ id: 'q', name: 'q', type: 'quantities', inputs: { K: '1', '2x': '1' } }]))).toEqual({
+      message: '"2x" is not a valid parameter name: use 1–40 letters, digits and _, starting with a letter',
+      path: 'blocks[0].inputs["2x"]',
+    });
+    expect(fault(base([{ id: 'q', name: 'q', type: 'quantities', inputs: { K: '1', constructor: '1' } }]))).toEqual({
+      message: '"constructor" is reserved; choose another parameter name',
+      path: 'blocks[0].inputs.constructor',
+    });
+    expect(fault(base([{ id: 'f', name: 'f', type: 'formula', inputs: { expr: '1', other: '2', more: '3' } }]))).toEqual({
+      message: 'unknown input "other" for a formula block (its inputs: expr)',
+      path: 'blocks[0].inputs.other',
+    });
+    expect(fault(base([{ id: 'q', name: 'q', type: 'quantities', inputs: { K: '1' }, display: { K: 'm', L: 'm' } }]))).toEqual({
+      message: 'unknown output "L" (outputs: K)',
+      path: 'blocks[0].display.L',
+    });
+    expect(fault(base([{ id: 'n', name: 'n', type: 'note', inputs: {}, display: { x: 'm' } }]))).toEqual({
+      message: 'a note block has no outputs to display',
+      path: 'blocks[0].display.x',
+    });
+    expect(checkSheetDocument(base([{ id: 'q', name: 'q', type: 'quantities', inputs: { K: '1 m', L: '2 m' }, display: { L: 'km' } }])).ok).toBe(true);
+    expect(checkSheetDocument(base([{ id: 'n', name: 'n', type: 'note', inputs: {} }])).ok).toBe(true);
+  });
+
+  it('should report the first fault with its path, and name unknown keys', () => {
+    expect(fault(base([], { extra: 1 }))).toEqual({ message: 'unknown key: extra', path: '' });
+    expect(fault(base([], { extra: 1, more: 2 }))).toEqual({ message: 'unknown keys: extra, more', path: '' });
+    expect(fault(base([{ id: 'a', name: 'p1', type: 'formula', inputs: { expr: '1' } }, { id: 'a', name: 'p2', type: 'formula', inputs: { expr: '1' } }]))).toEqual({
+      message: 'duplicate id "a" (also blocks[0])',
+      path: 'blocks[1].id',
+    });
+    expect(fault(base([{ id: 'a', name: 'x', type: 'formula', inputs: { expr: '1' } }, { id: 'b', name: 'y', type: 'formula', inputs: { expr: '1' } }, { id: 'c', name: 'x', type: 'formula', inputs: { expr: '1' } }]))).toEqual({
+      message: 'duplicate name "x" (also blocks[0])',
+      path: 'blocks[2].name',
+    });
+    expect(fault(base([{ id: 'a', name: 'x', type: 'magic', inputs: {} }])).message).toMatch(/^unknown block type "magic" \(known: .*formula/);
+    expect(fault({ ...base([]), title: 'a\u0000b' })).toEqual({ message: 'must not contain control characters (found U+0000)', path: 'title' });
+    const proto = JSON.parse('{"format":"denudata-sheet@1","title":"t","blocks":[{"id":"a","name":"a","type":"formula","inputs":{"expr":"1"}},{"id":"b","name":"b","type":"formula","inputs":{"expr":"1"},"display":{"__proto__":"m"}}]}');
+    expect(fault(proto)).toEqual({ message: '"__proto__" is not allowed as a key', path: 'blocks[1].display["__proto__"]' });
+    const protoInputs = JSON.parse('{"format":"denudata-sheet@1","title":"t","blocks":[7,{"id":"a","name":"a","type":"formula","inputs":{"__proto__":"1"}}]}');
+    expect(fault(protoInputs)).toEqual({ message: '"__proto__" is not allowed as a key', path: 'blocks[1].inputs["__proto__"]' });
+    expect(fault(base([{ id: 'a', name: 'p1', type: 'formula', inputs: { expr: '\ud800' } }]))).toEqual({
+      message: 'the document holds text that is not valid Unicode (an unpaired surrogate)',
+      path: '',
+    });
+  });
+
+  it('should write the same canonical text as the canonicalize package, on and off the known shape', () => {
+    const documents: unknown[] = [
+      base([]),
+      base([{ id: 'a', name: 'a', type: 'formula', inputs: { expr: '1' } }]),
+      base([{ id: 'a', name: 'a', type: 'quantities', inputs: { b: '1', a: '2' }, display: { b: 'km', a: 'm' }, note: 'n' }], { site: { name: 's', latitude: 1 }, uncertainty: { seed: 3, method: 'linear' } }),
+      base([{ id: 'a', name: 'a', type: 'quantities', inputs: { a: '2' }, note: 'only a note' }]),
+      base([{ id: 'a', name: 'a', type: 'quantities', inputs: { a: '2' }, display: {} }]),
+      // Off the shape (canonicalSheetJson is also given objects the schema never saw).
+      base([{ id: 'a', name: 'a', type: 'formula', inputs: { expr: '1' }, extra: true }]),
+      base([{ id: 1, name: 'a', type: 'formula', inputs: {} }]),
+      base([{ id: 'a', name: 2, type: 'formula', inputs: {} }]),
+      base([{ id: 'a', name: 'a', type: 3, inputs: {} }]),
+      base([{ id: 'a', name: 'a', type: 'formula', inputs: [] }]),
+      base([{ id: 'a', name: 'a', type: 'formula', inputs: {}, note: 5 }]),
+      base([{ id: 'a', name: 'a', type: 'formula', inputs: {}, display: 'm' }]),
+      base([{ id: 'a', name: 'a', type: 'formula', inputs: { x: 1, y: { z: [1] }, u: undefined } }]),
+      base([null, [1], 'text', { id: 'a', name: 'a', type: 'formula', inputs: {} }]),
+      base([], { extra: 1 }),
+      { ...base([]), format: 1 },
+      { ...base([]), title: null },
+      { ...base([]), blocks: {} },
+      base([], { site: { name: 's' } }),
+      base([], { uncertainty: { samples: 100 } }),
+    ];
+    for (const document of documents) expect(canonicalSheetJson(document as never), JSON.stringify(document)).toBe(canonicalize(document));
+  });
+
+  it('should hash the canonical text with SHA-256 (FIPS 180-4, Node crypto)', () => {
+    const document = base([{ id: 'a', name: 'p1', type: 'formula', inputs: { expr: '1 m' } }]) as never;
+    const expected = createHash('sha256').update(Buffer.from(canonicalize(document)!, 'utf8')).digest('hex');
+    expect(hashSheetDocument(document)).toBe(expected);
+    expect(hashCanonicalText(canonicalSheetJson(document))).toBe(expected);
+    const parsed = parseSheetDocument(document);
+    expect(parsed).toEqual({ ok: true, document });
+    expect(parseSheetDocument({})).toMatchObject({ ok: false, path: 'format' });
   });
 });
