@@ -3,7 +3,9 @@
  * subtraction, so `610 degC - 10 degC` came out as "600 degC" with an SI value of 873.15 K, and a
  * gradient computed from it later was 45 % too steep. The engine's rule:
  *  - absolute − absolute is a temperature difference, held in K with unit `K` (600 K);
- *  - absolute ± difference is an absolute temperature (mathjs already does this);
+ *  - absolute ± difference is an absolute temperature (mathjs does this when the absolute temperature comes
+ *    first; a sum with the difference first, `600 K + 10 degC`, took the unit of its first term and lost the
+ *    offset, 610 K instead of 610 degC: the absolute temperature is moved first, so both orders agree);
  *  - absolute + absolute has no physical meaning and is a block error saying why.
  * A value in degC or degF is absolute; a value in K may be either (it is the unit of differences),
  * so only sums of two offset temperatures can be recognised as wrong.
@@ -40,6 +42,12 @@ export function temperatureArithmetic(
         throw new EngineError(
           `cannot add two absolute temperatures (${first!.format({ precision: 6 })} + ${second!.format({ precision: 6 })}): subtract them for a difference, or add a difference in K to a temperature`,
         );
+      }
+      // difference + absolute: the absolute temperature first, so that the sum keeps its scale (a sum takes the
+      // unit of its first term, and a value in K is read as a difference here).
+      if (absolute.length === 1 && args[0] !== absolute[0]) {
+        const at = args.indexOf(absolute[0]);
+        return add(args[at], ...args.slice(0, at), ...args.slice(at + 1));
       }
       return add(...args);
     },

@@ -16,6 +16,26 @@ describe('temperature arithmetic', () => {
     expect(evaluateQuick('610 degC - 10 K')).toMatchObject({ value: 600, unit: 'degC', si: 873.15 });
   });
 
+  it('should keep the sum absolute whichever comes first, the difference or the temperature', () => {
+    // 600 K of difference + 10 °C = 610 °C = 883.15 K, in either order (T/K = t/°C + 273.15).
+    expect(evaluateQuick('(610 degC - 10 degC) + 10 degC')).toMatchObject({ value: 610, unit: 'degC', si: 883.15 });
+    expect(evaluateQuick('10 degC + (610 degC - 10 degC)')).toMatchObject({ value: 610, unit: 'degC', si: 883.15 });
+    // 5 K = 9 °F of difference; 50 °F = 283.15 K.
+    const fahrenheit = evaluateQuick('5 K + 50 degF');
+    expect(fahrenheit.unit).toBe('degF');
+    expectClose(fahrenheit.value as number, 59, 1e-12);
+    expectClose(fahrenheit.si as number, 288.15, 1e-12);
+    expect(evaluateQuick('add(1 K, 2 K, 10 degC)')).toMatchObject({ value: 13, unit: 'degC', si: 286.15 });
+    expect(evaluateQuick('add(1 K, 10 degC, 2 K)')).toMatchObject({ value: 13, unit: 'degC', si: 286.15 });
+    expect(() => evaluateQuick('1 K + 10 degC + 10 degC')).toThrow(/two absolute temperatures \(11 degC \+ 10 degC\)/);
+  });
+
+  it('should name both temperatures of a refused sum, to six significant digits', () => {
+    expect(() => evaluateQuick('10.1234567 degC + 20.7654321 degF')).toThrow(
+      'cannot add two absolute temperatures (10.1235 degC + 20.7654 degF): subtract them for a difference, or add a difference in K to a temperature',
+    );
+  });
+
   it('should refuse the sum of two absolute temperatures, saying why', () => {
     expect(() => evaluateQuick('10 degC + 10 degC')).toThrow(EngineError);
     expect(() => evaluateQuick('10 degC + 10 degC')).toThrow(/two absolute temperatures/);
