@@ -69,7 +69,7 @@ case "${1:-}" in
       # every test of the list that evaluates: the lists leave out the slow sheet-wide suites, plausibility and
       # published checks). -a: the language and the locked instance; -b: natural input, text, size caps.
       plumbing-expression-a)
-        MUTATE="$E/expression.ts,$E/expression-language.ts"
+        MUTATE="$E/expression.ts,$E/locked-math.ts,$E/expression-language.ts"
         TESTS="$TE/expression.test.ts,$TE/expression-plumbing.test.ts,$TE/limits.test.ts,$TE/trust/natural-input.test.ts,$TE/trust/temperature.test.ts,$TE/document.test.ts,$TE/registry.test.ts" ;;
       plumbing-expression-b)
         MUTATE="$E/natural-input.ts,$E/text.ts,$E/text-words.ts,$E/value-size.ts"
@@ -84,7 +84,7 @@ case "${1:-}" in
         MUTATE="$E/document.ts,$E/graph.ts,$E/canonical-json.ts,$E/errors.ts,$E/dataset.ts,$E/dataset-input.ts"
         TESTS="$TE/document.test.ts,$TE/graph.test.ts,$TE/canonical-json.test.ts,$TE/dataset-input.test.ts,$TE/evaluate-plumbing.test.ts" ;;
       plumbing-evaluate-b)
-        MUTATE="$E/evaluate.ts,$E/prepare.ts,$E/block-run.ts,$E/index.ts"
+        MUTATE="$E/evaluate.ts,$E/results-document.ts,$E/block-evaluation.ts,$E/prepare.ts,$E/block-run.ts,$E/index.ts"
         TESTS="$TE/document.test.ts,$TE/graph.test.ts,$TE/incremental.test.ts,$TE/limits.test.ts,$TE/dataset-input.test.ts,$TE/demo-sheets.test.ts,$TE/trust/*.test.ts,$TE/expression.test.ts,$TE/evaluate-plumbing.test.ts,$PR" ;;
       plumbing-evaluate-c)
         MUTATE="$E/cost.ts,$E/typical-ranges.ts,$E/registry.ts,$E/block-type.ts"
