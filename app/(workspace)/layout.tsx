@@ -6,11 +6,16 @@ import { PaletteProvider } from '@/components/palette/palette';
 import { PaletteButton, ThemeToggle } from '@/components/palette/theme-toggle';
 import { BrandMark } from '@/components/ui/brand';
 import { requirePageUser } from '@/lib/auth/page';
+import { earlyPaletteScript } from '@/components/palette/early-keys';
+import { headers } from 'next/headers';
 
 export default async function WorkspaceLayout({ children }: { children: ReactNode }) {
   const { user, teams } = await requirePageUser();
+  const nonce = (await headers()).get('x-nonce') ?? undefined;
   return (
     <PaletteProvider>
+    {/* Catches Ctrl+K (and what follows) before the page's scripts have run: see early-keys.ts. */}
+    <script nonce={nonce} dangerouslySetInnerHTML={{ __html: earlyPaletteScript }} />
     <div className="min-h-screen">
       <header className="sticky top-0 z-20 border-b border-rule bg-paper/95 backdrop-blur">
         <div className="mx-auto flex h-12 max-w-[1400px] items-center gap-2 px-3 sm:gap-4 sm:px-4">

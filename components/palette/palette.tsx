@@ -5,6 +5,7 @@ import { GlobalCommands } from './global-commands';
 import { ShortcutsSheet } from './shortcuts-sheet';
 import { RegistryProvider } from './command-registry';
 import { isTypingTarget } from './shortcuts';
+import { takeEarlyPaletteKeys } from './early-keys';
 
 // cmdk, its dialog and the quick calculation load on demand (about 17 kB compressed): when the palette first
 // opens, or as soon as Ctrl or ⌘ goes down (the usual way to open it), so the chunk is usually there by the K.
@@ -47,8 +48,13 @@ export function PaletteProvider({ children }: { children: ReactNode }) {
     };
     // Capture phase: the palette opens even from inside an expression editor.
     window.addEventListener('keydown', onKey, true);
+    // Ctrl+K pressed while the page was still loading (early-keys.ts) opens the palette now, with what was typed.
+    takeEarlyPaletteKeys((query) => {
+      void loadDialog();
+      onOpen(query);
+    });
     return () => window.removeEventListener('keydown', onKey, true);
-  }, []);
+  }, [onOpen]);
 
   return (
     <RegistryProvider onOpen={onOpen} onShowShortcuts={onShowShortcuts}>

@@ -252,6 +252,38 @@ describe('the sheet workspace in Chromium', () => {
     await fresh.close();
   });
 
+  it('should open the palette with what was typed when Ctrl+K comes before the page’s scripts have run', async () => {
+    // Every script of the page is held back until the keys below have been pressed, so nothing of React has
+    // run yet: only the inline script of the workspace layout can see them (components/palette/early-keys.ts).
+    const fresh = await editor.newPage();
+    let release: () => void = () => {};
+    const gate = new Promise<void>((resolve) => {
+      release = resolve;
+    });
+    // Scripts only: a held stylesheet would block the inline scripts too (a script waits for the sheets before it).
+    await fresh.route(/\/_next\/static\/chunks\/.*\.js$/, async (route) => {
+      await gate;
+      await route.continue();
+    });
+    // 'commit': the page's deferred scripts are held, so DOMContentLoaded never comes before the release.
+    await fresh.goto(`${appUrl()}/sheets/${DEMO_SCARP}`, { waitUntil: 'commit' });
+    // The layout's inline script has run (the page itself may still be streaming or waiting for its scripts).
+    await fresh.waitForFunction(() => '__denudataEarlyPalette' in window, null, { timeout: 30_000 });
+    expect(await fresh.locator('[cmdk-input]').count()).toBe(0);
+    await fresh.keyboard.press('ControlOrMeta+K');
+    await fresh.keyboard.type('Formula');
+    await fresh.keyboard.press('Backspace');
+    release();
+    const input = fresh.locator('[cmdk-input]');
+    await input.waitFor({ timeout: 30_000 });
+    expect(await input.inputValue()).toBe('Formul');
+    // The inline listener is gone once the palette listens itself: Ctrl+K now closes it, once.
+    expect(await fresh.evaluate(() => '__denudataEarlyPalette' in window)).toBe(false);
+    await fresh.keyboard.press('ControlOrMeta+K');
+    await input.waitFor({ state: 'detached' });
+    await fresh.close();
+  });
+
   it('should download less than 200 kB of compressed JavaScript for the index and 420 kB for a sheet page (issue 9\'s ceiling)', async () => {
     const measure = async (url: string, ready: (p: Page) => Promise<void>) => {
       const fresh = await editor.newPage();
