@@ -31,7 +31,7 @@ case "${1:-}" in
   data)
     MUTATE="$B/scarp-fit.ts,$B/profile-evolution*.ts,$B/channel-march.ts,$B/data-shared.ts,lib/engine/numerics/*.ts,lib/engine/numerics.ts"
     TESTS="$T/scarp-fit.test.ts,$T/profile-evolution*.test.ts,$T/channel-march.test.ts,$T/data-blocks-uncertainty.test.ts,tests/engine/numerics.test.ts,tests/engine/demo-data-sheet.test.ts,$P" ;;
-  data-channel|data-scarp-fit|data-profile)
+  data-channel|data-scarp-fit|data-profile|data-profile-a|data-profile-run)
     # Parts of the data group that fit a short session: each block with its own tests, the shared helpers',
     # uncertainty, cost, numerics and demo tests, and the published and registry checks.
     case "$1" in
@@ -40,6 +40,11 @@ case "${1:-}" in
       # inner loops make each fit or run tens of times slower (the scarp_fit tests' first run: 143 s, not 2 s).
       data-scarp-fit) MUTATE="$B/scarp-fit.ts"; OWN="$T/scarp-fit.test.ts" ;;
       data-profile) MUTATE="$B/profile-evolution.ts,$B/profile-evolution-cost.ts,$B/profile-evolution-grid.ts,$B/profile-evolution-run.ts"; OWN="$T/profile-evolution*.test.ts" ;;
+      # Its two parts (each fits a short session: about 4–5 mutants a minute on a loaded machine): -a the
+      # definition, the cost estimate and the grid (steps, resampled data, limits, fixed grids of samples); -run
+      # the run itself (input checks, outputs, warnings, series).
+      data-profile-a) MUTATE="$B/profile-evolution.ts,$B/profile-evolution-cost.ts,$B/profile-evolution-grid.ts"; OWN="$T/profile-evolution*.test.ts" ;;
+      data-profile-run) MUTATE="$B/profile-evolution-run.ts"; OWN="$T/profile-evolution*.test.ts" ;;
     esac
     TESTS="$OWN,$T/data-shared.test.ts,$T/data-blocks-uncertainty.test.ts,tests/engine/cost.test.ts,tests/engine/numerics.test.ts,tests/engine/demo-data-sheet.test.ts,$P" ;;
   uncertainty)
@@ -122,7 +127,7 @@ case "${1:-}" in
       solver-erf-fit-b) MUTATE="$N/erf-fit.ts:221-343"; TESTS="$TN/erf-fit.test.ts" ;;
       solver-diffusion) MUTATE="$N/diffusion-1d.ts"; TESTS="$TN/diffusion-1d.test.ts" ;;
     esac ;;
-  *) echo "usage: $0 first-release|scarp-channel|tectonic|orogen-nuclide|geotherm-strength|flexure-closure|data|data-channel|data-scarp-fit|data-profile|uncertainty|uncertainty-statistics|uncertainty-distributions|uncertainty-numeric|plumbing-units|plumbing-expression|plumbing-expression-a|plumbing-expression-b|plumbing-evaluate|plumbing-evaluate-a|plumbing-evaluate-b|plumbing-evaluate-c|uncertainty-pass|uncertainty-pass-propagate|uncertainty-pass-sampling|uncertainty-pass-spread|solver-erf|solver-erf-fit|solver-erf-fit-a|solver-erf-fit-p|solver-erf-fit-b|solver-diffusion" >&2; exit 2 ;;
+  *) echo "usage: $0 first-release|scarp-channel|tectonic|orogen-nuclide|geotherm-strength|flexure-closure|data|data-channel|data-scarp-fit|data-profile|data-profile-a|data-profile-run|uncertainty|uncertainty-statistics|uncertainty-distributions|uncertainty-numeric|plumbing-units|plumbing-expression|plumbing-expression-a|plumbing-expression-b|plumbing-evaluate|plumbing-evaluate-a|plumbing-evaluate-b|plumbing-evaluate-c|uncertainty-pass|uncertainty-pass-propagate|uncertainty-pass-sampling|uncertainty-pass-spread|solver-erf|solver-erf-fit|solver-erf-fit-a|solver-erf-fit-p|solver-erf-fit-b|solver-diffusion" >&2; exit 2 ;;
 esac
 export DENUDATA_MUTATION_TESTS="$TESTS" DENUDATA_MUTATION_REPORT="$1"
 exec nice -n 15 npx stryker run --incremental --mutate "$MUTATE" ${@:2}
