@@ -136,7 +136,7 @@ describe('natural input (rewriteNaturalInput)', () => {
   });
 
   it('should leave "1/" alone where it is not a unit after a number', () => {
-    for (const text of ['1/m', 'x 1/m', 'v2 1/m', '2 1/2', '2 1/(m)', '2 1/', 'a.b 1/m', '21/m']) expect(rewriteNaturalInput(text).text, text).toBe(text);
+    for (const text of ['1/m', 'x 1/m', 'v2 1/m', '2 1/2', '2 1/(m)', '2 1/', 'a.b 1/m', '21/m', '25 deg', '2 abc', '2 1km']) expect(rewriteNaturalInput(text).text, text).toBe(text);
     // Only the 60 characters before the 1 are read.
     expect(rewriteNaturalInput(`2${' '.repeat(60)}1/m`).text).toBe(`2${' '.repeat(60)}1/m`);
     expect(rewriteNaturalInput(`2${' '.repeat(58)}1/m`).text).toBe(`2${' '.repeat(58)}/m`);
