@@ -77,7 +77,7 @@ export function BlockHeader({
       <span className="text-[12px] text-slate">{type?.title ?? block.type}</span>
       <span className="ml-auto flex items-center gap-1">
         {commentsSheetId ? (
-          <OpenCommentCount sheetId={commentsSheetId} blockId={block.id} blockName={block.name} onOpen={() => actions.showComments(block.id)} />
+          <OpenCommentCount blockId={block.id} blockName={block.name} onOpen={() => actions.showComments(block.id)} />
         ) : null}
         {state ? <BlockStatusBadge state={state} /> : null}
         {canEdit ? (

@@ -1,7 +1,7 @@
 'use client';
 
 import { Button } from '@/components/ui/button';
-import dynamic from 'next/dynamic';
+import { browserOnly } from '@/components/ui/browser-only';
 import { useState } from 'react';
 import { DatasetPicker } from '@/components/datasets/dataset-picker';
 // The density sketch of a declared distribution (and its quantile code) loads only for a field that declares one.
@@ -11,11 +11,11 @@ import type { BlockCardActions } from './block-actions';
 import type { CompletionData } from './expression-language';
 
 
-// CodeMirror loads only on pages that show fields.
-const ExpressionField = dynamic(() => import('./expression-field'), {
-  ssr: false,
-  loading: () => <div className="h-[30px] rounded-[3px] border border-rule bg-wash" aria-hidden="true" />,
-});
+// CodeMirror loads only on pages that show fields, in the browser (the server draws the placeholder).
+const ExpressionField = browserOnly(
+  () => import('./expression-field'),
+  () => <div className="h-[30px] rounded-[3px] border border-rule bg-wash" aria-hidden="true" />,
+);
 
 /** A block's inputs, one labelled expression field each (free parameters with their names editable). */
 export function InputsTable({

@@ -1,6 +1,7 @@
 import { Fragment, useMemo, type ReactNode } from 'react';
 import { fromMarkdown } from 'mdast-util-from-markdown';
 import type { Definition, Nodes, Parents, PhrasingContent, RootContent } from 'mdast';
+import { ByteBoundedLru } from '@/lib/cache/byte-bounded-lru';
 
 /**
  * Notes and captions as markdown (CommonMark, parsed by mdast-util-from-markdown: the parser the PDF
@@ -11,8 +12,26 @@ import type { Definition, Nodes, Parents, PhrasingContent, RootContent } from 'm
  * below the block's own heading.
  */
 export function NoteMarkdown({ text }: { text: string }) {
-  const content = useMemo(() => renderMarkdown(text), [text]);
+  const content = useMemo(() => drawnMarkdown(text), [text]);
   return <>{content}</>;
+}
+
+/**
+ * The drawn elements of recent texts. Parsing is the costly part (on the server, one note's parse was about
+ * 4 % of a sheet page's CPU), and the same notes are drawn for every request of the same sheet. React elements
+ * are immutable descriptions, so one drawing serves every render. Bounded: 256 texts, about 8 MB (a text is
+ * counted at 16 bytes a character: its key and its tree); a text over 64 kB is drawn every time.
+ */
+const drawings = new ByteBoundedLru<string, { nodes: ReactNode[]; bytes: number }>(256, 8 * 1024 * 1024, (drawing) => drawing.bytes);
+const MAX_KEPT_TEXT = 64 * 1024;
+
+function drawnMarkdown(text: string): ReactNode[] {
+  if (text.length > MAX_KEPT_TEXT) return renderMarkdown(text);
+  const kept = drawings.get(text);
+  if (kept) return kept.nodes;
+  const nodes = renderMarkdown(text);
+  drawings.set(text, { nodes, bytes: text.length * 16 });
+  return nodes;
 }
 
 /** A note is bounded in length by the document's limits; nesting deeper than this is drawn as plain text. */

@@ -1,7 +1,7 @@
 'use client';
 
 import { useMutation, useQueryClient } from '@tanstack/react-query';
-import { useState } from 'react';
+import { createContext, useContext, useState, type ReactNode } from 'react';
 import { Button } from '@/components/ui/button';
 import { ErrorText } from '@/components/ui/error-text';
 import type { ApiRequest } from '@/lib/api-client';
@@ -11,10 +11,21 @@ import { CommentForm } from './comment-form';
 import { CommentThreadItem } from './comment-thread';
 import { callComments, commentsKey, useSheetComments, useSheetMembers } from './use-comments';
 
-/** The number of open threads on a block, for the badge on its card; a button when `onOpen` is given. */
-export function OpenCommentCount({ sheetId, blockId, blockName, onOpen }: { sheetId: string; blockId: string; blockName?: string; onOpen?: () => void }) {
-  const { data } = useSheetComments(sheetId);
-  const count = data?.openByBlock[blockId] ?? 0;
+/**
+ * Open comment counts by block id for the badges below it, from the one observer of the sheet's comments that
+ * the page already holds (null until they arrive). One query observer per badge cost about 2 % of the sheet
+ * page's server CPU (DEVELOPERS.md, "Fourth round"); the badges now only read this.
+ */
+const OpenCountsContext = createContext<Readonly<Record<string, number>> | null>(null);
+
+export function OpenCommentCounts({ counts, children }: { counts: Readonly<Record<string, number>> | null | undefined; children: ReactNode }) {
+  return <OpenCountsContext.Provider value={counts ?? null}>{children}</OpenCountsContext.Provider>;
+}
+
+/** The number of open threads on a block, for the badge on its card; a button when `onOpen` is given. Inside OpenCommentCounts. */
+export function OpenCommentCount({ blockId, blockName, onOpen }: { blockId: string; blockName?: string; onOpen?: () => void }) {
+  const counts = useContext(OpenCountsContext);
+  const count = counts?.[blockId] ?? 0;
   if (!count) return null;
   const words = `${count} open ${count === 1 ? 'comment' : 'comments'}`;
   if (onOpen) {

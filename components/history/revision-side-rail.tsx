@@ -1,7 +1,8 @@
 'use client';
 
 import { useState } from 'react';
-import { CommentsPanel, OpenCommentCount } from '@/components/comments/comments-panel';
+import { CommentsPanel, OpenCommentCount, OpenCommentCounts } from '@/components/comments/comments-panel';
+import { useSheetComments } from '@/components/comments/use-comments';
 import { ForkDialog } from '@/components/history/fork-dialog';
 import { Button } from '@/components/ui/button';
 
@@ -31,6 +32,7 @@ export function RevisionSideRail({
   const [selected, setSelected] = useState<string>(blocks.find((b) => b.type !== 'note')?.id ?? blocks[0]?.id ?? '');
   const [forking, setForking] = useState(false);
   const block = blocks.find((b) => b.id === selected);
+  const comments = useSheetComments(sheetId);
   return (
     <aside className="flex flex-col gap-3" aria-label="Revision tools">
       {canFork ? (
@@ -39,6 +41,7 @@ export function RevisionSideRail({
           <ForkDialog open={forking} onClose={() => setForking(false)} sheetId={sheetId} sourceTitle={sheetTitle} revision={revision} />
         </>
       ) : null}
+      <OpenCommentCounts counts={comments.data?.openByBlock}>
       <div role="listbox" aria-label="Blocks" className="flex flex-col rounded-[4px] border border-rule bg-chalk text-[13px]">
         {blocks.map((b) => (
           // An option of the listbox, not an action: it keeps the list's row look.
@@ -53,11 +56,12 @@ export function RevisionSideRail({
           >
             <span className="num">{b.name}</span>
             <span className="ml-auto">
-              <OpenCommentCount sheetId={sheetId} blockId={b.id} />
+              <OpenCommentCount blockId={b.id} />
             </span>
           </button>
         ))}
       </div>
+      </OpenCommentCounts>
       {block ? <CommentsPanel key={block.id} sheetId={sheetId} blockId={block.id} blockName={block.name} revision={revision} userId={userId} canComment={canComment} /> : null}
     </aside>
   );

@@ -2,6 +2,7 @@
 
 import { useCallback, useLayoutEffect, useMemo, useRef, useState } from 'react';
 import { useSheetComments } from '@/components/comments/use-comments';
+import { OpenCommentCounts } from '@/components/comments/comments-panel';
 import { useReviewActions } from '@/components/review/review-bar';
 import { useQuickInsert, useRegisterCommands, useCommandRegistry } from '@/components/palette/command-registry';
 import { roleAllows } from '@/lib/auth/permissions';
@@ -245,6 +246,7 @@ export function SheetWorkspace({
       {draft.notice ? <SheetNotice message={draft.notice} onDismiss={() => draft.setNotice(null)} /> : null}
 
       <div className="grid gap-4 lg:grid-cols-[minmax(0,1fr)_340px]">
+        <OpenCommentCounts counts={comments.data?.openByBlock}>
         <BlockList
           sheetId={sheetId}
           blocks={doc.blocks}
@@ -265,6 +267,7 @@ export function SheetWorkspace({
           significantFigures={prefs.significantFigures}
           siFolded={prefs.siFolded}
         />
+        </OpenCommentCounts>
         <SideRail panels={panels} active={railTab} onActiveChange={setRailTab} />
       </div>
 

@@ -1,9 +1,8 @@
 import 'server-only';
-import { QueryTypes } from 'sequelize';
 import { notFound } from '@/lib/errors';
 import type { ReviewStatus } from '@/models';
 import { isUuid } from './ids';
-import { db } from './index';
+import { plainSelect } from './plain-select';
 import { RECORD_COLUMNS, recordOfRow, type RecordRow, type SheetRecord } from './sheets';
 import type { PublicUser } from './users';
 
@@ -100,11 +99,8 @@ export async function getSheetDetail({
   visibleTeamIds: string[];
 }): Promise<SheetDetail> {
   if (!isUuid(sheetId)) throw notFound('Sheet');
-  const [row] = await db().query<DetailRow>(`${DETAIL_SELECT}
-       ${DETAIL_FROM}`, {
-    bind: [sheetId, visibleTeamIds.filter(isUuid)],
-    type: QueryTypes.SELECT,
-  });
+  const [row] = await plainSelect<DetailRow>(`${DETAIL_SELECT}
+       ${DETAIL_FROM}`, [sheetId, visibleTeamIds.filter(isUuid)]);
   if (!row) throw notFound('Sheet');
   return detailOfRow(row, visibleTeamIds);
 }

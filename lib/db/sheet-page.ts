@@ -1,11 +1,11 @@
 import 'server-only';
-import { QueryTypes } from 'sequelize';
 import { notFound } from '@/lib/errors';
 import type { ReviewStatus, TeamRole } from '@/models';
 import { draftStandingOf, type DraftStanding } from '@/lib/sheet/draft-standing.server';
 import { DEFAULT_SHEET_PREFERENCES, type SheetPreferences } from '@/lib/sheet/preferences';
 import { isUuid } from './ids';
 import { db } from './index';
+import { plainSelect } from './plain-select';
 import { ROLE_ORDER, type MemberItem } from './members';
 import { MAX_REVIEW_EVENTS, type ReviewEvent, type ReviewEventAction } from './review-events';
 import type { ReviewSummary } from './revisions';
@@ -63,6 +63,8 @@ type PageRow = DetailRow & {
   }[];
   approved: { number: number; hash: string } | null;
   preferences: { significantFigures: number; siFolded: boolean } | null;
+  /** SHA-256 of the stored draft's jsonb text: the key of the draft's document hash (draftStandingOf). */
+  draft_digest: string;
 };
 
 const PAGE_SELECT = `${DETAIL_SELECT},
@@ -96,6 +98,7 @@ const PAGE_SELECT = `${DETAIL_SELECT},
               WHERE v.sheet_id = s.id AND v.review_status = 'approved'
               ORDER BY v.number DESC
               LIMIT 1) AS approved,
+            encode(sha256(convert_to(s.draft_document::text, 'UTF8')), 'hex') AS draft_digest,
             (SELECT json_build_object('significantFigures', sp.significant_figures, 'siFolded', sp.si_folded)
                FROM sheet_preferences sp
               WHERE sp.sheet_id = s.id) AS preferences`;
@@ -128,11 +131,8 @@ function reviewOfRow(row: PageRow): ReviewSummary | null {
 export async function getSheetPageData({ sheetId, visibleTeamIds }: { sheetId: string; visibleTeamIds: string[] }): Promise<SheetPageData> {
   if (!isUuid(sheetId)) throw notFound('Sheet');
   const sequelize = db();
-  const [row] = await sequelize.query<PageRow>(`${PAGE_SELECT}
-       ${DETAIL_FROM}`, {
-    bind: [sheetId, visibleTeamIds.filter(isUuid)],
-    type: QueryTypes.SELECT,
-  });
+  const [row] = await plainSelect<PageRow>(`${PAGE_SELECT}
+       ${DETAIL_FROM}`, [sheetId, visibleTeamIds.filter(isUuid)]);
   if (!row) throw notFound('Sheet');
   const detail = detailOfRow(row, visibleTeamIds);
   // The events' times went through json as text: parsed by the connection's own timestamptz parser, so
@@ -158,7 +158,7 @@ export async function getSheetPageData({ sheetId, visibleTeamIds }: { sheetId: s
       at: new Date(parseTimestamp(e.created_at)).toISOString(),
     })),
     approvedRevision: approved?.number ?? null,
-    draftStanding: draftStandingOf(detail.draft.document, detail.head, approved),
+    draftStanding: draftStandingOf(detail.draft.document, detail.head, approved, row.draft_digest),
     preferences: row.preferences
       ? { significantFigures: row.preferences.significantFigures, siFolded: row.preferences.siFolded }
       : { ...DEFAULT_SHEET_PREFERENCES },

@@ -1,10 +1,11 @@
 import 'server-only';
-import { QueryTypes, type Transaction } from 'sequelize';
+import type { Transaction } from 'sequelize';
 import { conflict, notFound } from '@/lib/errors';
 import { Sheet } from '@/models';
 import { recordAudit } from './audit';
 import { isUuid } from './ids';
 import { db } from './index';
+import { plainSelect } from './plain-select';
 
 export type SiteInput = { name: string; latitude?: number; longitude?: number; notes?: string };
 
@@ -109,10 +110,7 @@ export function recordOfRow(row: RecordRow): SheetRecord {
 /** A sheet's record (no draft document), or null; one plain query, asked by every sheet route's guard. */
 export async function findSheetRecord({ sheetId }: { sheetId: string }): Promise<SheetRecord | null> {
   if (!isUuid(sheetId)) return null;
-  const [row] = await db().query<RecordRow>(`SELECT ${RECORD_COLUMNS} FROM sheets s WHERE s.id = $1`, {
-    bind: [sheetId],
-    type: QueryTypes.SELECT,
-  });
+  const [row] = await plainSelect<RecordRow>(`SELECT ${RECORD_COLUMNS} FROM sheets s WHERE s.id = $1`, [sheetId]);
   return row ? recordOfRow(row) : null;
 }
 

@@ -5,6 +5,7 @@ import { Membership, Team, User, type TeamRole } from '@/models';
 import { recordAudit } from './audit';
 import { isUuid } from './ids';
 import { db } from './index';
+import { plainSelect } from './plain-select';
 import type { PublicUser } from './users';
 
 export type TeamSummary = { id: string; name: string; role: TeamRole; current: boolean };
@@ -23,14 +24,14 @@ type UserTeamRow = {
 /** One query: the user and each of their memberships with the team's name, teams by name. */
 async function userWithTeams(userId: string): Promise<UserTeamRow[]> {
   if (!isUuid(userId)) return [];
-  return db().query<UserTeamRow>(
+  return plainSelect<UserTeamRow>(
     `SELECT u.id, u.name, u.email, u.current_team_id, u.password_changed_at, t.id AS team_id, t.name AS team_name, m.role
        FROM users u
        LEFT JOIN memberships m ON m.user_id = u.id
        LEFT JOIN teams t ON t.id = m.team_id
       WHERE u.id = $1
       ORDER BY t.name ASC, t.id ASC`,
-    { bind: [userId], type: QueryTypes.SELECT },
+    [userId],
   );
 }
 

@@ -64,4 +64,21 @@ describe('note markdown through the CommonMark parser', () => {
     expect(out).toContain('deep');
     expect((out.match(/<blockquote>/g) ?? []).length).toBeLessThanOrEqual(13);
   });
+
+  // Drawings are kept by text (a bounded cache: the same note is drawn for every request of its sheet).
+  it('should draw a text again exactly as the first time, and each text as its own', () => {
+    const a = '# Fan\n**offset** 2a = 2.4 m';
+    const b = '# Fan\n**offset** 2a = 2.5 m';
+    const first = html(a);
+    expect(first).toBe('<h3>Fan</h3><p><strong>offset</strong> 2a = 2.4 m</p>');
+    expect(html(b)).toBe('<h3>Fan</h3><p><strong>offset</strong> 2a = 2.5 m</p>');
+    expect(html(a)).toBe(first);
+    // Two notes with the same text on one page share the drawing and both show it.
+    const twice = renderToStaticMarkup(createElement('div', null, createElement(NoteMarkdown, { text: a }), createElement(NoteMarkdown, { text: a })));
+    expect(twice).toBe(`<div>${first}${first}</div>`);
+    // A text over the kept length (64 kB) is drawn every time, the same way.
+    const long = `${'word '.repeat(14_000)}end`;
+    expect(html(long)).toBe(`<p>${long}</p>`);
+    expect(html(long)).toBe(`<p>${long}</p>`);
+  });
 });
