@@ -55,6 +55,14 @@ describe('profile_evolution grid of a measured profile: taken as it is', () => {
     expect(beyond.z0[1]).not.toBe(1);
   });
 
+  it('should scale the evenness tolerance with the spacing (1e-9 of 4 m: a 3e-9 m deviation is even, 5e-9 m is not)', () => {
+    const zs = [0, 1, 0, 1, 0];
+    const within = dataGrid([0, 4 + 3e-9, 8, 12, 16], zs, 5, 10, undefined);
+    expect(within.x[1]).toBe(4 + 3e-9);
+    const beyond = dataGrid([0, 4 + 5e-9, 8, 12, 16], zs, 5, 10, undefined);
+    expect(beyond.x[1]).toBe(4);
+  });
+
   it('should resample evenly spaced points when a dx is asked for (0.5 m over 4 m: 9 nodes)', () => {
     const grid = dataGrid([0, 1, 2, 3, 4], [0, 2, 2, 0, 4], 5, 10, 0.5);
     expect(grid.x).toHaveLength(9);
