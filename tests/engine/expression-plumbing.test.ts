@@ -1,5 +1,6 @@
 import { isMatrix, matrix } from 'mathjs';
 import { describe, expect, it } from 'vitest';
+import { engineError } from '../support/engine-error';
 import { EngineError } from '@/lib/engine/errors';
 import { checkExpression, math, reservedNameReason } from '@/lib/engine/expression';
 import { checkNesting, MAX_NESTING_DEPTH } from '@/lib/engine/expression-language';
@@ -21,17 +22,6 @@ import {
 // the Unicode Standard (U+0000–U+001F C0 controls, U+007F DEL, U+0009 tab, U+000A line feed); the caps
 // are CONTRACT §3's; element counts of broadcasts and matrix products follow mathjs's documented
 // semantics (mathjs 15, "Matrices": broadcasting, multiply) and are checked here by counting.
-
-/** The EngineError a call throws (fails the test when it throws nothing or something else). */
-function engineError(call: () => unknown): EngineError {
-  try {
-    call();
-  } catch (error) {
-    expect(error).toBeInstanceOf(EngineError);
-    return error as EngineError;
-  }
-  throw new Error('expected an EngineError, nothing was thrown');
-}
 
 describe('text a user writes (text.ts)', () => {
   it('should name the first control character as U+XXXX (the Unicode Standard)', () => {

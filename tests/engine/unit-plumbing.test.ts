@@ -1,7 +1,7 @@
 import type { Unit } from 'mathjs';
 import { describe, expect, it } from 'vitest';
+import { engineError } from '../support/engine-error';
 import { checkUnitDimension } from '@/lib/engine/dataset-units';
-import { EngineError } from '@/lib/engine/errors';
 import { checkExpression, math } from '@/lib/engine/expression';
 import { formatFromSI, formatValue, quantityFromSI, sameDimension, unitTemplate, valueFromFormatted } from '@/lib/engine/unit-format';
 import { coerceInput, countOf, describeValue, type DimensionKey } from '@/lib/engine/units';
@@ -16,17 +16,6 @@ const JULIAN_YEAR_S = 365.25 * 86_400;
 /** A value as the engine's expressions make it (the locked instance refuses evaluate()). */
 function evaluate(text: string): unknown {
   return checkExpression(text).evaluate(new Map());
-}
-
-/** The EngineError a call throws (fails the test when it throws nothing or something else). */
-function engineError(call: () => unknown): EngineError {
-  try {
-    call();
-  } catch (error) {
-    expect(error).toBeInstanceOf(EngineError);
-    return error as EngineError;
-  }
-  throw new Error('expected an EngineError, nothing was thrown');
 }
 
 describe('dataset column units (checkUnitDimension)', () => {
