@@ -46,10 +46,19 @@ function expectLimited(answer: { status: number; body: any; headers?: Headers },
 }
 
 beforeAll(async () => {
-  [a, b] = await Promise.all([
-    startAppInstance({ port: basePort, env: { DENUDATA_RATE_LIMITS: 'on', DENUDATA_APP_URL: `http://127.0.0.1:${basePort}` }, quiet: true }),
-    startAppInstance({ port: basePort + 1, env: { DENUDATA_RATE_LIMITS: 'on', DENUDATA_APP_URL: `http://127.0.0.1:${basePort + 1}` }, quiet: true }),
-  ]);
+  const started = await Promise.allSettled(
+    [basePort, basePort + 1].map((port) =>
+      startAppInstance({ port, env: { DENUDATA_RATE_LIMITS: 'on', DENUDATA_APP_URL: `http://127.0.0.1:${port}` }, quiet: true }),
+    ),
+  );
+  // One instance failing to start must not leave the other running: its job workers would take later suites'
+  // mail and write links to its own address.
+  const failed = started.find((result) => result.status === 'rejected');
+  if (failed) {
+    await Promise.all(started.map((result) => (result.status === 'fulfilled' ? result.value.stop() : undefined)));
+    throw failed.reason;
+  }
+  [a, b] = started.map((result) => (result as PromiseFulfilledResult<AppInstance>).value) as [AppInstance, AppInstance];
 }, 240_000);
 
 afterAll(async () => {
