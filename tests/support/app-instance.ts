@@ -1,6 +1,7 @@
 // Starts a served instance of the built app (the test build) on a port of its own, for the suites that
 // need more than one instance (two instances on one database; a database restart under load).
 import { spawn, type ChildProcess } from 'node:child_process';
+import { mkdirSync, openSync, readFileSync } from 'node:fs';
 
 export interface AppInstance {
   origin: string;
@@ -26,6 +27,9 @@ export async function waitForApp(origin: string, child: ChildProcess, timeoutMs:
 /** `next start` of the test build on 127.0.0.1:port with extra environment; stop() ends its process group. */
 export async function startAppInstance({ port, env = {}, quiet = false }: { port: number; env?: Record<string, string>; quiet?: boolean }): Promise<AppInstance> {
   const origin = `http://127.0.0.1:${port}`;
+  mkdirSync('.denudata', { recursive: true });
+  const logPath = `.denudata/instance-${port}.log`;
+  const output = quiet ? openSync(logPath, 'w') : 'inherit';
   const child = spawn('node_modules/.bin/next', ['start', '-H', '127.0.0.1', '-p', String(port)], {
     env: {
       ...process.env,
@@ -36,7 +40,8 @@ export async function startAppInstance({ port, env = {}, quiet = false }: { port
       NODE_OPTIONS: `--max-semi-space-size=64${process.env.NODE_OPTIONS ? ` ${process.env.NODE_OPTIONS}` : ''}`,
       ...env,
     },
-    stdio: ['ignore', quiet ? 'ignore' : 'inherit', quiet ? 'ignore' : 'inherit'],
+    // A quiet instance writes to a log of its own, so a start that fails can say why.
+    stdio: ['ignore', output, output],
     detached: true,
   });
   const stop = async () => {
@@ -54,7 +59,8 @@ export async function startAppInstance({ port, env = {}, quiet = false }: { port
     await waitForApp(origin, child, 90_000);
   } catch (error) {
     await stop();
-    throw error;
+    const tail = quiet ? readFileSync(logPath, 'utf8').slice(-2000) : '';
+    throw new Error(`${error instanceof Error ? error.message : String(error)}${tail ? `; its log (${logPath}) ends:\n${tail}` : ''}`);
   }
   return { origin, child, stop };
 }
