@@ -12,9 +12,14 @@ for (const file of process.argv.slice(2)) {
   const report = JSON.parse(readFileSync(file, 'utf8'));
   passed += report.numPassedTests ?? 0;
   failed += report.numFailedTests ?? 0;
-  // A suite that failed to load counts as a failure even when none of its tests ran.
+  // A suite that failed without a failed test counts as one failure: it failed to load, or a hook failed
+  // (a failing beforeAll marks every test of the file skipped, so no test of it counts as failed).
   for (const suite of report.testResults ?? []) {
-    if (suite.status === 'failed' && (suite.assertionResults ?? []).length === 0) failed += 1;
+    const failedTests = (suite.assertionResults ?? []).filter((test) => test.status === 'failed').length;
+    if (suite.status === 'failed' && failedTests === 0) {
+      failed += 1;
+      console.log(`test: ${suite.name}: the suite failed outside its tests (${String(suite.message ?? '').split('\n')[0].slice(0, 200)})`);
+    }
   }
 }
 console.log(`${passed} passed, ${failed} failed`);
