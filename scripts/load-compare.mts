@@ -9,7 +9,10 @@
  * For each route: a 2 s warm-up on each side, then alternating slices (A, B, A, B, …) of full load; per
  * slice the server process's user + system CPU time (all threads, from /proc/<pid>/stat) divided by the
  * requests answered. CPU per request is far less sensitive to other work on a shared machine than
- * requests per second, which is printed beside it. Medians over the slices.
+ * requests per second, which is printed beside it. Medians over the slices. Then, per side, p99 latency at a
+ * fixed 100 requests per second (`--fixed-seconds`, default 5; 0 leaves it out), alternating A and B as well.
+ * With a baseline build as A (an earlier commit served from its own worktree and database), this is the
+ * issue-8 comparison "against today" made in one run on one machine.
  */
 import { execFileSync } from 'node:child_process';
 import { readFileSync } from 'node:fs';
@@ -29,6 +32,7 @@ const SLICES = Math.min(Number(arg('slices', '3')), 10);
 const SECONDS = Math.min(Number(arg('seconds', '4')), 15);
 const CONNECTIONS = Math.min(Number(arg('connections', '16')), 64);
 const ONLY = arg('only', '')!;
+const FIXED_SECONDS = Math.min(Number(arg('fixed-seconds', '5')), 15);
 const TICKS = Number(execFileSync('getconf', ['CLK_TCK']).toString().trim()) || 100;
 
 /** The pid listening on the URL's port. */
@@ -72,7 +76,7 @@ async function accounts(base: URL): Promise<{ demo: string[]; all: string[] }> {
 const cookies = { A: await accounts(sides.A), B: await accounts(sides.B) };
 const pids = { A: pidOf(sides.A), B: pidOf(sides.B) };
 
-async function slice(side: 'A' | 'B', target: (typeof targets)[number], seconds: number) {
+async function slice(side: 'A' | 'B', target: (typeof targets)[number], seconds: number, overallRate?: number) {
   let next = 0;
   const before = cpuMs(pids[side]);
   const result = await autocannon({
@@ -82,6 +86,7 @@ async function slice(side: 'A' | 'B', target: (typeof targets)[number], seconds:
     ...(target.unique ? { idReplacement: true } : {}),
     connections: CONNECTIONS,
     duration: seconds,
+    ...(overallRate ? { overallRate } : {}),
     setupClient: (client: { setHeaders: (headers: Record<string, string>) => void }) => {
       const headers: Record<string, string> = target.body ? { 'content-type': 'application/json' } : {};
       const pool = target.who === 'all' ? cookies[side].all : cookies[side].demo;
@@ -91,14 +96,14 @@ async function slice(side: 'A' | 'B', target: (typeof targets)[number], seconds:
   } as autocannon.Options);
   const cpu = cpuMs(pids[side]) - before;
   const answered = result.requests.total;
-  return { cpuPerRequest: answered ? cpu / answered : NaN, rps: result.requests.average, p50: result.latency.p50, non2xx: result.non2xx };
+  return { cpuPerRequest: answered ? cpu / answered : NaN, rps: result.requests.average, p50: result.latency.p50, p99: result.latency.p99, non2xx: result.non2xx };
 }
 
 const median = (values: number[]) => [...values].sort((a, b) => a - b)[Math.floor(values.length / 2)]!;
 console.log(`load-compare: A ${sides.A.origin} (pid ${pids.A}), B ${sides.B.origin} (pid ${pids.B}); ${SLICES} × ${SECONDS} s slices, ${CONNECTIONS} connections`);
 console.log(`load-compare: ${new Date().toISOString()}, load average ${os.loadavg().map((v) => v.toFixed(1)).join(' ')} before`);
-console.log('| route | A CPU ms/req | B CPU ms/req | A/B | A rps | B rps | non-2xx A/B |');
-console.log('|---|---|---|---|---|---|---|');
+console.log('| route | A CPU ms/req | B CPU ms/req | A/B | A rps | B rps | B/A rps | A p99 ms at 100 rps | B p99 ms at 100 rps | non-2xx A/B |');
+console.log('|---|---|---|---|---|---|---|---|---|---|');
 for (const target of targets) {
   await slice('A', target, 2);
   await slice('B', target, 2);
@@ -106,11 +111,16 @@ for (const target of targets) {
   for (let i = 0; i < SLICES; i++) {
     for (const side of (i % 2 ? ['B', 'A'] : ['A', 'B']) as ('A' | 'B')[]) runs[side].push(await slice(side, target, SECONDS));
   }
+  const fixed: Partial<Record<'A' | 'B', Awaited<ReturnType<typeof slice>>>> = {};
+  if (FIXED_SECONDS > 0) for (const side of ['A', 'B'] as const) fixed[side] = await slice(side, target, FIXED_SECONDS, 100);
   const cpuA = median(runs.A.map((r) => r.cpuPerRequest));
   const cpuB = median(runs.B.map((r) => r.cpuPerRequest));
-  const non2xx = (side: 'A' | 'B') => runs[side].reduce((sum, r) => sum + r.non2xx, 0);
+  const rpsA = median(runs.A.map((r) => r.rps));
+  const rpsB = median(runs.B.map((r) => r.rps));
+  const non2xx = (side: 'A' | 'B') => runs[side].reduce((sum, r) => sum + r.non2xx, 0) + (fixed[side]?.non2xx ?? 0);
+  const p99 = (side: 'A' | 'B') => (fixed[side] ? String(fixed[side].p99) : '—');
   console.log(
-    `| ${target.label} | ${cpuA.toFixed(2)} | ${cpuB.toFixed(2)} | ${(cpuA / cpuB).toFixed(2)}× | ${median(runs.A.map((r) => r.rps)).toFixed(0)} | ${median(runs.B.map((r) => r.rps)).toFixed(0)} | ${non2xx('A')}/${non2xx('B')} |`,
+    `| ${target.label} | ${cpuA.toFixed(2)} | ${cpuB.toFixed(2)} | ${(cpuA / cpuB).toFixed(2)}× | ${rpsA.toFixed(0)} | ${rpsB.toFixed(0)} | ${(rpsB / rpsA).toFixed(2)}× | ${p99('A')} | ${p99('B')} | ${non2xx('A')}/${non2xx('B')} |`,
   );
 }
 console.log(`load-compare: load average ${os.loadavg().map((v) => v.toFixed(1)).join(' ')} after`);
