@@ -59,7 +59,7 @@ case "${1:-}" in
     # The other part: expressions compiled to functions on SI floats for the samples.
     MUTATE="lib/engine/uncertainty/numeric.ts"
     TESTS="tests/engine/uncertainty/numeric.test.ts,tests/engine/uncertainty/reference-cases.test.ts,tests/engine/uncertainty/stream.test.ts" ;;
-  plumbing-units|plumbing-expression|plumbing-expression-a|plumbing-expression-b|plumbing-evaluate|plumbing-evaluate-a|plumbing-evaluate-b|plumbing-evaluate-c)
+  plumbing-units|plumbing-expression|plumbing-expression-a|plumbing-expression-b|plumbing-evaluate|plumbing-evaluate-a|plumbing-evaluate-a1|plumbing-evaluate-a2|plumbing-evaluate-graph|plumbing-evaluate-b|plumbing-evaluate-b1|plumbing-evaluate-b2|plumbing-evaluate-c)
     # The engine's plumbing (units, the expression language, evaluation), each part with its fast unit tests
     # (the 10,000-expression fuzz test is left out: it takes seconds even uninstrumented).
     E=lib/engine; TE=tests/engine; PR="tests/engine/published-checks.test.ts,tests/engine/registry.test.ts"
@@ -87,13 +87,31 @@ case "${1:-}" in
       # helpers, typical ranges and the cost estimate.
       plumbing-evaluate-a)
         MUTATE="$E/document.ts,$E/graph.ts,$E/canonical-json.ts,$E/errors.ts,$E/dataset.ts,$E/dataset-input.ts"
-        TESTS="$TE/document.test.ts,$TE/graph.test.ts,$TE/canonical-json.test.ts,$TE/dataset-input.test.ts,$TE/evaluate-plumbing.test.ts" ;;
-      plumbing-evaluate-b)
-        MUTATE="$E/evaluate.ts,$E/results-document.ts,$E/block-evaluation.ts,$E/prepare.ts,$E/block-run.ts,$E/index.ts"
-        TESTS="$TE/document.test.ts,$TE/graph.test.ts,$TE/incremental.test.ts,$TE/limits.test.ts,$TE/dataset-input.test.ts,$TE/demo-sheets.test.ts,$TE/trust/*.test.ts,$TE/expression.test.ts,$TE/evaluate-plumbing.test.ts,$PR" ;;
+        TESTS="$TE/document.test.ts,$TE/graph.test.ts,$TE/canonical-json.test.ts,$TE/dataset-input.test.ts,$TE/evaluate-plumbing.test.ts,$TE/data-reference.test.ts" ;;
+      # -a and -b are too large for one short session at about 5 mutants a minute (-a: about 730 runtime
+      # mutants, -b: about 790), so each has parts: -a1 errors and data references (about 110), -graph the
+      # dependency graph (about 100), -a2 the document and canonical JSON (about 510); -b1 the run, prepare, the
+      # results document and the public entry points (about 350), -b2 one block's evaluation and block-run.ts
+      # (about 450).
+      plumbing-evaluate-a1)
+        MUTATE="$E/errors.ts,$E/dataset.ts,$E/dataset-input.ts"
+        TESTS="$TE/graph.test.ts,$TE/dataset-input.test.ts,$TE/evaluate-plumbing.test.ts,$TE/data-reference.test.ts" ;;
+      plumbing-evaluate-graph)
+        MUTATE="$E/graph.ts"
+        TESTS="$TE/graph.test.ts,$TE/evaluate-plumbing.test.ts" ;;
+      plumbing-evaluate-a2)
+        MUTATE="$E/document.ts,$E/canonical-json.ts"
+        TESTS="$TE/document.test.ts,$TE/canonical-json.test.ts,$TE/evaluate-plumbing.test.ts" ;;
+      plumbing-evaluate-b|plumbing-evaluate-b1|plumbing-evaluate-b2)
+        case "$1" in
+          plumbing-evaluate-b) MUTATE="$E/evaluate.ts,$E/results-document.ts,$E/block-evaluation.ts,$E/prepare.ts,$E/block-run.ts,$E/index.ts" ;;
+          plumbing-evaluate-b1) MUTATE="$E/evaluate.ts,$E/results-document.ts,$E/prepare.ts,$E/index.ts" ;;
+          plumbing-evaluate-b2) MUTATE="$E/block-evaluation.ts,$E/block-run.ts" ;;
+        esac
+        TESTS="$TE/document.test.ts,$TE/graph.test.ts,$TE/incremental.test.ts,$TE/limits.test.ts,$TE/dataset-input.test.ts,$TE/demo-sheets.test.ts,$TE/trust/*.test.ts,$TE/expression.test.ts,$TE/evaluate-plumbing.test.ts,$TE/evaluation-run.test.ts,$PR" ;;
       plumbing-evaluate-c)
         MUTATE="$E/cost.ts,$E/typical-ranges.ts,$E/registry.ts,$E/block-type.ts"
-        TESTS="$TE/cost.test.ts,$TE/trust/plausibility.test.ts,$TE/evaluate-plumbing.test.ts,$PR" ;;
+        TESTS="$TE/cost.test.ts,$TE/cost-plumbing.test.ts,$TE/trust/plausibility.test.ts,$TE/evaluate-plumbing.test.ts,$PR" ;;
     esac ;;
   uncertainty-pass|uncertainty-pass-propagate|uncertainty-pass-sampling|uncertainty-pass-spread)
     # The pass itself (plan, sampling, spreads, the stream), with the fast tests written for it (a few ms each:
@@ -127,7 +145,7 @@ case "${1:-}" in
       solver-erf-fit-b) MUTATE="$N/erf-fit.ts:221-343"; TESTS="$TN/erf-fit.test.ts" ;;
       solver-diffusion) MUTATE="$N/diffusion-1d.ts"; TESTS="$TN/diffusion-1d.test.ts" ;;
     esac ;;
-  *) echo "usage: $0 first-release|scarp-channel|tectonic|orogen-nuclide|geotherm-strength|flexure-closure|data|data-channel|data-scarp-fit|data-profile|data-profile-a|data-profile-run|uncertainty|uncertainty-statistics|uncertainty-distributions|uncertainty-numeric|plumbing-units|plumbing-expression|plumbing-expression-a|plumbing-expression-b|plumbing-evaluate|plumbing-evaluate-a|plumbing-evaluate-b|plumbing-evaluate-c|uncertainty-pass|uncertainty-pass-propagate|uncertainty-pass-sampling|uncertainty-pass-spread|solver-erf|solver-erf-fit|solver-erf-fit-a|solver-erf-fit-p|solver-erf-fit-b|solver-diffusion" >&2; exit 2 ;;
+  *) echo "usage: $0 first-release|scarp-channel|tectonic|orogen-nuclide|geotherm-strength|flexure-closure|data|data-channel|data-scarp-fit|data-profile|data-profile-a|data-profile-run|uncertainty|uncertainty-statistics|uncertainty-distributions|uncertainty-numeric|plumbing-units|plumbing-expression|plumbing-expression-a|plumbing-expression-b|plumbing-evaluate|plumbing-evaluate-a|plumbing-evaluate-a1|plumbing-evaluate-a2|plumbing-evaluate-graph|plumbing-evaluate-b|plumbing-evaluate-b1|plumbing-evaluate-b2|plumbing-evaluate-c|uncertainty-pass|uncertainty-pass-propagate|uncertainty-pass-sampling|uncertainty-pass-spread|solver-erf|solver-erf-fit|solver-erf-fit-a|solver-erf-fit-p|solver-erf-fit-b|solver-diffusion" >&2; exit 2 ;;
 esac
 export DENUDATA_MUTATION_TESTS="$TESTS" DENUDATA_MUTATION_REPORT="$1"
 exec nice -n 15 npx stryker run --incremental --mutate "$MUTATE" ${@:2}

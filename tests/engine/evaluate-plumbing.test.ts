@@ -54,6 +54,32 @@ describe('engine errors (errors.ts)', () => {
     expect(toSafeMessage('a string')).toBe('the expression could not be evaluated');
     expect(toSafeMessage(undefined)).toBe('the expression could not be evaluated');
   });
+
+  it('should read mathjs type errors only when the whole pattern matches (the message texts of mathjs 15, from memory)', () => {
+    // A function whose name starts with "to" is not the conversion `to`.
+    expect(toSafeMessage(new TypeError('Unexpected type of argument in function tooth (expected: number, actual: string, index: 0)'))).toBe(
+      'tooth: input 1 should be number, not string',
+    );
+    // Indexes of two digits, several expected types.
+    expect(toSafeMessage(new TypeError('Unexpected type of argument in function max (expected: number or BigNumber or Unit, actual: boolean, index: 12)'))).toBe(
+      'max: input 13 should be number or BigNumber or Unit, not boolean',
+    );
+    // Only at the start of the message.
+    expect(toSafeMessage(new TypeError('Note: Unexpected type of argument in function to (expected: Unit, actual: number, index: 0)'))).toBe(
+      'Note: Unexpected type of argument in function to (expected: Unit, actual: number, index: 0)',
+    );
+    expect(toSafeMessage(new TypeError('Unexpected type of argument in function sqrt (expected: number, actual: string, index: x)'))).toBe(
+      'Unexpected type of argument in function sqrt (expected: number, actual: string, index: x)',
+    );
+    // Stack overflows in any capitalisation, and only as RangeErrors.
+    expect(toSafeMessage(new RangeError('Maximum CALL STACK size exceeded'))).toBe('the expression is nested too deeply');
+    expect(toSafeMessage(new Error('Maximum call stack size exceeded'))).toBe('Maximum call stack size exceeded');
+    expect(toSafeMessage(new Error(`${'y'.repeat(299)}\nz`))).toBe('y'.repeat(299));
+  });
+
+  it('should keep the position and other details through an input error', () => {
+    expect(new InputError('x', 'bad', { position: 4, given: '2 s' })).toMatchObject({ position: 4, given: '2 s', input: 'x', message: 'x: bad' });
+  });
 });
 
 /** A small deterministic generator (a linear congruential generator, Numerical Recipes constants). */
