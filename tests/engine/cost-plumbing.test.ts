@@ -75,9 +75,9 @@ describe('the cost estimate of a sheet (cost.ts)', () => {
   });
 
   it('should cost a Monte Carlo sheet N samples × 0.03 of every block downstream of a distribution, in any document order', () => {
-    // Document order c, b, a: c reads b reads a (uncertain); d reads nothing uncertain; e is a note.
+    // Document order c, b, a: c reads b (which reads a, uncertain) and d; d reads nothing uncertain; e is a note.
     const blocks: Block[] = [
-      formula('c', 'b.value * 2'),
+      formula('c', 'b.value * 2 + d.value'),
       formula('b', 'a.x + 1 m'),
       { name: 'a', type: 'quantities', inputs: { x: 'normal(1 m, 0.1 m)', y: '2 m' } },
       formula('d', '5 m'),
@@ -87,8 +87,8 @@ describe('the cost estimate of a sheet (cost.ts)', () => {
     expect(estimateEvaluationCost(sheet(blocks, { samples: 1000 }))).toBeCloseTo(4 + 1000 * 3 * 0.03, 9);
     // The default is 10,000 samples (CONTRACT §8.2).
     expect(estimateEvaluationCost(sheet(blocks))).toBeCloseTo(4 + 10_000 * 3 * 0.03, 9);
-    // A reference written with spaces before the dot still counts.
-    expect(estimateEvaluationCost(sheet([{ name: 'a', type: 'quantities', inputs: { x: 'uniform(1, 2)' } }, formula('g', 'a .x * 2')], { samples: 100 }))).toBeCloseTo(
+    // A reference after an operator, written with a space before the dot, still counts.
+    expect(estimateEvaluationCost(sheet([{ name: 'a', type: 'quantities', inputs: { x: 'uniform(1, 2)' } }, formula('g', '2 * a .x')], { samples: 100 }))).toBeCloseTo(
       2 + 100 * 2 * 0.03,
       9,
     );
