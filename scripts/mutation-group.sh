@@ -108,7 +108,7 @@ case "${1:-}" in
           plumbing-evaluate-b1) MUTATE="$E/evaluate.ts,$E/results-document.ts,$E/prepare.ts,$E/index.ts" ;;
           plumbing-evaluate-b2) MUTATE="$E/block-evaluation.ts,$E/block-run.ts" ;;
         esac
-        TESTS="$TE/document.test.ts,$TE/graph.test.ts,$TE/incremental.test.ts,$TE/limits.test.ts,$TE/dataset-input.test.ts,$TE/demo-sheets.test.ts,$TE/trust/*.test.ts,$TE/expression.test.ts,$TE/evaluate-plumbing.test.ts,$TE/evaluation-run.test.ts,$PR" ;;
+        TESTS="$TE/document.test.ts,$TE/graph.test.ts,$TE/incremental.test.ts,$TE/limits.test.ts,$TE/dataset-input.test.ts,$TE/demo-sheets.test.ts,$TE/trust/*.test.ts,$TE/expression.test.ts,$TE/evaluate-plumbing.test.ts,$TE/evaluation-run.test.ts,$TE/block-run.test.ts,$PR" ;;
       plumbing-evaluate-c)
         MUTATE="$E/cost.ts,$E/typical-ranges.ts,$E/registry.ts,$E/block-type.ts"
         TESTS="$TE/cost.test.ts,$TE/cost-plumbing.test.ts,$TE/trust/plausibility.test.ts,$TE/evaluate-plumbing.test.ts,$PR" ;;
