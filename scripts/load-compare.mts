@@ -10,7 +10,7 @@
  * slice the server process's user + system CPU time (all threads, from /proc/<pid>/stat) divided by the
  * requests answered. CPU per request is far less sensitive to other work on a shared machine than
  * requests per second, which is printed beside it. Medians over the slices. Then, per side, p99 latency at a
- * fixed 100 requests per second (`--fixed-seconds`, default 5; 0 leaves it out), alternating A and B as well.
+ * fixed 100 requests per second, open loop (`--fixed-seconds`, default 5; 0 leaves it out).
  * With a baseline build as A (an earlier commit served from its own worktree and database), this is the
  * issue-8 comparison "against today" made in one run on one machine.
  */
@@ -18,7 +18,7 @@ import { execFileSync } from 'node:child_process';
 import { readFileSync } from 'node:fs';
 import os from 'node:os';
 import autocannon from 'autocannon';
-import { LOAD_TARGETS, signIn as signInAt } from './load-support.mjs';
+import { LOAD_TARGETS, openLoop, signIn as signInAt } from './load-support.mjs';
 
 const arg = (name: string, fallback?: string) => {
   const index = process.argv.indexOf(`--${name}`);
@@ -76,7 +76,7 @@ async function accounts(base: URL): Promise<{ demo: string[]; all: string[] }> {
 const cookies = { A: await accounts(sides.A), B: await accounts(sides.B) };
 const pids = { A: pidOf(sides.A), B: pidOf(sides.B) };
 
-async function slice(side: 'A' | 'B', target: (typeof targets)[number], seconds: number, overallRate?: number) {
+async function slice(side: 'A' | 'B', target: (typeof targets)[number], seconds: number) {
   let next = 0;
   const before = cpuMs(pids[side]);
   const result = await autocannon({
@@ -86,7 +86,6 @@ async function slice(side: 'A' | 'B', target: (typeof targets)[number], seconds:
     ...(target.unique ? { idReplacement: true } : {}),
     connections: CONNECTIONS,
     duration: seconds,
-    ...(overallRate ? { overallRate } : {}),
     setupClient: (client: { setHeaders: (headers: Record<string, string>) => void }) => {
       const headers: Record<string, string> = target.body ? { 'content-type': 'application/json' } : {};
       const pool = target.who === 'all' ? cookies[side].all : cookies[side].demo;
@@ -96,7 +95,7 @@ async function slice(side: 'A' | 'B', target: (typeof targets)[number], seconds:
   } as autocannon.Options);
   const cpu = cpuMs(pids[side]) - before;
   const answered = result.requests.total;
-  return { cpuPerRequest: answered ? cpu / answered : NaN, rps: result.requests.average, p50: result.latency.p50, p99: result.latency.p99, non2xx: result.non2xx };
+  return { cpuPerRequest: answered ? cpu / answered : NaN, rps: result.requests.average, p50: result.latency.p50, non2xx: result.non2xx };
 }
 
 const median = (values: number[]) => [...values].sort((a, b) => a - b)[Math.floor(values.length / 2)]!;
@@ -111,8 +110,13 @@ for (const target of targets) {
   for (let i = 0; i < SLICES; i++) {
     for (const side of (i % 2 ? ['B', 'A'] : ['A', 'B']) as ('A' | 'B')[]) runs[side].push(await slice(side, target, SECONDS));
   }
-  const fixed: Partial<Record<'A' | 'B', Awaited<ReturnType<typeof slice>>>> = {};
-  if (FIXED_SECONDS > 0) for (const side of ['A', 'B'] as const) fixed[side] = await slice(side, target, FIXED_SECONDS, 100);
+  const fixed: Partial<Record<'A' | 'B', Awaited<ReturnType<typeof openLoop>>>> = {};
+  if (FIXED_SECONDS > 0) {
+    for (const side of ['A', 'B'] as const) {
+      const pool = target.who === 'none' ? [] : target.who === 'all' ? cookies[side].all : cookies[side].demo;
+      fixed[side] = await openLoop(new URL(target.path, sides[side]), { rate: 100, seconds: FIXED_SECONDS, method: target.method, body: target.body, unique: target.unique, cookies: pool });
+    }
+  }
   const cpuA = median(runs.A.map((r) => r.cpuPerRequest));
   const cpuB = median(runs.B.map((r) => r.cpuPerRequest));
   const rpsA = median(runs.A.map((r) => r.rps));

@@ -2,6 +2,7 @@
  * What the two load scripts share (scripts/load.mts and scripts/load-compare.mts): signing in through
  * next-auth's credentials route, the 50-block chained sheet, and the routes they measure.
  */
+import { Agent, request } from 'node:http';
 
 export const DEMO_SHEET_ID = '0d3a7e10-5c2b-4f6a-8e1d-000000000001';
 
@@ -72,3 +73,66 @@ export const LOAD_TARGETS: LoadTarget[] = [
   },
   { label: 'sheet page HTML', path: `/sheets/${DEMO_SHEET_ID}`, who: 'demo' },
 ];
+
+export interface OpenLoopFigures {
+  p50: number;
+  p99: number;
+  /** Answers that were not 2xx (and requests that failed outright). */
+  non2xx: number;
+  rateLimited: number;
+  count: number;
+}
+
+/**
+ * Latency at a fixed request rate, measured open loop: request k is due at start + k / rate and is sent when
+ * due, whatever the earlier ones are doing (keep-alive sockets, at most `sockets` at once; a request that must
+ * wait for a socket waits on the clock). Latency runs from the due time to the end of the answer's body, so a
+ * slow answer is never hidden by sending less (the "coordinated omission" correction of wrk2; common practice
+ * in load testing). autocannon's own fixed rate (`overallRate`) is not used for this: spread over 16
+ * connections it sends in bursts, and against a plain Node.js server answering in well under a millisecond it
+ * reported a p99 of 31–51 ms at 100 requests/s, where this measures about 6 ms (DEVELOPERS.md, "Load figures").
+ */
+export async function openLoop(
+  url: URL,
+  options: { rate: number; seconds: number; method?: string; body?: string; unique?: boolean; cookies: string[]; sockets?: number },
+): Promise<OpenLoopFigures> {
+  const agent = new Agent({ keepAlive: true, maxSockets: options.sockets ?? 64 });
+  const total = Math.max(1, Math.round(options.rate * options.seconds));
+  const interval = 1000 / options.rate;
+  const latencies: number[] = [];
+  let non2xx = 0;
+  let rateLimited = 0;
+  const start = performance.now() + 20;
+  const one = (k: number, due: number) =>
+    new Promise<void>((resolve) => {
+      const body = options.body === undefined ? undefined : options.unique ? options.body.replace('[<id>]', `${Date.now().toString(36)}-${k}`) : options.body;
+      const headers: Record<string, string> = {};
+      if (body !== undefined) headers['content-type'] = 'application/json';
+      if (options.cookies.length > 0) headers.cookie = options.cookies[k % options.cookies.length]!;
+      const finish = (status: number) => {
+        latencies.push(performance.now() - due);
+        if (status < 200 || status > 299) non2xx += 1;
+        if (status === 429) rateLimited += 1;
+        resolve();
+      };
+      const req = request(url, { method: options.method ?? 'GET', headers, agent }, (response) => {
+        response.resume();
+        response.on('end', () => finish(response.statusCode ?? 0));
+        response.on('error', () => finish(0));
+      });
+      req.on('error', () => finish(0));
+      req.end(body);
+    });
+  const pending: Promise<void>[] = [];
+  for (let k = 0; k < total; k++) {
+    const due = start + k * interval;
+    const wait = due - performance.now();
+    if (wait > 0) await new Promise((resolve) => setTimeout(resolve, wait));
+    pending.push(one(k, due));
+  }
+  await Promise.all(pending);
+  agent.destroy();
+  latencies.sort((a, b) => a - b);
+  const at = (q: number) => latencies[Math.min(latencies.length - 1, Math.ceil(q * latencies.length) - 1)]!;
+  return { p50: Math.round(at(0.5) * 10) / 10, p99: Math.round(at(0.99) * 10) / 10, non2xx, rateLimited, count: latencies.length };
+}

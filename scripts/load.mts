@@ -5,8 +5,8 @@
  *
  * Signs in as the four demo accounts and as extra accounts it signs up (when sign-up is not rate
  * limited), spreads the connections over them so that per-user limits distort nothing, and prints,
- * for each route, requests per second with p50/p99 latency at full load, then p99 at a fixed
- * 100 requests per second. First it finds out whether rate limits are on (eleven wrong passwords for
+ * for each route, requests per second with p50/p99 latency at full load (autocannon), then p99 at a fixed
+ * 100 requests per second, measured open loop (`openLoop` in load-support.mts). First it finds out whether rate limits are on (eleven wrong passwords for
  * one made-up account: the eleventh is 429 only when they are) and says so; it counts non-2xx answers,
  * prints the machine's load average before and after (figures on a busy machine are not comparable
  * with a quiet one's) and ends with the password-reset medians for a known and an unknown address.
@@ -15,7 +15,7 @@
  */
 import os from 'node:os';
 import autocannon from 'autocannon';
-import { LOAD_TARGETS, signIn as signInAt, type LoadTarget } from './load-support.mjs';
+import { LOAD_TARGETS, openLoop, signIn as signInAt, type LoadTarget } from './load-support.mjs';
 
 const base = new URL(process.env.DENUDATA_APP_URL ?? 'http://127.0.0.1:3000');
 if (!['127.0.0.1', 'localhost', '[::1]'].includes(base.hostname)) {
@@ -75,7 +75,7 @@ interface Figures {
   rateLimited: number;
 }
 
-async function measure(target: LoadTarget, cookies: string[], overallRate?: number, duration = DURATION): Promise<Figures> {
+async function measure(target: LoadTarget, cookies: string[], duration = DURATION): Promise<Figures> {
   let next = 0;
   let rateLimited = 0;
   const result = await autocannon({
@@ -86,7 +86,6 @@ async function measure(target: LoadTarget, cookies: string[], overallRate?: numb
     headers: target.body ? { 'content-type': 'application/json' } : {},
     connections: CONNECTIONS,
     duration,
-    ...(overallRate ? { overallRate } : {}),
     setupClient: (client: { setHeaders: (headers: Record<string, string>) => void }) => {
       const headers: Record<string, string> = target.body ? { 'content-type': 'application/json' } : {};
       if (cookies.length > 0) headers.cookie = cookies[next++ % cookies.length]!;
@@ -126,9 +125,9 @@ let anyRateLimited = false;
 const only = process.argv.includes('--only') ? process.argv[process.argv.indexOf('--only') + 1] ?? '' : '';
 for (const target of targets.filter((t) => t.label.includes(only))) {
   const cookies = target.who === 'none' ? [] : target.who === 'demo' ? demo : [...demo, ...extra];
-  await measure(target, cookies, undefined, 2); // warm-up (worker threads, module loading), not recorded
+  await measure(target, cookies, 2); // warm-up (worker threads, module loading), not recorded
   const full = await measure(target, cookies);
-  const fixed = await measure(target, cookies, 100);
+  const fixed = await openLoop(new URL(target.path, base), { rate: 100, seconds: DURATION, method: target.method, body: target.body, unique: target.unique, cookies });
   if (full.rateLimited + fixed.rateLimited > 0) anyRateLimited = true;
   console.log(
     `| ${target.label} | ${full.rps.toFixed(0)} | ${full.p50} | ${full.p99} | ${fixed.p99} | ${full.non2xx + fixed.non2xx} |`,
