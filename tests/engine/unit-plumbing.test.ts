@@ -185,6 +185,19 @@ describe('formatting a result (formatValue)', () => {
   });
 });
 
+describe('the fixed unit system', () => {
+  it('should refuse to change the unit system, and keep showing products in SI (NIST SP 811 B.8: ft^2 = 0.09290304 m^2)', () => {
+    const unitClass = math.Unit as unknown as { setUnitSystem(name: string): void };
+    for (const system of ['us', 'cgs', 'si', 'auto']) {
+      expect(engineError(() => unitClass.setUnitSystem(system)).message, system).toBe('the unit system of the engine is fixed (SI)');
+    }
+    // After the refused calls a product is still shown in SI: 6 ft^2 = 0.55741824 m^2, not ft^2.
+    const area = formatValue(evaluate('2 ft * 3 ft'), undefined);
+    expect(area.unit).toBe('m^2');
+    expect(area.value).toBeCloseTo(0.55741824, 14);
+  });
+});
+
 describe('input coercion (coerceInput)', () => {
   it('should convert quantities of the declared dimension to SI (SI Brochure §2.3.1 and §3)', () => {
     expect(coerceInput('x', 'length', evaluate('30 km'))).toEqual({ si: 30_000, dimensions: [0, 1, 0, 0, 0, 0, 0, 0, 0] });
@@ -213,6 +226,11 @@ describe('input coercion (coerceInput)', () => {
     expect(coerceInput('s', 'slope', evaluate('89 deg')).si).toBeCloseTo(57.28996163075943, 10);
     expect(coerceInput('s', 'slope', math.unit(5, 'mm/m'))).toEqual({ si: 0.005, dimensions: [0, 0, 0, 0, 0, 0, 0, 0, 0] });
     expect(coerceInput('s', 'dimensionless', math.unit(5, 'mm/m'))).toEqual({ si: 0.005, dimensions: [0, 0, 0, 0, 0, 0, 0, 0, 0] });
+    // An angle rate (deg/s) or a solid angle (rad^2) is not an angle: refused as another kind, not read with tan.
+    for (const [text, given] of [['2 deg/s', '2 deg / s'], ['0.1 rad^2', '0.1 rad^2']]) {
+      const error = engineError(() => coerceInput('s', 'slope', evaluate(text)));
+      expect(error.message, text).toBe(`s: expected a slope (a gradient such as 0.2, or an angle such as 25 deg), got ${given}`);
+    }
     for (const angle of ['90 deg', '-90 deg', '100 deg']) {
       const error = engineError(() => coerceInput('s', 'slope', evaluate(angle)));
       expect(error.message).toBe(`s: an angle of 90° or more is not a slope (got ${angle}); give an angle between -90° and 90°, or a gradient`);
@@ -248,7 +266,9 @@ describe('input coercion (coerceInput)', () => {
     const bare = engineError(() => coerceInput('q', 'length', math.unit('km')));
     expect(bare.message).toBe('q: expected a value with its unit, got the unit km alone');
     expect(bare.input).toBe('q');
-    expect(engineError(() => coerceInput('q', 'slope', Infinity)).message).toBe('q: the value is not finite (Infinity)');
+    const infinite = engineError(() => coerceInput('q', 'slope', Infinity));
+    expect(infinite.message).toBe('q: the value is not finite (Infinity)');
+    expect(infinite.input).toBe('q');
     expect(engineError(() => coerceInput('q', 'length', NaN)).message).toBe('q: the value is not finite (NaN)');
     const overflow = engineError(() => coerceInput('q', 'area', evaluate('1e300 km * 1e300 km')));
     expect(overflow.message).toBe('q: the value is not finite');
