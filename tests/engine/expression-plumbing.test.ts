@@ -2,7 +2,8 @@ import { isMatrix, matrix } from 'mathjs';
 import { describe, expect, it } from 'vitest';
 import { engineError } from '../support/engine-error';
 import { EngineError } from '@/lib/engine/errors';
-import { checkExpression, math, reservedNameReason } from '@/lib/engine/expression';
+import '@/lib/engine';
+import { checkExpression, defineExpressionFunction, isExpressionFunction, math, parseUnitText, reservedNameReason } from '@/lib/engine/expression';
 import { checkNesting, MAX_NESTING_DEPTH } from '@/lib/engine/expression-language';
 import { explainParseError, rewriteNaturalInput } from '@/lib/engine/natural-input';
 import { findControlCharacter, safeText } from '@/lib/engine/text';
@@ -449,5 +450,74 @@ describe('the locked instance and the expression checks (expression.ts)', () => 
     const first = checkExpression('2 * 21');
     expect(checkExpression('2 * 21')).toBe(first);
     expect(first.evaluate(new Map())).toBe(42);
+  });
+
+  it('should check and keep more than one text at a time', () => {
+    const first = checkExpression('2 * 21');
+    const other = checkExpression('3 * 7');
+    expect(checkExpression('2 * 21')).toBe(first);
+    expect(checkExpression('3 * 7')).toBe(other);
+    expect(other.evaluate(new Map())).toBe(21);
+  });
+
+  it('should refuse nesting deeper than 160 parts (four times the bracket depth), counting every level', () => {
+    // 160 unary minus signs are 161 levels of parts (the number is the 161st): an even count gives back 1.
+    expect(run(`${'-'.repeat(160)}1`)).toBe(1);
+    expect(run(`${'-'.repeat(159)}1`)).toBe(-1);
+    expect(refusal(`${'-'.repeat(161)}1`)).toBe('the expression is nested too deeply');
+    expect(refusal(`${'-'.repeat(1999)}1`)).toBe('the expression is nested too deeply');
+    expect(refusal(`2${'^2'.repeat(999)}`)).toBe('the expression is nested too deeply');
+  });
+
+  it('should count a range by its span and step, rounding down (mathjs 15 range)', () => {
+    // range(0, 99999.5) holds 0, 1, …, 99999: exactly 100 000 elements, at the cap.
+    expect(run('range(0, 99999.5)')).toEqual([100_000]);
+    expect(run('range(0.5, 100000)')).toEqual([100_000]);
+    expect(refusal('range(0, 100000.5)')).toBe('range: a matrix may hold at most 100000 elements (asked for 100001)');
+  });
+
+  it('should bound the locked instance itself, not only what expressions reach (CONTRACT §3)', () => {
+    const locked = math as unknown as Record<string, (...args: unknown[]) => unknown>;
+    expect(engineError(() => locked.matrix!(new Array(100_001).fill(0))).message).toBe('matrix: a matrix may hold at most 100000 elements (asked for 100001)');
+    expect(locked.size!(locked.matrix!(new Array(100_000).fill(0)))).toEqual([100_000]);
+    expect(engineError(() => locked.ones!(100_001)).message).toBe('ones: a matrix may hold at most 100000 elements (asked for 100001)');
+    expect(engineError(() => locked.zeros!([400, 251])).message).toBe('zeros: a matrix may hold at most 100000 elements (asked for 100400)');
+    expect(engineError(() => locked.identity!(317)).message).toBe('identity: a matrix may hold at most 100000 elements (asked for 100489)');
+    expect(engineError(() => locked.parse!('1 + 1')).message).toBe('the function "parse" is not available in Denudata expressions');
+    expect(engineError(() => locked.normal!(1, 2)).message).toBe('a distribution must be the whole expression of an input');
+  });
+
+  it('should say which names are engine functions, and define each once (the first definition stays)', () => {
+    expect(isExpressionFunction('dataset')).toBe(true);
+    expect(isExpressionFunction('peclet_number')).toBe(true);
+    expect(isExpressionFunction('sqrt')).toBe(false);
+    expect(isExpressionFunction('normal')).toBe(false);
+    expect(isExpressionFunction('hill')).toBe(false);
+    defineExpressionFunction('dataset', () => 42);
+    expect(refusal('dataset("abc")')).toBe('dataset(…) can only be the whole input of a data input (data of scarp_fit, profile_evolution or channel_march)');
+    // A new engine function is reserved, callable and size-checked like every other.
+    defineExpressionFunction('plumbing_probe', (n: unknown) => 'x'.repeat(n as number));
+    defineExpressionFunction('plumbing_probe', () => 'second');
+    expect(isExpressionFunction('plumbing_probe')).toBe(true);
+    expect(reservedNameReason('plumbing_probe')).toBe('"plumbing_probe" is a block type\'s function in expressions');
+    expect(run('plumbing_probe(3)')).toBe('xxx');
+    expect(refusal('plumbing_probe(1001)')).toBe('plumbing_probe: the text would be 1001 characters long, over the limit of 1000 characters in a string value');
+    expect(refusal('plumbing_probe + 1')).toBe('"plumbing_probe" can only be called as a function, such as plumbing_probe(x)');
+  });
+
+  it('should read a unit text as a unit, or give null for anything else and for texts over 200 characters', () => {
+    const rate = parseUnitText('mm/yr')!;
+    expect(rate.value).toBeNull();
+    // 1 mm/yr = 1e-3 m / 31 557 600 s (the Julian year, CONTRACT §3).
+    expect(parseUnitText('1 mm/yr')!.toNumber('m/s') / (1e-3 / 31_557_600)).toBeCloseTo(1, 14);
+    expect(rate.equalBase(math.unit('m/s'))).toBe(true);
+    expect(parseUnitText('furlongs')).toBeNull();
+    expect(parseUnitText('m/')).toBeNull();
+    // mathjs reads an empty text as the empty unit (no parts, no value); dataset-units.ts refuses a blank text first.
+    expect(parseUnitText('')!.equalBase(math.unit('m/m'))).toBe(true);
+    expect(parseUnitText('m'.padEnd(200, ' '))!.equalBase(math.unit('m'))).toBe(true);
+    expect(parseUnitText('m'.padEnd(201, ' '))).toBeNull();
+    // A quantity is read too (dataset-units.ts refuses it by its value).
+    expect(parseUnitText('3 m')!.value).toBe(3);
   });
 });
