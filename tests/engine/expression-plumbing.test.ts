@@ -467,6 +467,10 @@ describe('the locked instance and the expression checks (expression.ts)', () => 
     expect(refusal(`${'-'.repeat(161)}1`)).toBe('the expression is nested too deeply');
     expect(refusal(`${'-'.repeat(1999)}1`)).toBe('the expression is nested too deeply');
     expect(refusal(`2${'^2'.repeat(999)}`)).toBe('the expression is nested too deeply');
+    // A function call's arguments are one level deeper too: 10 calls around 149 or 150 minus signs.
+    const calls = (minus: number) => `${'abs('.repeat(10)}${'-'.repeat(minus)}2${')'.repeat(10)}`;
+    expect(run(calls(150))).toBe(2);
+    expect(refusal(calls(151))).toBe('the expression is nested too deeply');
   });
 
   it('should count a range by its span and step, rounding down (mathjs 15 range)', () => {
