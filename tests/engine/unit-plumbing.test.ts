@@ -227,7 +227,7 @@ describe('input coercion (coerceInput)', () => {
     expect(coerceInput('s', 'slope', math.unit(5, 'mm/m'))).toEqual({ si: 0.005, dimensions: [0, 0, 0, 0, 0, 0, 0, 0, 0] });
     expect(coerceInput('s', 'dimensionless', math.unit(5, 'mm/m'))).toEqual({ si: 0.005, dimensions: [0, 0, 0, 0, 0, 0, 0, 0, 0] });
     // An angle rate (deg/s) or a solid angle (rad^2) is not an angle: refused as another kind, not read with tan.
-    for (const [text, given] of [['2 deg/s', '2 deg / s'], ['0.1 rad^2', '0.1 rad^2']]) {
+    for (const [text, given] of [['2 deg/s', '2 deg / s'], ['0.1 rad^2', '0.1 rad^2']] as const) {
       const error = engineError(() => coerceInput('s', 'slope', evaluate(text)));
       expect(error.message, text).toBe(`s: expected a slope (a gradient such as 0.2, or an angle such as 25 deg), got ${given}`);
     }
