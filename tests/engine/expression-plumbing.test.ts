@@ -104,6 +104,13 @@ describe('nesting (checkNesting)', () => {
     expect(() => checkNesting(`${'('.repeat(21)}${'}'.repeat(21)}${'['.repeat(21)}`)).not.toThrow();
   });
 
+  it('should count only brackets, whatever stands between them', () => {
+    const spaced = (depth: number) => `${'(1 + '.repeat(depth)}1${')'.repeat(depth)}`;
+    expect(() => checkNesting(spaced(40))).not.toThrow();
+    expect(engineError(() => checkNesting(spaced(41))).message).toBe('the expression is nested more than 40 levels deep');
+    expect(() => checkNesting(`${'[a, '.repeat(41)}1${']'.repeat(41)}`)).toThrow(EngineError);
+  });
+
   it('should not count brackets inside quoted text, either quote, with escaped quotes', () => {
     expect(() => checkNesting(`"${'('.repeat(50)}"`)).not.toThrow();
     expect(() => checkNesting(`'${'['.repeat(50)}'`)).not.toThrow();
@@ -350,6 +357,11 @@ describe('the locked instance and the expression checks (expression.ts)', () => 
     expect(() => run('zeros(-400, -400)')).toThrow(/positive integers/);
     expect(() => run('identity(-400, -400)')).toThrow(/positive integers/);
     expect(run('matrix([[1, 2], [3, 4]])')).toEqual([2, 2]);
+    // A size with a unit, or a list holding text, is refused in the constructor's own name.
+    expect(refusal('ones(2 m)')).toBe('ones: expects plain numbers for sizes');
+    expect(refusal('zeros(2, 2 m)')).toBe('zeros: expects plain numbers for sizes');
+    expect(refusal('identity(2 m)')).toBe('identity: expects plain numbers for sizes');
+    expect(refusal('ones([2, "x"])')).toBe('ones: expects plain numbers for sizes');
   });
 
   it('should bound ranges by their count, refusing a zero step and anything but plain numbers', () => {
@@ -387,6 +399,11 @@ describe('the locked instance and the expression checks (expression.ts)', () => 
     expect(checked.nestedDistribution).toBe(false);
     expect(checked.text).toBe('a.b + a.b * c.d + foo + bar2 * foo + km + pi');
     expect(checkExpression('x[1]').freeSymbols).toEqual(['x']);
+    // The words null and undefined are constants without a length: checked like numbers, never measured as text.
+    expect(checkExpression('null').freeSymbols).toEqual([]);
+    expect(run('null')).toBeNull();
+    expect(run('undefined')).toBeUndefined();
+    expect(run('[true, false, null]')).toEqual([3]);
     expect(checkExpression('(f)(2)').freeSymbols).toEqual(['f']);
   });
 
