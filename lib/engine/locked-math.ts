@@ -38,6 +38,8 @@ const original = {
   zeros: math.zeros as unknown as AnyFunction,
   identity: math.identity as unknown as AnyFunction,
   range: math.range as unknown as AnyFunction,
+  /** mathjs's range for expressions: it includes the end unless told otherwise (`1:4` is [1, 2, 3, 4]). */
+  rangeTransform: (math as unknown as { expression: { transform: Record<string, AnyFunction> } }).expression.transform.range!,
   matrix: math.matrix as unknown as AnyFunction,
   add: math.add as unknown as AnyFunction,
   subtract: math.subtract as unknown as AnyFunction,
@@ -49,6 +51,29 @@ export const builtInNames = new Set(Object.keys(math));
 /* ---------------------------------------------------------- size limits */
 // Constructors are bounded before they allocate (value-size.ts); every other function is wrapped
 // by sizeChecked in the lockdown below.
+/**
+ * A range bounded by its element count before it is built. mathjs's namespace `range(start, end[, step])`
+ * leaves out the end; in expressions (its transform, as `1:4` too) the end is included unless a last
+ * boolean says otherwise: `range(1, 4)` is [1, 2, 3, 4], `range(1, 4, false)` [1, 2, 3]. The count is
+ * floor(span) + 1 with the end, ceil(span) without, span = (end − start) / step (0 when the step points away
+ * from the end). The result is checked again after it is built (sizeChecked), so a rounding of one element
+ * here cannot pass the cap.
+ */
+function boundedRange(build: AnyFunction, endByDefault: boolean): AnyFunction {
+  return (...args) => {
+    if (args.some((a) => typeof a !== 'number' && typeof a !== 'boolean')) {
+      throw new EngineError('range: expects plain numbers, as range(start, end) or range(start, end, step)');
+    }
+    const last = args.length > 2 && typeof args[args.length - 1] === 'boolean' ? (args[args.length - 1] as boolean) : undefined;
+    const [start, end, step = 1] = (last === undefined ? args : args.slice(0, -1)).map(Number);
+    if (step === 0) throw new EngineError('range: the step must not be zero');
+    const span = (end! - start!) / step;
+    const includeEnd = last ?? endByDefault;
+    assertElementCount('range', span >= 0 ? (includeEnd ? Math.floor(span) + 1 : Math.ceil(span)) : 0);
+    return build(...args);
+  };
+}
+
 const boundedConstructors: Record<string, AnyFunction> = {
   ones: (...args) => {
     assertElementCount('ones', flattenSizes('ones', args).reduce((a, b) => a * Math.max(0, b), 1));
@@ -64,15 +89,7 @@ const boundedConstructors: Record<string, AnyFunction> = {
     assertElementCount('identity', count);
     return original.identity(...args);
   },
-  range: (...args) => {
-    if (args.some((a) => typeof a !== 'number' && typeof a !== 'boolean')) {
-      throw new EngineError('range: expects plain numbers, as range(start, end) or range(start, end, step)');
-    }
-    const [start, end, step = 1] = args as number[];
-    if (step === 0) throw new EngineError('range: the step must not be zero');
-    assertElementCount('range', Math.floor(Math.abs((end! - start!) / step)) + 1);
-    return original.range(...args);
-  },
+  range: Object.assign(boundedRange(original.range, false), { transform: boundedRange(original.rangeTransform, true) }),
   matrix: (...args) => {
     assertElementCount('matrix', countElements(args[0]));
     return original.matrix(...args);

@@ -7,7 +7,13 @@ import type { SheetBlock, SheetDocument } from './document';
 import type { FormattedOutput } from './unit-format';
 import type { Spread, UncertaintyEcho } from './uncertainty/plan';
 
-export const ENGINE_VERSION = '1.0.0';
+/**
+ * The engine's semver, in every results document. It keys the caches of earlier results (incremental evaluation,
+ * long runs, report verification), so a change that alters any result raises it. 1.0.1: ranges in expressions
+ * include their end, as in mathjs (`1:4` is [1, 2, 3, 4]); profile_evolution's Newton stopping rule allows for the
+ * rounding of elevations far from 0 m.
+ */
+export const ENGINE_VERSION = '1.0.1';
 /** CONTRACT §3 Limits: the size of a results document (UTF-8 bytes of its JSON). */
 export const MAX_RESULTS_BYTES = 16 * 1024 * 1024;
 /** Room kept for the envelope (format, hash, engine) and the block names as keys. */

@@ -1,4 +1,4 @@
-import { isMatrix, matrix } from 'mathjs';
+import { all, create, isMatrix, matrix, type FactoryFunctionMap } from 'mathjs';
 import { describe, expect, it } from 'vitest';
 import { engineError } from '../support/engine-error';
 import { EngineError } from '@/lib/engine/errors';
@@ -365,18 +365,36 @@ describe('the locked instance and the expression checks (expression.ts)', () => 
   });
 
   it('should bound ranges by their count, refusing a zero step and anything but plain numbers', () => {
-    expect(run('range(0, 99999)')).toEqual([99_999]);
-    expect(run('range(0, 99999, 1)')).toEqual([99_999]);
-    expect(run('0:99999')).toEqual([99_999]);
+    // In expressions a range includes its end (mathjs 15, "Expression syntax", Ranges: `1:4` and range(1, 4)
+    // are [1, 2, 3, 4]); a last `false` leaves the end out. 0 … 99 999 is exactly the cap of 100 000.
+    expect(run('range(0, 99999)')).toEqual([100_000]);
+    expect(run('range(0, 99999, 1)')).toEqual([100_000]);
+    expect(run('0:99999')).toEqual([100_000]);
+    expect(run('range(0, 100000, false)')).toEqual([100_000]);
+    expect(run('range(0, 100000, 1, false)')).toEqual([100_000]);
     expect(refusal('range(0, 100000)')).toBe('range: a matrix may hold at most 100000 elements (asked for 100001)');
+    expect(refusal('0:100000')).toBe('range: a matrix may hold at most 100000 elements (asked for 100001)');
+    expect(refusal('range(0, 100001, false)')).toBe('range: a matrix may hold at most 100000 elements (asked for 100001)');
     expect(refusal('range(100000, 0, -1)')).toBe('range: a matrix may hold at most 100000 elements (asked for 100001)');
     expect(refusal('range(0, 20, 0.0002)')).toBe('range: a matrix may hold at most 100000 elements (asked for 100001)');
-    expect(run('range(0, 1, 0.0001)')).toEqual([10_000]);
-    expect(run('range(5, 0, -1)')).toEqual([5]);
-    expect(run('range(true, 3)')).toEqual([2]);
+    expect(run('range(0, 1, 0.0001)')).toEqual([10_001]);
+    expect(run('range(5, 0, -1)')).toEqual([6]);
+    expect(run('range(true, 3)')).toEqual([3]);
+    expect(run('range(1, 0)')).toEqual([0]);
     expect(refusal('range(0, 10, 0)')).toBe('range: the step must not be zero');
     expect(refusal('range("1", 5)')).toBe('range: expects plain numbers, as range(start, end) or range(start, end, step)');
     expect(refusal('range(1, 5 m)')).toBe('range: expects plain numbers, as range(start, end) or range(start, end, step)');
+  });
+
+  it('should give the ranges mathjs gives in expressions, end included (reference: an unlocked mathjs instance)', () => {
+    const reference = create(all as FactoryFunctionMap);
+    for (const text of ['1:4', 'range(1, 4)', 'range(1, 4, 2)', 'range(1, 4, false)', 'range(1, 4, 1, false)', 'range(4, 1, -1)', 'range(true, 3)', 'range(0, 1, 0.25)', '2:-1:-2', 'range(1, 1)', 'range(1, 0)', 'range(0, 0.3, 0.1)']) {
+      const ours = checkExpression(text).evaluate(new Map()) as { toArray(): number[] };
+      const theirs = reference.evaluate(text) as { toArray(): number[] };
+      expect(ours.toArray(), text).toEqual(theirs.toArray());
+    }
+    // The namespace function (not reached by expressions) keeps mathjs's end-exclusive form.
+    expect((math.range(1, 4) as unknown as { toArray(): number[] }).toArray()).toEqual([1, 2, 3]);
   });
 
   it('should say why a name is reserved, in order: words, units, engine functions, distributions, built-ins', () => {
@@ -491,10 +509,13 @@ describe('the locked instance and the expression checks (expression.ts)', () => 
   });
 
   it('should count a range by its span and step, rounding down (mathjs 15 range)', () => {
-    // range(0, 99999.5) holds 0, 1, …, 99999: exactly 100 000 elements, at the cap.
+    // range(0, 99998.5) holds 0, 1, …, 99998 with its end included: 99 999 elements; the half-step is never reached.
+    expect(run('range(0, 99998.5)')).toEqual([99_999]);
     expect(run('range(0, 99999.5)')).toEqual([100_000]);
     expect(run('range(0.5, 100000)')).toEqual([100_000]);
+    expect(run('range(0, 99999.5, false)')).toEqual([100_000]);
     expect(refusal('range(0, 100000.5)')).toBe('range: a matrix may hold at most 100000 elements (asked for 100001)');
+    expect(refusal('range(0, 100000.5, false)')).toBe('range: a matrix may hold at most 100000 elements (asked for 100001)');
   });
 
   it('should bound the locked instance itself, not only what expressions reach (CONTRACT §3)', () => {
