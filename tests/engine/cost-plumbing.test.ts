@@ -45,6 +45,8 @@ describe('the cost estimate of a sheet (cost.ts)', () => {
     expect(estimateEvaluationCost(sheet([{ type: 'note', inputs: {} }]))).toBe(0);
     expect(estimateEvaluationCost(sheet([{ type: 'note', inputs: {} }, formula('a', '1 m')]))).toBe(1);
     expect(estimateEvaluationCost(sheet([{ type: 'no_such_type', inputs: {} }, formula('a', '1 m')]))).toBe(1);
+    // The estimate never throws, even for a block of an unknown type holding a distribution (0 units, sampled at 0).
+    expect(estimateEvaluationCost(sheet([{ type: 'no_such_type', inputs: { x: 'normal(1, 0.1)' } }, formula('a', '1 m')], { samples: 100 }))).toBe(1);
   });
 
   it("should add a type's own estimate, and 1 unit when it cannot tell, throws, is below 1 or is not finite", () => {
