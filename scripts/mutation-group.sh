@@ -59,7 +59,7 @@ case "${1:-}" in
     # The other part: expressions compiled to functions on SI floats for the samples.
     MUTATE="lib/engine/uncertainty/numeric.ts"
     TESTS="tests/engine/uncertainty/numeric.test.ts,tests/engine/uncertainty/reference-cases.test.ts,tests/engine/uncertainty/stream.test.ts" ;;
-  plumbing-units|plumbing-expression|plumbing-expression-a|plumbing-expression-b|plumbing-evaluate|plumbing-evaluate-a|plumbing-evaluate-a1|plumbing-evaluate-a2|plumbing-evaluate-graph|plumbing-evaluate-b|plumbing-evaluate-b1|plumbing-evaluate-b2|plumbing-evaluate-c)
+  plumbing-units|plumbing-expression|plumbing-expression-a|plumbing-expression-b|plumbing-evaluate|plumbing-evaluate-a|plumbing-evaluate-a1|plumbing-evaluate-a2|plumbing-evaluate-canonical|plumbing-evaluate-document|plumbing-evaluate-graph|plumbing-evaluate-b|plumbing-evaluate-b1|plumbing-evaluate-b2|plumbing-evaluate-c)
     # The engine's plumbing (units, the expression language, evaluation), each part with its fast unit tests
     # (the 10,000-expression fuzz test is left out: it takes seconds even uninstrumented).
     E=lib/engine; TE=tests/engine; PR="tests/engine/published-checks.test.ts,tests/engine/registry.test.ts"
@@ -101,6 +101,14 @@ case "${1:-}" in
         TESTS="$TE/graph.test.ts,$TE/evaluate-plumbing.test.ts" ;;
       plumbing-evaluate-a2)
         MUTATE="$E/document.ts,$E/canonical-json.ts"
+        TESTS="$TE/document.test.ts,$TE/canonical-json.test.ts,$TE/evaluate-plumbing.test.ts" ;;
+      # -a2's parts: canonical JSON alone (about 130 mutants; without document.test.ts, whose sheet evaluations
+      # reach every mutant through the document hash) and the document (about 380).
+      plumbing-evaluate-canonical)
+        MUTATE="$E/canonical-json.ts"
+        TESTS="$TE/canonical-json.test.ts,$TE/evaluate-plumbing.test.ts" ;;
+      plumbing-evaluate-document)
+        MUTATE="$E/document.ts"
         TESTS="$TE/document.test.ts,$TE/canonical-json.test.ts,$TE/evaluate-plumbing.test.ts" ;;
       plumbing-evaluate-b|plumbing-evaluate-b1|plumbing-evaluate-b2)
         case "$1" in
@@ -145,7 +153,7 @@ case "${1:-}" in
       solver-erf-fit-b) MUTATE="$N/erf-fit.ts:221-343"; TESTS="$TN/erf-fit.test.ts" ;;
       solver-diffusion) MUTATE="$N/diffusion-1d.ts"; TESTS="$TN/diffusion-1d.test.ts" ;;
     esac ;;
-  *) echo "usage: $0 first-release|scarp-channel|tectonic|orogen-nuclide|geotherm-strength|flexure-closure|data|data-channel|data-scarp-fit|data-profile|data-profile-a|data-profile-run|uncertainty|uncertainty-statistics|uncertainty-distributions|uncertainty-numeric|plumbing-units|plumbing-expression|plumbing-expression-a|plumbing-expression-b|plumbing-evaluate|plumbing-evaluate-a|plumbing-evaluate-a1|plumbing-evaluate-a2|plumbing-evaluate-graph|plumbing-evaluate-b|plumbing-evaluate-b1|plumbing-evaluate-b2|plumbing-evaluate-c|uncertainty-pass|uncertainty-pass-propagate|uncertainty-pass-sampling|uncertainty-pass-spread|solver-erf|solver-erf-fit|solver-erf-fit-a|solver-erf-fit-p|solver-erf-fit-b|solver-diffusion" >&2; exit 2 ;;
+  *) echo "usage: $0 first-release|scarp-channel|tectonic|orogen-nuclide|geotherm-strength|flexure-closure|data|data-channel|data-scarp-fit|data-profile|data-profile-a|data-profile-run|uncertainty|uncertainty-statistics|uncertainty-distributions|uncertainty-numeric|plumbing-units|plumbing-expression|plumbing-expression-a|plumbing-expression-b|plumbing-evaluate|plumbing-evaluate-a|plumbing-evaluate-a1|plumbing-evaluate-a2|plumbing-evaluate-canonical|plumbing-evaluate-document|plumbing-evaluate-graph|plumbing-evaluate-b|plumbing-evaluate-b1|plumbing-evaluate-b2|plumbing-evaluate-c|uncertainty-pass|uncertainty-pass-propagate|uncertainty-pass-sampling|uncertainty-pass-spread|solver-erf|solver-erf-fit|solver-erf-fit-a|solver-erf-fit-p|solver-erf-fit-b|solver-diffusion" >&2; exit 2 ;;
 esac
 export DENUDATA_MUTATION_TESTS="$TESTS" DENUDATA_MUTATION_REPORT="$1"
 exec nice -n 15 npx stryker run --incremental --mutate "$MUTATE" ${@:2}

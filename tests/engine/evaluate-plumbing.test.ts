@@ -37,6 +37,10 @@ describe('engine errors (errors.ts)', () => {
 
   it('should turn anything thrown into a short, safe message', () => {
     expect(toSafeMessage(new EngineError('an engine message'))).toBe('an engine message');
+    // An engine message is already safe: kept whole, however long, on several lines or padded.
+    const long = `  block "b", ${'x'.repeat(400)}\nsecond line`;
+    expect(toSafeMessage(new EngineError(long))).toBe(long);
+    expect(toSafeMessage(new InputError('k', ''))).toBe('k: ');
     expect(toSafeMessage(new RangeError('Maximum call stack size exceeded'))).toBe('the expression is nested too deeply');
     expect(toSafeMessage(new RangeError('Invalid array length'))).toBe('Invalid array length');
     expect(toSafeMessage(new TypeError('Unexpected type of argument in function to (expected: Unit, actual: number, index: 0)'))).toBe(
