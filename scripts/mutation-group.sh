@@ -59,7 +59,7 @@ case "${1:-}" in
     # The other part: expressions compiled to functions on SI floats for the samples.
     MUTATE="lib/engine/uncertainty/numeric.ts"
     TESTS="tests/engine/uncertainty/numeric.test.ts,tests/engine/uncertainty/reference-cases.test.ts,tests/engine/uncertainty/stream.test.ts" ;;
-  plumbing-units|plumbing-expression|plumbing-expression-a|plumbing-expression-b|plumbing-evaluate|plumbing-evaluate-a|plumbing-evaluate-a1|plumbing-evaluate-a2|plumbing-evaluate-canonical|plumbing-evaluate-document|plumbing-evaluate-graph|plumbing-evaluate-b|plumbing-evaluate-b1|plumbing-evaluate-b2|plumbing-evaluate-c)
+  plumbing-units|plumbing-expression|plumbing-expression-a|plumbing-expression-b|plumbing-evaluate|plumbing-evaluate-a|plumbing-evaluate-a1|plumbing-evaluate-a2|plumbing-evaluate-canonical|plumbing-evaluate-document|plumbing-evaluate-graph|plumbing-evaluate-b|plumbing-evaluate-b1|plumbing-evaluate-b2|plumbing-evaluate-run|plumbing-evaluate-c)
     # The engine's plumbing (units, the expression language, evaluation), each part with its fast unit tests
     # (the 10,000-expression fuzz test is left out: it takes seconds even uninstrumented).
     E=lib/engine; TE=tests/engine; PR="tests/engine/published-checks.test.ts,tests/engine/registry.test.ts"
@@ -117,6 +117,11 @@ case "${1:-}" in
           plumbing-evaluate-b2) MUTATE="$E/block-evaluation.ts,$E/block-run.ts" ;;
         esac
         TESTS="$TE/document.test.ts,$TE/graph.test.ts,$TE/incremental.test.ts,$TE/limits.test.ts,$TE/dataset-input.test.ts,$TE/demo-sheets.test.ts,$TE/trust/*.test.ts,$TE/expression.test.ts,$TE/evaluate-plumbing.test.ts,$TE/evaluation-run.test.ts,$TE/block-run.test.ts,$PR" ;;
+      # A part of -b1 that fits a short session, with the tests aimed at it only (the sheet-wide suites of -b's
+      # list reach every one of its mutants): the run and the results document (about 140 mutants).
+      plumbing-evaluate-run)
+        MUTATE="$E/evaluate.ts,$E/results-document.ts"
+        TESTS="$TE/evaluation-run.test.ts,$TE/incremental.test.ts,$TE/limits.test.ts,$TE/graph.test.ts,$TE/dataset-input.test.ts" ;;
       plumbing-evaluate-c)
         MUTATE="$E/cost.ts,$E/typical-ranges.ts,$E/registry.ts,$E/block-type.ts"
         TESTS="$TE/cost.test.ts,$TE/cost-plumbing.test.ts,$TE/trust/plausibility.test.ts,$TE/evaluate-plumbing.test.ts,$PR" ;;
@@ -153,7 +158,7 @@ case "${1:-}" in
       solver-erf-fit-b) MUTATE="$N/erf-fit.ts:221-343"; TESTS="$TN/erf-fit.test.ts" ;;
       solver-diffusion) MUTATE="$N/diffusion-1d.ts"; TESTS="$TN/diffusion-1d.test.ts" ;;
     esac ;;
-  *) echo "usage: $0 first-release|scarp-channel|tectonic|orogen-nuclide|geotherm-strength|flexure-closure|data|data-channel|data-scarp-fit|data-profile|data-profile-a|data-profile-run|uncertainty|uncertainty-statistics|uncertainty-distributions|uncertainty-numeric|plumbing-units|plumbing-expression|plumbing-expression-a|plumbing-expression-b|plumbing-evaluate|plumbing-evaluate-a|plumbing-evaluate-a1|plumbing-evaluate-a2|plumbing-evaluate-canonical|plumbing-evaluate-document|plumbing-evaluate-graph|plumbing-evaluate-b|plumbing-evaluate-b1|plumbing-evaluate-b2|plumbing-evaluate-c|uncertainty-pass|uncertainty-pass-propagate|uncertainty-pass-sampling|uncertainty-pass-spread|solver-erf|solver-erf-fit|solver-erf-fit-a|solver-erf-fit-p|solver-erf-fit-b|solver-diffusion" >&2; exit 2 ;;
+  *) echo "usage: $0 first-release|scarp-channel|tectonic|orogen-nuclide|geotherm-strength|flexure-closure|data|data-channel|data-scarp-fit|data-profile|data-profile-a|data-profile-run|uncertainty|uncertainty-statistics|uncertainty-distributions|uncertainty-numeric|plumbing-units|plumbing-expression|plumbing-expression-a|plumbing-expression-b|plumbing-evaluate|plumbing-evaluate-a|plumbing-evaluate-a1|plumbing-evaluate-a2|plumbing-evaluate-canonical|plumbing-evaluate-document|plumbing-evaluate-graph|plumbing-evaluate-b|plumbing-evaluate-b1|plumbing-evaluate-b2|plumbing-evaluate-run|plumbing-evaluate-c|uncertainty-pass|uncertainty-pass-propagate|uncertainty-pass-sampling|uncertainty-pass-spread|solver-erf|solver-erf-fit|solver-erf-fit-a|solver-erf-fit-p|solver-erf-fit-b|solver-diffusion" >&2; exit 2 ;;
 esac
 export DENUDATA_MUTATION_TESTS="$TESTS" DENUDATA_MUTATION_REPORT="$1"
 exec nice -n 15 npx stryker run --incremental --mutate "$MUTATE" ${@:2}
