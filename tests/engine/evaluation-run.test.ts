@@ -34,7 +34,7 @@ function refusal(run: () => unknown): string {
 
 describe('the results document (results-document.ts)', () => {
   it('should count the UTF-8 bytes of a block entry as Buffer.byteLength does (RFC 3629)', () => {
-    const texts = ['plain', '\u007f', '\u0080', 'é', '\u07ff', '\u0800', '€', '\ud7ff', '\ue000', '\uffff', '😀', '\ud800\udc00', '\udbff\udfff', 'a😀b€c\u0080'];
+    const texts = ['plain', '\u007f', '\u0080', 'é', '\u07ff', '\u0800', '€', '\ud7ff', '\ue000', '\uffff', '😀', '\ud800\udc00', '\udbff\udfff', 'a😀b€c\u0080', '€€', 'é€é', '\u0800\u07ff\uffff\uffff'];
     for (const text of texts) {
       const result: BlockResult = { id: text, type: 'formula', status: 'ok', warnings: [text], outputs: {} };
       const expected = Buffer.byteLength(JSON.stringify(text), 'utf8') + Buffer.byteLength(JSON.stringify(result), 'utf8') + 2;
