@@ -1,9 +1,9 @@
 import { describe, expect, it } from 'vitest';
 import type { BlockOutcome, BlockTypeDefinition, InputSpec, OutputSpec } from '@/lib/engine/block-type';
 import { checkOutcome, coerceBlockInput, coerceBlockInputs, collectCallWarnings, describeChoices, formatBlockOutput, isNonQuantityInput, runBlockType } from '@/lib/engine/block-run';
-import { EngineError } from '@/lib/engine/errors';
 import { checkExpression, math } from '@/lib/engine/expression';
 import { getBlockType } from '@/lib/engine/registry';
+import { engineError } from '../support/engine-error';
 
 // Running a block type on evaluated values (block-run.ts), with hand-made input declarations: the range rules
 // (an inclusive limit admits the limit itself, an exclusive one does not: the usual meaning of ≤ and <, common
@@ -13,15 +13,7 @@ import { getBlockType } from '@/lib/engine/registry';
 const spec = (extra: Partial<InputSpec>): InputSpec => ({ name: 'x', label: 'x', dimension: 'length', help: '', ...extra });
 const metres = (v: number) => math.unit(v, 'm');
 
-function refusal(run: () => unknown): EngineError {
-  try {
-    run();
-  } catch (error) {
-    expect(error).toBeInstanceOf(EngineError);
-    return error as EngineError;
-  }
-  throw new Error('expected a refusal');
-}
+const refusal = engineError;
 
 describe('input ranges (coerceBlockInput)', () => {
   it('should admit an inclusive limit and refuse an exclusive one, on both sides', () => {

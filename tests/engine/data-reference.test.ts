@@ -1,7 +1,7 @@
 import { describe, expect, it } from 'vitest';
 import { hashDataset, type DatasetCanonical } from '@/lib/engine/dataset';
 import { DATA_INPUT_RULE, DatasetReference, parseDataInput, resolveDataset } from '@/lib/engine/dataset-input';
-import { EngineError } from '@/lib/engine/errors';
+import { engineError } from '../support/engine-error';
 
 // Data references on their own (dataset-input.ts, CONTRACT "Additions" §1 and §7.6): the exact text of a data
 // input, the resolution of a hash in the lookup, and the conversion of each column to SI. References: the
@@ -27,15 +27,7 @@ const longProfile = (): DatasetCanonical => ({
   ],
 });
 
-function refusal(run: () => unknown): EngineError {
-  try {
-    run();
-  } catch (error) {
-    expect(error).toBeInstanceOf(EngineError);
-    return error as EngineError;
-  }
-  throw new Error('expected a refusal');
-}
+const refusal = engineError;
 
 describe('the text of a data input (parseDataInput)', () => {
   it('should take exactly dataset("<64 lowercase hex>") with optional white space around the call and inside the parentheses', () => {
