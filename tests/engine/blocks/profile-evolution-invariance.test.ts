@@ -1,8 +1,6 @@
 import { describe, expect, it } from 'vitest';
-import { BlockFailure, type BlockOutcome, type InputValues, type OtherInputs } from '@/lib/engine/block-type';
+import { BlockFailure, type BlockOutcome, type InputValues } from '@/lib/engine/block-type';
 import { short } from '@/lib/engine/blocks/data-shared';
-import { profileEvolution } from '@/lib/engine/blocks/profile-evolution';
-import type { ResolvedDataset } from '@/lib/engine/dataset-input';
 
 // One run of profile_evolution called directly (inputs in SI), checked by properties a correct run must have
 // whatever its numbers:
@@ -20,37 +18,11 @@ import type { ResolvedDataset } from '@/lib/engine/dataset-input';
 //   relief, and a refusal from |S| ≥ S_c, where the nonlinear flux has no finite value).
 // Every value is computed inside its test (tests/support/per-test.ts explains why).
 
-const YEAR = 365.25 * 24 * 3600;
-const DIMENSIONLESS = [0, 0, 0, 0, 0, 0, 0, 0, 0];
-const q = (si: number) => ({ si, dimensions: DIMENSIONLESS });
-const stepOther = (boundary = 'fixed'): OtherInputs => ({ text: { boundary }, flags: {}, data: {} });
+import { YEAR, dataOther, q, run, thrown, value } from '../../support/profile-evolution';
 
-function dataOther(xs: number[], zs: number[], boundary = 'fixed'): OtherInputs {
-  const data: ResolvedDataset = {
-    sha256: 'ab'.repeat(32),
-    kind: 'slope_profile',
-    count: xs.length,
-    columns: { distance: Float64Array.from(xs), elevation: Float64Array.from(zs) },
-    declaredUnits: { distance: 'm', elevation: 'm' },
-  };
-  return { text: { boundary }, flags: {}, data: { data } };
-}
 
-const run = (inputs: InputValues, other: OtherInputs = stepOther()) => profileEvolution.evaluate!(inputs, other) as BlockOutcome;
-const value = (outcome: BlockOutcome, name: string): number => {
-  const output = outcome.outputs[name]!;
-  if (!('si' in output)) throw new Error(`${name} is not a number`);
-  return output.si;
-};
 
-function thrown(fn: () => unknown): Error {
-  try {
-    fn();
-  } catch (error) {
-    if (error instanceof Error) return error;
-  }
-  throw new Error('nothing was thrown');
-}
+
 
 /** The factor the scheme multiplies a mode of eigenvalue λ by over the run (four quarter steps, then CN). */
 function discreteDecay(K: number, lambda: number, t: number, steps: number): number {

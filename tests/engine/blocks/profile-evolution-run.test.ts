@@ -1,7 +1,5 @@
 import { describe, expect, it } from 'vitest';
-import { BlockFailure, type BlockOutcome, type InputValues, type OtherInputs } from '@/lib/engine/block-type';
-import { profileEvolution } from '@/lib/engine/blocks/profile-evolution';
-import type { ResolvedDataset } from '@/lib/engine/dataset-input';
+import { BlockFailure, type InputValues } from '@/lib/engine/block-type';
 import { EngineError } from '@/lib/engine/errors';
 
 // One run of profile_evolution called directly (the block type's evaluate, inputs in SI): which input an error
@@ -12,39 +10,16 @@ import { EngineError } from '@/lib/engine/errors';
 // the 0.6 threshold of linear transport (Roering et al. 1999: linear diffusion fails toward 0.6–0.8).
 // Every value is computed inside its test (tests/support/per-test.ts explains why).
 
-const YEAR = 365.25 * 24 * 3600;
-const DIMENSIONLESS = [0, 0, 0, 0, 0, 0, 0, 0, 0];
-const q = (si: number) => ({ si, dimensions: DIMENSIONLESS });
-const stepOther = (boundary = 'fixed'): OtherInputs => ({ text: { boundary }, flags: {}, data: {} });
+import { YEAR, dataOther as dataColumns, q, run, stepOther, thrown, value } from '../../support/profile-evolution';
+
+/** A measured profile given as (distance, elevation) rows. */
+const dataOther = (rows: number[][], boundary = 'fixed') => dataColumns(rows.map((r) => r[0]!), rows.map((r) => r[1]!), boundary, 'ef'.repeat(32));
+
 /** K = 1 m²/kyr, t = 10 kyr (Kt = 10 m²), 2a = 2 m, b = 0.05, 100 steps. */
 const STEP: InputValues = { diffusivity: q(1e-3 / YEAR), duration: q(10000 * YEAR), vertical_offset: q(2), far_field_slope: q(0.05), steps: q(100) };
 
-function dataOther(rows: number[][], boundary = 'fixed'): OtherInputs {
-  const data: ResolvedDataset = {
-    sha256: 'ef'.repeat(32),
-    kind: 'slope_profile',
-    count: rows.length,
-    columns: { distance: Float64Array.from(rows.map((r) => r[0]!)), elevation: Float64Array.from(rows.map((r) => r[1]!)) },
-    declaredUnits: { distance: 'm', elevation: 'm' },
-  };
-  return { text: { boundary }, flags: {}, data: { data } };
-}
 
-const run = (inputs: InputValues, other: OtherInputs = stepOther()) => profileEvolution.evaluate!(inputs, other) as BlockOutcome;
-const value = (outcome: BlockOutcome, name: string): number => {
-  const output = outcome.outputs[name]!;
-  if (!('si' in output)) throw new Error(`${name} is not a number`);
-  return output.si;
-};
 
-function thrown(fn: () => unknown): Error {
-  try {
-    fn();
-  } catch (error) {
-    if (error instanceof Error) return error;
-  }
-  throw new Error('nothing was thrown');
-}
 
 describe('profile_evolution errors name their input', () => {
   it.each([

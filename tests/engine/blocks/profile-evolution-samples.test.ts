@@ -1,8 +1,7 @@
 import { erf } from 'mathjs';
 import { describe, expect, it } from 'vitest';
-import type { BlockOutcome, InputValues, OtherInputs } from '@/lib/engine/block-type';
+import type { BlockOutcome, InputValues } from '@/lib/engine/block-type';
 import { profileEvolution } from '@/lib/engine/blocks/profile-evolution';
-import type { ResolvedDataset } from '@/lib/engine/dataset-input';
 
 // profile_evolution in the uncertainty pass (CONTRACT §8.3): the grid (dx, half-width, nodes) is fixed at the
 // nominal run's in every sample, and a sample is otherwise an ordinary run. Checked against
@@ -15,27 +14,12 @@ import type { ResolvedDataset } from '@/lib/engine/dataset-input';
 // - Σ_{j=1}^{M−1} sin(πj/M) = cot(π/(2M)) (a standard trigonometric sum; from memory, checked numerically below).
 // Every value is computed inside its test (tests/support/per-test.ts explains why).
 
-const YEAR = 365.25 * 24 * 3600;
-const DIMENSIONLESS = [0, 0, 0, 0, 0, 0, 0, 0, 0];
-const q = (si: number) => ({ si, dimensions: DIMENSIONLESS });
-const stepOther = (boundary = 'fixed'): OtherInputs => ({ text: { boundary }, flags: {}, data: {} });
+import { YEAR, dataOther as dataColumns, q, stepOther, value } from '../../support/profile-evolution';
 
-function dataOther(xs: number[], zs: number[], boundary: string): OtherInputs {
-  const data: ResolvedDataset = {
-    sha256: 'cd'.repeat(32),
-    kind: 'slope_profile',
-    count: xs.length,
-    columns: { distance: Float64Array.from(xs), elevation: Float64Array.from(zs) },
-    declaredUnits: { distance: 'm', elevation: 'm' },
-  };
-  return { text: { boundary }, flags: {}, data: { data } };
-}
+const dataOther = (xs: number[], zs: number[], boundary: string) => dataColumns(xs, zs, boundary, 'cd'.repeat(32));
 
-const value = (outcome: BlockOutcome, name: string): number => {
-  const output = outcome.outputs[name]!;
-  if (!('si' in output)) throw new Error(`${name} is not a number`);
-  return output.si;
-};
+
+
 
 /** Relative L2 error of the final series against the erf solution over |x| ≤ 4√(Kt) (the contract's e). */
 function erfError(outcome: BlockOutcome, a: number, b: number, kt: number): number {

@@ -8,15 +8,9 @@ import { profileEvolution } from '@/lib/engine/blocks/profile-evolution';
 // A tolerance that does not shrink with the relief would stop Newton after one iteration on the small face.
 // Every value is computed inside its test (tests/support/per-test.ts explains why).
 
-const YEAR = 365.25 * 24 * 3600;
-const DIMENSIONLESS = [0, 0, 0, 0, 0, 0, 0, 0, 0];
-const q = (si: number) => ({ si, dimensions: DIMENSIONLESS });
+import { YEAR, q, value } from '../../support/profile-evolution';
+
 const other: OtherInputs = { text: { boundary: 'fixed' }, flags: {}, data: {} };
-const value = (outcome: BlockOutcome, name: string): number => {
-  const output = outcome.outputs[name]!;
-  if (!('si' in output)) throw new Error(`${name} is not a number`);
-  return output.si;
-};
 
 describe('profile_evolution nonlinear law at a small scale', () => {
   it('should give a 2 µm collapsed face (K scaled by 1e-12) the slopes of a 2 m one', () => {
