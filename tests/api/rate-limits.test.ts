@@ -45,12 +45,24 @@ function expectLimited(answer: { status: number; body: any; headers?: Headers },
   if (answer.headers) expect(Number(answer.headers.get('retry-after')), label).toBeGreaterThan(0);
 }
 
+/**
+ * One instance with rate limits on. In two CI-style runs on the shared development machine, one of the two
+ * instances printed "Ready" yet did not answer within 90 s (started by hand, both answer in seconds; the cause is
+ * not found). The error now carries the last answer and the instance's log; it is printed, and the start is tried
+ * once more before the suite fails.
+ */
+async function startInstance(port: number): Promise<AppInstance> {
+  const options = { port, env: { DENUDATA_RATE_LIMITS: 'on', DENUDATA_APP_URL: `http://127.0.0.1:${port}` }, quiet: true };
+  try {
+    return await startAppInstance(options);
+  } catch (error) {
+    console.warn(`rate-limits: the instance on port ${port} did not start; starting it again. ${error instanceof Error ? error.message : String(error)}`);
+    return startAppInstance(options);
+  }
+}
+
 beforeAll(async () => {
-  const started = await Promise.allSettled(
-    [basePort, basePort + 1].map((port) =>
-      startAppInstance({ port, env: { DENUDATA_RATE_LIMITS: 'on', DENUDATA_APP_URL: `http://127.0.0.1:${port}` }, quiet: true }),
-    ),
-  );
+  const started = await Promise.allSettled([basePort, basePort + 1].map((port) => startInstance(port)));
   // One instance failing to start must not leave the other running: its job workers would take later suites'
   // mail and write links to its own address.
   const failed = started.find((result) => result.status === 'rejected');
@@ -59,7 +71,7 @@ beforeAll(async () => {
     throw failed.reason;
   }
   [a, b] = started.map((result) => (result as PromiseFulfilledResult<AppInstance>).value) as [AppInstance, AppInstance];
-}, 240_000);
+}, 300_000);
 
 afterAll(async () => {
   await Promise.all([a?.stop(), b?.stop()]);

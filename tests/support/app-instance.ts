@@ -11,17 +11,22 @@ export interface AppInstance {
 
 export async function waitForApp(origin: string, child: ChildProcess, timeoutMs: number): Promise<void> {
   const deadline = Date.now() + timeoutMs;
+  // What the last try got, for the error: a status with the start of its body, or the fetch's error.
+  let last = 'no answer yet';
   while (Date.now() < deadline) {
     if (child.exitCode !== null) throw new Error(`the app exited with code ${child.exitCode}`);
     try {
-      const response = await fetch(`${origin}/api/auth/csrf`);
+      // Each try is bounded, so one stuck connection cannot use up the whole wait.
+      const response = await fetch(`${origin}/api/auth/csrf`, { signal: AbortSignal.timeout(10_000) });
       if (response.ok) return;
-    } catch {
-      // not up yet
+      last = `${response.status}: ${(await response.text()).slice(0, 300)}`;
+    } catch (error) {
+      const cause = (error as { cause?: { code?: string } }).cause?.code;
+      last = `${error instanceof Error ? error.message : String(error)}${cause ? ` (${cause})` : ''}`;
     }
     await new Promise((resolve) => setTimeout(resolve, 300));
   }
-  throw new Error(`the app did not answer on ${origin} within ${timeoutMs / 1000} s`);
+  throw new Error(`the app did not answer on ${origin} within ${timeoutMs / 1000} s (last try: ${last})`);
 }
 
 /** `next start` of the test build on 127.0.0.1:port with extra environment; stop() ends its process group. */
