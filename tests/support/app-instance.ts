@@ -9,6 +9,24 @@ export interface AppInstance {
   stop: () => Promise<void>;
 }
 
+/**
+ * Ports the Fetch standard forbids ("bad ports"): Node's fetch refuses them with "fetch failed" (cause "bad
+ * port") whatever listens there. An instance's port is moved past them.
+ */
+const FETCH_BAD_PORTS = new Set([
+  1, 7, 9, 11, 13, 15, 17, 19, 20, 21, 22, 23, 25, 37, 42, 43, 53, 69, 77, 79, 87, 95, 101, 102, 103, 104, 109, 110, 111, 113, 115,
+  117, 119, 123, 135, 137, 139, 143, 161, 179, 389, 427, 465, 512, 513, 514, 515, 526, 530, 531, 532, 540, 548, 554, 556, 563,
+  587, 601, 636, 989, 990, 993, 995, 1719, 1720, 1723, 2049, 3659, 4045, 4190, 5060, 5061, 6000, 6566, 6665, 6666, 6667, 6668,
+  6669, 6679, 6697, 10080,
+]);
+
+/** The first port from `port` on such that it and the `count − 1` after it are not fetch's bad ports. */
+export function fetchablePorts(port: number, count = 1): number {
+  let first = port;
+  while (Array.from({ length: count }, (_, i) => first + i).some((p) => FETCH_BAD_PORTS.has(p))) first += 1;
+  return first;
+}
+
 export async function waitForApp(origin: string, child: ChildProcess, timeoutMs: number): Promise<void> {
   const deadline = Date.now() + timeoutMs;
   // What the last try got, for the error: a status with the start of its body, or the fetch's error.
@@ -21,8 +39,9 @@ export async function waitForApp(origin: string, child: ChildProcess, timeoutMs:
       if (response.ok) return;
       last = `${response.status}: ${(await response.text()).slice(0, 300)}`;
     } catch (error) {
-      const cause = (error as { cause?: { code?: string } }).cause?.code;
-      last = `${error instanceof Error ? error.message : String(error)}${cause ? ` (${cause})` : ''}`;
+      const cause = (error as { cause?: { code?: string; message?: string } }).cause;
+      const why = cause?.code ?? cause?.message;
+      last = `${error instanceof Error ? error.message : String(error)}${why ? ` (${why})` : ''}`;
     }
     await new Promise((resolve) => setTimeout(resolve, 300));
   }
