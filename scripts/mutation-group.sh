@@ -59,7 +59,7 @@ case "${1:-}" in
     # The other part: expressions compiled to functions on SI floats for the samples.
     MUTATE="lib/engine/uncertainty/numeric.ts"
     TESTS="tests/engine/uncertainty/numeric.test.ts,tests/engine/uncertainty/reference-cases.test.ts,tests/engine/uncertainty/stream.test.ts" ;;
-  plumbing-units|plumbing-expression|plumbing-expression-a|plumbing-expression-b|plumbing-evaluate|plumbing-evaluate-a|plumbing-evaluate-a1|plumbing-evaluate-a2|plumbing-evaluate-canonical|plumbing-evaluate-document|plumbing-evaluate-graph|plumbing-evaluate-b|plumbing-evaluate-b1|plumbing-evaluate-b2|plumbing-evaluate-run|plumbing-evaluate-c)
+  plumbing-units|plumbing-expression|plumbing-expression-a|plumbing-expression-b|plumbing-evaluate|plumbing-evaluate-a|plumbing-evaluate-a1|plumbing-evaluate-a2|plumbing-evaluate-canonical|plumbing-evaluate-document|plumbing-evaluate-graph|plumbing-evaluate-b|plumbing-evaluate-b1|plumbing-evaluate-b2|plumbing-evaluate-prepare|plumbing-evaluate-run|plumbing-evaluate-c)
     # The engine's plumbing (units, the expression language, evaluation), each part with its fast unit tests
     # (the 10,000-expression fuzz test is left out: it takes seconds even uninstrumented).
     E=lib/engine; TE=tests/engine; PR="tests/engine/published-checks.test.ts,tests/engine/registry.test.ts"
@@ -110,11 +110,13 @@ case "${1:-}" in
       plumbing-evaluate-document)
         MUTATE="$E/document.ts"
         TESTS="$TE/document.test.ts,$TE/canonical-json.test.ts,$TE/evaluate-plumbing.test.ts" ;;
-      plumbing-evaluate-b|plumbing-evaluate-b1|plumbing-evaluate-b2)
+      # -b1's other part is -prepare (prepare.ts and the public entry points, about 210), with -b's test list.
+      plumbing-evaluate-b|plumbing-evaluate-b1|plumbing-evaluate-b2|plumbing-evaluate-prepare)
         case "$1" in
           plumbing-evaluate-b) MUTATE="$E/evaluate.ts,$E/results-document.ts,$E/block-evaluation.ts,$E/prepare.ts,$E/block-run.ts,$E/index.ts" ;;
           plumbing-evaluate-b1) MUTATE="$E/evaluate.ts,$E/results-document.ts,$E/prepare.ts,$E/index.ts" ;;
           plumbing-evaluate-b2) MUTATE="$E/block-evaluation.ts,$E/block-run.ts" ;;
+          plumbing-evaluate-prepare) MUTATE="$E/prepare.ts,$E/index.ts" ;;
         esac
         TESTS="$TE/document.test.ts,$TE/graph.test.ts,$TE/incremental.test.ts,$TE/limits.test.ts,$TE/dataset-input.test.ts,$TE/demo-sheets.test.ts,$TE/trust/*.test.ts,$TE/expression.test.ts,$TE/evaluate-plumbing.test.ts,$TE/evaluation-run.test.ts,$TE/block-run.test.ts,$PR" ;;
       # A part of -b1 that fits a short session, with the tests aimed at it only (the sheet-wide suites of -b's
@@ -158,7 +160,7 @@ case "${1:-}" in
       solver-erf-fit-b) MUTATE="$N/erf-fit.ts:221-343"; TESTS="$TN/erf-fit.test.ts" ;;
       solver-diffusion) MUTATE="$N/diffusion-1d.ts"; TESTS="$TN/diffusion-1d.test.ts" ;;
     esac ;;
-  *) echo "usage: $0 first-release|scarp-channel|tectonic|orogen-nuclide|geotherm-strength|flexure-closure|data|data-channel|data-scarp-fit|data-profile|data-profile-a|data-profile-run|uncertainty|uncertainty-statistics|uncertainty-distributions|uncertainty-numeric|plumbing-units|plumbing-expression|plumbing-expression-a|plumbing-expression-b|plumbing-evaluate|plumbing-evaluate-a|plumbing-evaluate-a1|plumbing-evaluate-a2|plumbing-evaluate-canonical|plumbing-evaluate-document|plumbing-evaluate-graph|plumbing-evaluate-b|plumbing-evaluate-b1|plumbing-evaluate-b2|plumbing-evaluate-run|plumbing-evaluate-c|uncertainty-pass|uncertainty-pass-propagate|uncertainty-pass-sampling|uncertainty-pass-spread|solver-erf|solver-erf-fit|solver-erf-fit-a|solver-erf-fit-p|solver-erf-fit-b|solver-diffusion" >&2; exit 2 ;;
+  *) echo "usage: $0 first-release|scarp-channel|tectonic|orogen-nuclide|geotherm-strength|flexure-closure|data|data-channel|data-scarp-fit|data-profile|data-profile-a|data-profile-run|uncertainty|uncertainty-statistics|uncertainty-distributions|uncertainty-numeric|plumbing-units|plumbing-expression|plumbing-expression-a|plumbing-expression-b|plumbing-evaluate|plumbing-evaluate-a|plumbing-evaluate-a1|plumbing-evaluate-a2|plumbing-evaluate-canonical|plumbing-evaluate-document|plumbing-evaluate-graph|plumbing-evaluate-b|plumbing-evaluate-b1|plumbing-evaluate-b2|plumbing-evaluate-prepare|plumbing-evaluate-run|plumbing-evaluate-c|uncertainty-pass|uncertainty-pass-propagate|uncertainty-pass-sampling|uncertainty-pass-spread|solver-erf|solver-erf-fit|solver-erf-fit-a|solver-erf-fit-p|solver-erf-fit-b|solver-diffusion" >&2; exit 2 ;;
 esac
 export DENUDATA_MUTATION_TESTS="$TESTS" DENUDATA_MUTATION_REPORT="$1"
 exec nice -n 15 npx stryker run --incremental --mutate "$MUTATE" ${@:2}

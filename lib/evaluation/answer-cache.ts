@@ -46,3 +46,38 @@ export class AnswerCache {
     return this.lru.bytes;
   }
 }
+
+/**
+ * Answers of `POST /api/quick` (their JSON text: value, units and warnings) kept by the expression's text. A
+ * quick calculation depends on nothing but that text (no data, no user setting; random numbers are not in
+ * the language), so the preview computed while the text was typed answers the same text when it is entered.
+ * Only an optimisation, bounded like AnswerCache: failures are never kept (a time limit or a full queue is no
+ * property of the text), and every check before the expression still runs.
+ */
+export class QuickAnswerCache {
+  private readonly lru: ByteBoundedLru<string, string>;
+
+  constructor(
+    readonly capacity = 1024,
+    readonly maxBytes = 4 * 1024 * 1024,
+  ) {
+    this.lru = new ByteBoundedLru(capacity, maxBytes, (answer) => answer.length);
+  }
+
+  get(expression: string): string | undefined {
+    return this.lru.get(expression);
+  }
+
+  set(expression: string, answer: string): void {
+    this.lru.set(expression, answer);
+  }
+
+  get size(): number {
+    return this.lru.size;
+  }
+
+  /** Characters held (the answers' text length; the keys are at most 2,000 characters each). */
+  get bytes(): number {
+    return this.lru.bytes;
+  }
+}

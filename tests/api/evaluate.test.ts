@@ -192,6 +192,25 @@ describe('POST /api/quick and GET /api/quick/recent', () => {
     expect(theirs.body.items.some((i: { expression: string }) => i.expression === '3 kyr to yr')).toBe(false);
   });
 
+  it('should answer a previewed text entered again with the same answer, stored once with its warnings left out', async () => {
+    const client = await signedInAs('editor');
+    // A text no other test uses, so this process has not seen it: 7.5 km / 2.5 kyr = 3 m/yr (arithmetic).
+    const expr = '7.5 km / 2.5 kyr to m/yr';
+    const preview = await client.post('/api/quick', { expr, preview: true });
+    const entered = await client.post('/api/quick', { expr });
+    expect(preview.status).toBe(200);
+    expect(entered.status).toBe(200);
+    expect(entered.body).toEqual(preview.body);
+    expectClose(entered.body.value, 3, 1e-12);
+    expect(entered.body.unit).toBe('m / yr');
+    const recent = await client.get('/api/quick/recent');
+    const stored = recent.body.items.filter((i: { expression: string }) => i.expression === expr);
+    expect(stored).toHaveLength(1);
+    expect(stored[0].result).toEqual({ value: entered.body.value, unit: 'm / yr', si: entered.body.si, siUnit: 'm / s' });
+    // A failure is not kept: the same bad text fails the same way each time, and nothing is stored.
+    for (let i = 0; i < 2; i++) expect((await client.post('/api/quick', { expr: '2 m + 3 s' })).status).toBe(400);
+  });
+
   it('should answer 401 without a session', async () => {
     expect((await new ApiClient().post('/api/quick', { expr: '1 m' })).status).toBe(401);
     expect((await new ApiClient().get('/api/quick/recent')).status).toBe(401);

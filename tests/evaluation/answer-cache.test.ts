@@ -1,5 +1,5 @@
 import { describe, expect, it } from 'vitest';
-import { AnswerCache } from '@/lib/evaluation/answer-cache';
+import { AnswerCache, QuickAnswerCache } from '@/lib/evaluation/answer-cache';
 
 describe('AnswerCache (answers of POST /api/evaluate by body text)', () => {
   it('should key a body by the SHA-256 of its text: the same text gives the same key, any change another', () => {
@@ -43,5 +43,29 @@ describe('AnswerCache (answers of POST /api/evaluate by body text)', () => {
     cache.set('k5', 'z'.repeat(10));
     expect(cache.get('k5')).toBe('z'.repeat(10));
     expect(cache.bytes).toBe(4 * 20 + 10);
+  });
+});
+
+describe('QuickAnswerCache (answers of POST /api/quick by expression text)', () => {
+  it('should key an answer by the exact expression text', () => {
+    const cache = new QuickAnswerCache();
+    cache.set('1 km to m', '{"value":1000}');
+    expect(cache.get('1 km to m')).toBe('{"value":1000}');
+    expect(cache.get('1 km to  m')).toBeUndefined();
+    expect(cache.get('1 KM to m')).toBeUndefined();
+  });
+
+  it('should stay within its entry and byte bounds and refuse an answer over a quarter of the bytes', () => {
+    const cache = new QuickAnswerCache(3, 400);
+    for (let i = 0; i < 5; i++) cache.set(`${i} m`, 'a'.repeat(50));
+    expect(cache.size).toBe(3);
+    expect(cache.get('0 m')).toBeUndefined();
+    expect(cache.get('4 m')).toBe('a'.repeat(50));
+    cache.set('big', 'b'.repeat(101));
+    expect(cache.get('big')).toBeUndefined();
+    const small = new QuickAnswerCache(100, 400);
+    for (let i = 0; i < 10; i++) small.set(`${i}`, 'c'.repeat(100));
+    expect(small.bytes).toBe(400);
+    expect(small.size).toBe(4);
   });
 });

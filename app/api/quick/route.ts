@@ -1,25 +1,39 @@
 import { requireUser } from '@/lib/auth/guard';
-import { createQuickCalculation } from '@/lib/db/quick';
-import { json, notAllowed, readJson, route } from '@/lib/http';
+import { createQuickCalculation, type QuickAnswer } from '@/lib/db/quick';
+import { jsonText, notAllowed, readJson, route } from '@/lib/http';
+import { QuickAnswerCache } from '@/lib/evaluation/answer-cache';
 import { runQuick } from '@/lib/evaluation/pool';
 import { asEvaluationError } from '@/lib/sheet/evaluation.server';
 import { consumeRateLimit } from '@/lib/rate-limit';
 import { quickBodySchema } from './schema';
+
+// Answers by expression text, one cache per process (lib/evaluation/answer-cache.ts): the palette previews an
+// expression while it is typed and then computes the same text again when it is entered.
+const globalAnswers = globalThis as unknown as { __denudataQuickAnswers?: QuickAnswerCache };
+const answers = (globalAnswers.__denudataQuickAnswers ??= new QuickAnswerCache());
 
 /** One expression → its value with units (stored in the user's recent list unless a preview). */
 export const POST = route(async (request) => {
   const user = await requireUser();
   await consumeRateLimit(['evaluationUser', user.id]);
   const { expr, preview } = await readJson(request, quickBodySchema);
-  let result;
-  try {
-    result = await runQuick(expr, { userId: user.id });
-  } catch (error) {
-    throw asEvaluationError(error);
+  let text = answers.get(expr);
+  if (text === undefined) {
+    let result;
+    try {
+      result = await runQuick(expr, { userId: user.id });
+    } catch (error) {
+      throw asEvaluationError(error);
+    }
+    const { value, unit, si, siUnit, warnings } = result;
+    text = JSON.stringify({ value, unit, si, siUnit, warnings });
+    answers.set(expr, text);
   }
-  const answer = { value: result.value, unit: result.unit, si: result.si, siUnit: result.siUnit };
-  if (!preview) await createQuickCalculation({ userId: user.id, expression: expr, result: answer });
-  return json({ ...answer, warnings: result.warnings });
+  if (!preview) {
+    const { value, unit, si, siUnit } = JSON.parse(text) as QuickAnswer;
+    await createQuickCalculation({ userId: user.id, expression: expr, result: { value, unit, si, siUnit } });
+  }
+  return jsonText(text);
 });
 
 export const { GET, PUT, PATCH, DELETE } = notAllowed('POST');
