@@ -101,7 +101,7 @@ case "${1:-}" in
         TESTS="$TE/graph.test.ts,$TE/evaluate-plumbing.test.ts" ;;
       plumbing-evaluate-a2)
         MUTATE="$E/document.ts,$E/canonical-json.ts"
-        TESTS="$TE/document.test.ts,$TE/canonical-json.test.ts,$TE/evaluate-plumbing.test.ts" ;;
+        TESTS="$TE/document.test.ts,$TE/document-checks.test.ts,$TE/canonical-json.test.ts,$TE/evaluate-plumbing.test.ts" ;;
       # -a2's parts: canonical JSON alone (about 130 mutants; without document.test.ts, whose sheet evaluations
       # reach every mutant through the document hash) and the document (about 380).
       plumbing-evaluate-canonical)
@@ -109,7 +109,7 @@ case "${1:-}" in
         TESTS="$TE/canonical-json.test.ts,$TE/evaluate-plumbing.test.ts" ;;
       plumbing-evaluate-document)
         MUTATE="$E/document.ts"
-        TESTS="$TE/document.test.ts,$TE/canonical-json.test.ts,$TE/evaluate-plumbing.test.ts" ;;
+        TESTS="$TE/document.test.ts,$TE/document-checks.test.ts,$TE/canonical-json.test.ts,$TE/evaluate-plumbing.test.ts" ;;
       # -b1's other part is -prepare (prepare.ts and the public entry points, about 210), with -b's test list.
       plumbing-evaluate-b|plumbing-evaluate-b1|plumbing-evaluate-b2|plumbing-evaluate-prepare)
         case "$1" in
@@ -118,7 +118,7 @@ case "${1:-}" in
           plumbing-evaluate-b2) MUTATE="$E/block-evaluation.ts,$E/block-run.ts" ;;
           plumbing-evaluate-prepare) MUTATE="$E/prepare.ts,$E/index.ts" ;;
         esac
-        TESTS="$TE/document.test.ts,$TE/graph.test.ts,$TE/incremental.test.ts,$TE/limits.test.ts,$TE/dataset-input.test.ts,$TE/demo-sheets.test.ts,$TE/trust/*.test.ts,$TE/expression.test.ts,$TE/evaluate-plumbing.test.ts,$TE/evaluation-run.test.ts,$TE/block-run.test.ts,$PR" ;;
+        TESTS="$TE/document.test.ts,$TE/graph.test.ts,$TE/incremental.test.ts,$TE/limits.test.ts,$TE/dataset-input.test.ts,$TE/demo-sheets.test.ts,$TE/trust/*.test.ts,$TE/expression.test.ts,$TE/evaluate-plumbing.test.ts,$TE/evaluation-run.test.ts,$TE/block-run.test.ts,$TE/prepare.test.ts,$PR" ;;
       # A part of -b1 that fits a short session, with the tests aimed at it only (the sheet-wide suites of -b's
       # list reach every one of its mutants): the run and the results document (about 140 mutants).
       plumbing-evaluate-run)

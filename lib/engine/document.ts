@@ -25,6 +25,11 @@ export function checkBlockName(name: string): string | null {
 
 const nameChecks = new Map<string, string | null>();
 
+/** How many block names' answers are kept now (tests: the cache stays bounded). */
+export function blockNameCheckCacheSize(): number {
+  return nameChecks.size;
+}
+
 function findNameProblem(name: string): string | null {
   if (!BLOCK_NAME_PATTERN.test(name)) {
     return `"${name}" is not a valid block name: use 1–40 characters, lower-case letters, digits and _, starting with a letter`;

@@ -126,7 +126,8 @@ export interface BlockTypeInfo {
   expressionFunction: { name: string; signature: string } | null;
 }
 
-function describe(type: BlockTypeDefinition): BlockTypeInfo {
+/** One block type's metadata, built anew (blockCatalog keeps every type's, built once per process). */
+export function describeBlockType(type: BlockTypeDefinition): BlockTypeInfo {
   const info: BlockTypeInfo = {
     id: type.id,
     title: type.title,
@@ -157,7 +158,7 @@ function describe(type: BlockTypeDefinition): BlockTypeInfo {
 let catalog: BlockTypeInfo[] | null = null;
 /** Metadata of every block type, for forms, help and the palette. */
 export function blockCatalog(): BlockTypeInfo[] {
-  catalog ??= BLOCK_TYPES.map(describe);
+  catalog ??= BLOCK_TYPES.map(describeBlockType);
   return JSON.parse(JSON.stringify(catalog)) as BlockTypeInfo[];
 }
 export { checkUnitDimension } from './dataset-units';

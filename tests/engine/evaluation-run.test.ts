@@ -1,6 +1,7 @@
 import { describe, expect, it } from 'vitest';
 import {
   blockCatalog,
+  describeBlockType,
   DISTRIBUTIONS_NEED_A_SHEET,
   ENGINE_VERSION,
   EngineError,
@@ -11,6 +12,7 @@ import {
   type SheetBlock,
   type SheetDocument,
 } from '@/lib/engine';
+import { BLOCK_TYPES } from '@/lib/engine/registry';
 import { assemble, blockResultBytes, failed, type BlockResult } from '@/lib/engine/results-document';
 
 // The evaluation's plumbing (evaluate.ts, prepare.ts, results-document.ts, index.ts), small and fast.
@@ -196,7 +198,10 @@ describe('the public entry points (index.ts)', () => {
   });
 
   it('should describe every block type as plain data, a fresh copy each time', () => {
-    const catalog = blockCatalog();
+    // Built anew here (blockCatalog keeps what it built once per process, where a changed describer would go
+    // unseen by every test after the first); the catalog itself must give the same.
+    const catalog = BLOCK_TYPES.map(describeBlockType);
+    expect(blockCatalog()).toEqual(catalog);
     const pe = catalog.find((t) => t.id === 'peclet_number')!;
     expect(pe.freeInputs).toBe(false);
     expect(pe.series).toEqual([]);
@@ -209,6 +214,25 @@ describe('the public entry points (index.ts)', () => {
     const flexure = catalog.find((t) => t.id === 'plate_flexure')!;
     expect(flexure.expressionFunction!.signature).toMatch(/^plate_flexure\(line_load, elastic_thickness, .*\[poisson_ratio\], \[plate\], \[distance\]/);
     expect(flexure.inputs.find((i) => i.name === 'plate')!.typical).toBeNull();
+    // An input with a default (far_field_slope) or optional without one (slope) is shown in brackets.
+    expect(catalog.find((t) => t.id === 'scarp_age')!.expressionFunction!.signature).toBe('scarp_age(vertical_offset, [far_field_slope], max_slope, diffusivity)');
+    expect(catalog.find((t) => t.id === 'hillslope_diffusion')!.expressionFunction!.signature).toBe('hillslope_diffusion(diffusivity, curvature, [slope])');
+    const forward = catalog.find((t) => t.id === 'scarp_forward')!;
+    expect(forward.outputs.map((o) => o.name)).toEqual(['max_slope', 'kt']);
+    expect(forward.series).toEqual([expect.objectContaining({ name: 'profile', points: 201, xUnit: 'm', yUnit: 'm' })]);
+    // Every type's lists and formula are copied whole from its definition.
+    for (const type of BLOCK_TYPES) {
+      const info = catalog.find((t) => t.id === type.id)!;
+      expect(info.formula).toEqual(type.formula);
+      expect(info.sources).toEqual(type.sources);
+      expect(info.validity).toEqual(type.validity);
+      expect(info.cautions).toEqual(type.cautions);
+      expect(info.warnings).toEqual(type.warnings);
+      expect(info.outputs).toEqual(JSON.parse(JSON.stringify(type.outputs)));
+      expect(info.inputs.map((i) => i.name)).toEqual(type.inputs.map((i) => i.name));
+      expect(info.inputs.map((i) => i.unit)).toEqual(type.inputs.map((i) => i.unit));
+    }
+    expect(BLOCK_TYPES.some((t) => t.validity.length && t.cautions.length && t.warnings.length && t.sources.length)).toBe(true);
     pe.title = 'changed';
     pe.inputs.length = 0;
     const again = blockCatalog().find((t) => t.id === 'peclet_number')!;
