@@ -230,7 +230,7 @@ describe('the public entry points (index.ts)', () => {
       expect(info.warnings).toEqual(type.warnings);
       expect(info.outputs).toEqual(JSON.parse(JSON.stringify(type.outputs)));
       expect(info.inputs.map((i) => i.name)).toEqual(type.inputs.map((i) => i.name));
-      expect(info.inputs.map((i) => i.unit)).toEqual(type.inputs.map((i) => i.unit));
+      expect(info.inputs.map((i) => [i.optional, i.default, i.dimension.key])).toEqual(type.inputs.map((i) => [i.optional, i.default, i.dimension]));
     }
     expect(BLOCK_TYPES.some((t) => t.validity.length && t.cautions.length && t.warnings.length && t.sources.length)).toBe(true);
     pe.title = 'changed';
