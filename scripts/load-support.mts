@@ -94,10 +94,14 @@ export interface OpenLoopFigures {
  */
 export async function openLoop(
   url: URL,
-  options: { rate: number; seconds: number; method?: string; body?: string; unique?: boolean; cookies: string[]; sockets?: number },
+  options: { rate: number; seconds: number; method?: string; body?: string; unique?: boolean; cookies: string[]; sockets?: number; warmupSeconds?: number },
 ): Promise<OpenLoopFigures> {
   const agent = new Agent({ keepAlive: true, maxSockets: options.sockets ?? 64 });
-  const total = Math.max(1, Math.round(options.rate * options.seconds));
+  // The first requests (1 s by default) are sent at the same rate but not recorded: they open the sockets and
+  // meet whatever the server still does after the full-load slice before (wrk2 likewise leaves out its
+  // calibration period). The recorded part is the steady state at the rate.
+  const warmup = Math.round(options.rate * (options.warmupSeconds ?? 1));
+  const total = warmup + Math.max(1, Math.round(options.rate * options.seconds));
   const interval = 1000 / options.rate;
   const latencies: number[] = [];
   let non2xx = 0;
@@ -110,6 +114,7 @@ export async function openLoop(
       if (body !== undefined) headers['content-type'] = 'application/json';
       if (options.cookies.length > 0) headers.cookie = options.cookies[k % options.cookies.length]!;
       const finish = (status: number) => {
+        if (k < warmup) return resolve();
         latencies.push(performance.now() - due);
         if (status < 200 || status > 299) non2xx += 1;
         if (status === 429) rateLimited += 1;

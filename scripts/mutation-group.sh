@@ -118,7 +118,7 @@ case "${1:-}" in
           plumbing-evaluate-b2) MUTATE="$E/block-evaluation.ts,$E/block-run.ts" ;;
           plumbing-evaluate-prepare) MUTATE="$E/prepare.ts,$E/index.ts" ;;
         esac
-        TESTS="$TE/document.test.ts,$TE/graph.test.ts,$TE/incremental.test.ts,$TE/limits.test.ts,$TE/dataset-input.test.ts,$TE/demo-sheets.test.ts,$TE/trust/*.test.ts,$TE/expression.test.ts,$TE/evaluate-plumbing.test.ts,$TE/evaluation-run.test.ts,$TE/block-run.test.ts,$TE/prepare.test.ts,$PR" ;;
+        TESTS="$TE/document.test.ts,$TE/graph.test.ts,$TE/incremental.test.ts,$TE/limits.test.ts,$TE/dataset-input.test.ts,$TE/demo-sheets.test.ts,$TE/trust/*.test.ts,$TE/expression.test.ts,$TE/evaluate-plumbing.test.ts,$TE/evaluation-run.test.ts,$TE/block-run.test.ts,$TE/prepare.test.ts,$TE/block-evaluation.test.ts,tests/engine/uncertainty/pass-sheets.test.ts,tests/engine/uncertainty/pass-edges.test.ts,tests/engine/uncertainty/pass-linear.test.ts,$PR" ;;
       # A part of -b1 that fits a short session, with the tests aimed at it only (the sheet-wide suites of -b's
       # list reach every one of its mutants): the run and the results document (about 140 mutants).
       plumbing-evaluate-run)
