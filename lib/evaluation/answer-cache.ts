@@ -2,8 +2,8 @@ import { createHash } from 'node:crypto';
 import { ByteBoundedLru } from '@/lib/cache/byte-bounded-lru';
 
 /**
- * Answers of `POST /api/evaluate` kept by the SHA-256 of the request body's text, for a body whose answer
- * depends on nothing but that text (a document whose datasets, if any, all came in the body: evaluation
+ * Answers kept by the SHA-256 of a request's text. `POST /api/evaluate` keys a body whose answer depends
+ * on nothing but that text (a document whose datasets, if any, all came in the body: evaluation
  * is deterministic, so the same text gives the same results). A repeated body is then answered without
  * parsing, validating, cloning to a worker thread or serialising again. Only an optimisation: a miss
  * evaluates in full, and every check before the body (session, rate limit, size) still runs.
@@ -11,6 +11,11 @@ import { ByteBoundedLru } from '@/lib/cache/byte-bounded-lru';
  * A small LRU bounded in entries and in bytes (the answers' text length); an answer over a quarter of
  * the byte bound is not kept; a body longer than `maxKeyedBytes` is not looked up at all (hashing it
  * would cost more than a rare repeat saves).
+ *
+ * `POST /api/quick` keys an expression's text the same way (its own instance, smaller): a quick calculation
+ * depends on nothing but that text (no data, no user setting; random numbers are not in the language), so
+ * the preview computed while the text was typed answers the same text when it is entered. Failures are never
+ * set by either route (a time limit or a full queue is no property of the text).
  */
 export class AnswerCache {
   private readonly lru: ByteBoundedLru<string, string>;
@@ -42,41 +47,6 @@ export class AnswerCache {
   }
 
   /** Characters held (the answers' text length). */
-  get bytes(): number {
-    return this.lru.bytes;
-  }
-}
-
-/**
- * Answers of `POST /api/quick` (their JSON text: value, units and warnings) kept by the expression's text. A
- * quick calculation depends on nothing but that text (no data, no user setting; random numbers are not in
- * the language), so the preview computed while the text was typed answers the same text when it is entered.
- * Only an optimisation, bounded like AnswerCache: failures are never kept (a time limit or a full queue is no
- * property of the text), and every check before the expression still runs.
- */
-export class QuickAnswerCache {
-  private readonly lru: ByteBoundedLru<string, string>;
-
-  constructor(
-    readonly capacity = 1024,
-    readonly maxBytes = 4 * 1024 * 1024,
-  ) {
-    this.lru = new ByteBoundedLru(capacity, maxBytes, (answer) => answer.length);
-  }
-
-  get(expression: string): string | undefined {
-    return this.lru.get(expression);
-  }
-
-  set(expression: string, answer: string): void {
-    this.lru.set(expression, answer);
-  }
-
-  get size(): number {
-    return this.lru.size;
-  }
-
-  /** Characters held (the answers' text length; the keys are at most 2,000 characters each). */
   get bytes(): number {
     return this.lru.bytes;
   }

@@ -1,5 +1,5 @@
 import { describe, expect, it } from 'vitest';
-import { AnswerCache, QuickAnswerCache } from '@/lib/evaluation/answer-cache';
+import { AnswerCache } from '@/lib/evaluation/answer-cache';
 
 describe('AnswerCache (answers of POST /api/evaluate by body text)', () => {
   it('should key a body by the SHA-256 of its text: the same text gives the same key, any change another', () => {
@@ -46,25 +46,29 @@ describe('AnswerCache (answers of POST /api/evaluate by body text)', () => {
   });
 });
 
-describe('QuickAnswerCache (answers of POST /api/quick by expression text)', () => {
-  it('should key an answer by the exact expression text', () => {
-    const cache = new QuickAnswerCache();
-    cache.set('1 km to m', '{"value":1000}');
-    expect(cache.get('1 km to m')).toBe('{"value":1000}');
-    expect(cache.get('1 km to  m')).toBeUndefined();
-    expect(cache.get('1 KM to m')).toBeUndefined();
+describe('AnswerCache as POST /api/quick uses it (answers by expression text)', () => {
+  const quickCache = (capacity = 1024, bytes = 4 * 1024 * 1024) => new AnswerCache(capacity, bytes, 4096);
+
+  it('should key an answer by the exact expression text, and every expression the body allows', () => {
+    const cache = quickCache();
+    cache.set(cache.keyOf('1 km to m'), '{"value":1000}');
+    expect(cache.get(cache.keyOf('1 km to m'))).toBe('{"value":1000}');
+    expect(cache.get(cache.keyOf('1 km to  m'))).toBeUndefined();
+    expect(cache.get(cache.keyOf('1 KM to m'))).toBeUndefined();
+    const longest = `${'1+'.repeat(999)}1`; // 1,999 characters: under the body schema's 2,000
+    expect(cache.keyOf(longest)).not.toBeNull();
   });
 
   it('should stay within its entry and byte bounds and refuse an answer over a quarter of the bytes', () => {
-    const cache = new QuickAnswerCache(3, 400);
-    for (let i = 0; i < 5; i++) cache.set(`${i} m`, 'a'.repeat(50));
+    const cache = quickCache(3, 400);
+    for (let i = 0; i < 5; i++) cache.set(cache.keyOf(`${i} m`), 'a'.repeat(50));
     expect(cache.size).toBe(3);
-    expect(cache.get('0 m')).toBeUndefined();
-    expect(cache.get('4 m')).toBe('a'.repeat(50));
-    cache.set('big', 'b'.repeat(101));
-    expect(cache.get('big')).toBeUndefined();
-    const small = new QuickAnswerCache(100, 400);
-    for (let i = 0; i < 10; i++) small.set(`${i}`, 'c'.repeat(100));
+    expect(cache.get(cache.keyOf('0 m'))).toBeUndefined();
+    expect(cache.get(cache.keyOf('4 m'))).toBe('a'.repeat(50));
+    cache.set(cache.keyOf('big'), 'b'.repeat(101));
+    expect(cache.get(cache.keyOf('big'))).toBeUndefined();
+    const small = quickCache(100, 400);
+    for (let i = 0; i < 10; i++) small.set(small.keyOf(`${i}`), 'c'.repeat(100));
     expect(small.bytes).toBe(400);
     expect(small.size).toBe(4);
   });
