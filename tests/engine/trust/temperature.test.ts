@@ -80,14 +80,25 @@ describe('temperature arithmetic', () => {
     expect(isOffsetTemperature(math, value('(10 degC)^2'))).toBe(false);
   });
 
-  it('should refuse a bare temperature unit in a sum or difference as a unit without a value, not as two temperatures', () => {
-    // The message is mathjs's own (what the engine says now, not yet in plain words).
-    for (const text of ['degC + 10 degC', '10 degC + degC', 'degC - 10 degC', 'degF + 10 degC']) {
-      expect(() => evaluateQuick(text), text).toThrow(/contains a unit with undefined value/);
+  it('should refuse a unit without a number in a sum or difference, naming the unit, not as two temperatures', () => {
+    // A bare unit has no value to add: a value of a quantity is a number times a unit (SI Brochure §5.4.1, from memory).
+    // mathjs's own message named only "parameter x" or "y"; the engine names the unit and says what to write.
+    for (const [text, unit, operation] of [
+      ['degC + 10 degC', 'degC', 'added'],
+      ['10 degC + degC', 'degC', 'added'],
+      ['degC - 10 degC', 'degC', 'subtracted'],
+      ['degF + 10 degC', 'degF', 'added'],
+      ['10 K + degC', 'degC', 'added'],
+      ['degC - degC', 'degC', 'subtracted'],
+      ['m + 1 m', 'm', 'added'],
+      ['1 m - m', 'm', 'subtracted'],
+    ] as const) {
+      expect(() => evaluateQuick(text), text).toThrow(
+        `the unit ${unit} has no number, so it cannot be ${operation}: write its value before it (for example 10 ${unit})`,
+      );
     }
-    // mathjs names the operand without a value: the first (x) or the second (y); the engine keeps the order.
-    expect(() => evaluateQuick('10 K + degC')).toThrow('Parameter y contains a unit with undefined value');
-    expect(() => evaluateQuick('degC - degC')).toThrow('Parameter x contains a unit with undefined value');
+    // A bare unit is still a unit where it means one: in a product and as the target of a conversion.
+    expect(evaluateQuick('5 * m')).toMatchObject({ value: 5, unit: 'm' });
   });
 
   it('should read a product holding degC as a difference, so adding an absolute temperature to it is allowed', () => {
@@ -98,16 +109,44 @@ describe('temperature arithmetic', () => {
     expect(evaluateQuick('10 degC + (10 degC * 1 m / (1 m))')).toMatchObject({ value: 20, unit: 'degC', si: 293.15 });
   });
 
-  it('should subtract a degC or degF value from one in K as mathjs does: the second read as a difference', () => {
-    // CONTRACT §3 does not say what `300 K - 10 degC` means (a value in K may be a temperature or a difference).
-    // What the engine does now is mathjs's reading: 10 °C taken as a 10 K difference, 300 K − 10 K = 290 K, not
-    // the difference of two absolute temperatures (300 K − 283.15 K = 16.85 K). 10 °F as a difference is 50/9 K.
-    expect(evaluateQuick('300 K - 10 degC')).toMatchObject({ value: 290, unit: 'K', si: 290 });
-    const fahrenheit = evaluateQuick('5 K - 10 degF');
-    expect(fahrenheit.unit).toBe('K');
-    expectClose(fahrenheit.value as number, 5 - 50 / 9, 1e-12);
+  it('should refuse a degC or degF value taken from one in K as ambiguous, saying how to write either meaning', () => {
+    // CONTRACT §3: a value in K may be a temperature or a difference. mathjs read `300 K - 10 degC` as 300 K − 10 K
+    // of difference = 290 K, where the writer most likely meant two temperatures (300 K − 283.15 K = 16.85 K;
+    // T/K = t/°C + 273.15, SI Brochure §2.3.1): no number is given rather than a wrong one.
+    expect(() => evaluateQuick('300 K - 10 degC')).toThrow(
+      '300 K - 10 degC is ambiguous: a value in K may be a temperature or a difference. For the difference of two temperatures write both on one scale (300 K - 283.15 K, or (300 K to degC) - 10 degC); to take away a difference, write the difference in K',
+    );
+    // 10 °F = 260.928 K to six digits (NIST SP 811 B.8: T/K = (t/°F + 459.67)/1.8).
+    expect(() => evaluateQuick('5 K - 10 degF')).toThrow(/^5 K - 10 degF is ambiguous: .*\(5 K - 260\.928 K, or \(5 K to degF\) - 10 degF\)/);
+    // A product holding degC is a value in K (a difference, above): taking a temperature from it is refused alike.
+    expect(() => evaluateQuick('(10 degC * 1 m / (1 m)) - 10 degC')).toThrow(/^10 K - 10 degC is ambiguous/);
+    // Both ways the message offers give the difference of the two temperatures, 16.85 K.
+    expectClose(evaluateQuick('300 K - 283.15 K').value as number, 16.85, 1e-12);
+    const sameScale = evaluateQuick('(300 K to degC) - 10 degC');
+    expect(sameScale.unit).toBe('K');
+    expectClose(sameScale.value as number, 16.85, 1e-12);
     // An absolute temperature minus a difference stays absolute: 10 °C − 5 K = 5 °C = 278.15 K.
     expect(evaluateQuick('10 degC - 5 K')).toMatchObject({ value: 5, unit: 'degC', si: 278.15 });
+    // A difference minus a difference is a difference: 300 K − 280 K = 20 K.
+    expect(evaluateQuick('300 K - 280 K')).toMatchObject({ value: 20, unit: 'K', si: 20 });
+  });
+
+  it('should refuse a sum or difference that puts an absolute temperature below absolute zero', () => {
+    // mathjs answered `10 degC - 300 K` with −290 °C (−16.85 K absolute): 300 K read as a difference where a
+    // temperature was meant. 0 K = −273.15 °C (SI Brochure §2.3.1) is the lowest temperature there is.
+    expect(() => evaluateQuick('10 degC - 300 K')).toThrow(
+      '10 degC - 300 K is below absolute zero (-290 degC): a value in K added to or taken from a temperature is read as a difference; for the difference of two temperatures write both on one scale (283.15 K - 300 K)',
+    );
+    expect(() => evaluateQuick('1 K + 2 K + -300 degC')).toThrow(
+      '3 K + -300 degC is below absolute zero (-297 degC): a value in K added to or taken from a temperature is read as a difference',
+    );
+    expect(() => evaluateQuick('-400 K + 10 degF')).toThrow(/^-400 K \+ 10 degF is below absolute zero/);
+    // Exactly absolute zero is allowed, whatever the rounding of 273.15 in binary (here 0 K either way).
+    expect(evaluateQuick('10 degC - 283.15 K')).toMatchObject({ value: -273.15, unit: 'degC' });
+    expectClose(evaluateQuick('10 degC - 283.15 K').si as number, 0, 1e-9);
+    expect(evaluateQuick('-273.15 degC + 0 K')).toMatchObject({ value: -273.15, unit: 'degC' });
+    // Just below it (by a millikelvin) is refused.
+    expect(() => evaluateQuick('-273.15 degC - 0.001 K')).toThrow(/below absolute zero \(-273\.151 degC\)/);
   });
 
   it('should leave subtract with other than two arguments to mathjs, which refuses it', () => {
