@@ -28,6 +28,8 @@ export interface SheetHeaderProps {
   head: { number: number; hash: string; status: SheetStatus; evaluating?: boolean } | null;
   forkedFrom?: ForkOrigin | null;
   forks?: ForkItem[];
+  /** Every fork, when more than `forks` lists. */
+  forkCount?: number;
   /** Save and evaluation state, shown at the right. */
   state?: ReactNode;
   /** Buttons for the few visible actions. */
@@ -80,6 +82,7 @@ export function SheetHeader({
   head,
   forkedFrom,
   forks = [],
+  forkCount = forks.length,
   state,
   actions,
   editor,
@@ -174,7 +177,7 @@ export function SheetHeader({
       {forks.length ? (
         <div className="flex flex-wrap items-baseline gap-x-2 text-[12px] text-slate" data-testid="fork-list">
           <span>
-            Forks ({forks.length}):
+            Forks ({forkCount}):
           </span>
           <ul className="flex flex-wrap gap-x-3">
             {forks.map((fork) => (
@@ -186,6 +189,7 @@ export function SheetHeader({
                 {fork.revision ? <span className="num"> (from r{fork.revision})</span> : null}
               </li>
             ))}
+            {forkCount > forks.length ? <li>and {forkCount - forks.length} more, not listed here</li> : null}
           </ul>
         </div>
       ) : null}

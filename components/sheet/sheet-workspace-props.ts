@@ -23,7 +23,9 @@ export interface SheetWorkspaceProps {
   /** Whether the stored draft differs from the head and the last approved revision. */
   draftStanding?: DraftStanding;
   forkedFrom: ForkOrigin | null;
+  /** The first forks (the server lists at most 200); forkCount counts them all. */
   forks: ForkItem[];
+  forkCount?: number;
   /** Version of the block catalog the page was rendered with (fetched once: use-block-catalog.ts). */
   catalogVersion: string;
   canEdit: boolean;

@@ -47,6 +47,7 @@ export function SheetWorkspace({
   draftStanding,
   forkedFrom,
   forks,
+  forkCount,
   catalogVersion,
   canEdit,
   role,
@@ -201,6 +202,7 @@ export function SheetWorkspace({
         head={head}
         forkedFrom={forkedFrom}
         forks={forks}
+        forkCount={forkCount}
         onEditTitle={canEdit && !editingTitle ? () => setEditingTitle(true) : undefined}
         editor={
           editingTitle && canEdit ? (

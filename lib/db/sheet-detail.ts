@@ -13,8 +13,13 @@ export type SheetDetail = {
   head: { number: number; hash: string; status: ReviewStatus; evaluating?: true } | null;
   /** sheetId and title are null when the source belongs to a team the reader is not in. */
   forkedFrom?: { sheetId: string | null; title: string | null; revision: number | null; visible: boolean };
+  /** The first MAX_LISTED_FORKS forks (oldest first); forkCount counts them all. */
   forks: { id: string; title: string; site: string | null; revision: number | null }[];
+  forkCount: number;
 };
+
+/** At most this many forks are listed with a sheet (a popular sheet may be forked any number of times). */
+export const MAX_LISTED_FORKS = 200;
 
 /** The columns of a sheet detail row (sheet `s`, head revision `h`; `$2` holds the reader's team ids). */
 export type DetailRow = RecordRow & {
@@ -32,6 +37,7 @@ export type DetailRow = RecordRow & {
   source_team_id: string | null;
   source_title: string | null;
   forks: { id: string; title: string; site: string | null; revision: number | null }[];
+  fork_count: number;
 };
 
 /** The select list of the detail query; the sheet page's query adds columns to it (lib/db/sheet-page.ts). */
@@ -42,8 +48,12 @@ export const DETAIL_SELECT = `SELECT ${RECORD_COLUMNS}, s.draft_document,
             src.team_id AS source_team_id, src.title AS source_title,
             coalesce((SELECT json_agg(json_build_object('id', f.id, 'title', f.title, 'site', f.site_name, 'revision', f.forked_from_revision)
                                       ORDER BY f.created_at, f.id)
-                        FROM sheets f
-                       WHERE f.forked_from_sheet_id = s.id AND f.team_id = ANY($2::uuid[])), '[]'::json) AS forks`;
+                        FROM (SELECT f.id, f.title, f.site_name, f.forked_from_revision, f.created_at
+                                FROM sheets f
+                               WHERE f.forked_from_sheet_id = s.id AND f.team_id = ANY($2::uuid[])
+                               ORDER BY f.created_at, f.id
+                               LIMIT ${MAX_LISTED_FORKS}) f), '[]'::json) AS forks,
+            (SELECT count(*)::int FROM sheets f WHERE f.forked_from_sheet_id = s.id AND f.team_id = ANY($2::uuid[])) AS fork_count`;
 
 /** The tables of the detail query: `$1` is the sheet's id. */
 export const DETAIL_FROM = `FROM sheets s
@@ -83,6 +93,7 @@ export function detailOfRow(row: DetailRow, visibleTeamIds: string[]): SheetDeta
         }
       : {}),
     forks: row.forks.map((f) => ({ id: f.id, title: f.title, site: f.site, revision: f.revision })),
+    forkCount: row.fork_count,
   };
 }
 

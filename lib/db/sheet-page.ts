@@ -21,7 +21,8 @@ import type { PublicUser } from './users';
  */
 export type SheetPageData = {
   detail: SheetDetail;
-  /** The team's sheets that are not archived, newest change first (ids and titles: the page's switcher). */
+  /** The team's sheets that are not archived, newest change first (ids and titles: the page's switcher): the
+   * MAX_TEAM_SHEETS most recently updated (the palette's "Open sheet" commands; the index lists them all). */
   teamSheets: { id: string; title: string }[];
   /** The team's members, owners first, then by name (listMembersByTeam's order). */
   members: Omit<MemberItem, 'joinedAt'>[];
@@ -67,10 +68,16 @@ type PageRow = DetailRow & {
   draft_digest: string;
 };
 
+/** At most this many of the team's sheets come with a sheet page (a team may hold any number). */
+export const MAX_TEAM_SHEETS = 200;
+
 const PAGE_SELECT = `${DETAIL_SELECT},
             coalesce((SELECT json_agg(json_build_object('id', o.id, 'title', o.title) ORDER BY o.updated_at DESC, o.id)
-                        FROM sheets o
-                       WHERE o.team_id = s.team_id AND o.archived_at IS NULL), '[]'::json) AS team_sheets,
+                        FROM (SELECT o.id, o.title, o.updated_at
+                                FROM sheets o
+                               WHERE o.team_id = s.team_id AND o.archived_at IS NULL
+                               ORDER BY o.updated_at DESC, o.id
+                               LIMIT ${MAX_TEAM_SHEETS}) o), '[]'::json) AS team_sheets,
             coalesce((SELECT json_agg(json_build_object('role', m.role, 'id', mu.id, 'name', mu.name, 'email', mu.email) ORDER BY m.id)
                         FROM memberships m JOIN users mu ON mu.id = m.user_id
                        WHERE m.team_id = s.team_id), '[]'::json) AS members,

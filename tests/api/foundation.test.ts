@@ -121,6 +121,39 @@ describe('authorisation of sheets', () => {
     expect(response.body.error.field).toBe('sort');
   });
 
+  it('should page through the sheets with limit and offset, counting all of them in total', async () => {
+    const editor = await signedInAs('editor');
+    const whole = await editor.get('/api/sheets?sort=title&limit=200');
+    expect(whole.status).toBe(200);
+    const total = whole.body.total as number;
+    expect(total).toBeGreaterThanOrEqual(6); // the demo team's sheets, and any a suite before made
+    expect(whole.body.items.length).toBe(Math.min(total, 200));
+    const first = await editor.get('/api/sheets?sort=title&limit=2');
+    const second = await editor.get('/api/sheets?sort=title&limit=2&offset=2');
+    expect(first.body.total).toBe(total);
+    expect(second.body.total).toBe(total);
+    const ids = (page: { body: { items: { id: string }[] } }) => page.body.items.map((s) => s.id);
+    expect([...ids(first), ...ids(second)]).toEqual(ids(whole).slice(0, 4));
+    expect((await editor.get(`/api/sheets?offset=${total}`)).body).toEqual({ items: [], total });
+  });
+
+  it('should answer 400 naming the field for a limit or offset out of range', async () => {
+    const editor = await signedInAs('editor');
+    for (const [query, field] of [
+      ['limit=0', 'limit'],
+      ['limit=201', 'limit'],
+      ['limit=2.5', 'limit'],
+      ['limit=ten', 'limit'],
+      ['offset=-1', 'offset'],
+      ['offset=1e3', 'offset'],
+      ['offset=10000000', 'offset'],
+    ]) {
+      const response = await editor.get(`/api/sheets?${query}`);
+      expect(response.status, query).toBe(400);
+      expect(response.body.error.field, query).toBe(field);
+    }
+  });
+
   it('should search sheets by title and site', async () => {
     const editor = await signedInAs('editor');
     const response = await editor.get('/api/sheets?q=ember');

@@ -2,7 +2,7 @@ import { describe, expect, it } from 'vitest';
 import { applyReviewAction } from '@/lib/db/review';
 import { saveRevision } from '@/lib/db/revision-save';
 import { getSheetDetail } from '@/lib/db/sheet-detail';
-import { getSheetPageData } from '@/lib/db/sheet-page';
+import { getSheetPageData, MAX_TEAM_SHEETS } from '@/lib/db/sheet-page';
 import { listSheetsByTeam } from '@/lib/db/sheet-list';
 import { listMembersByTeam } from '@/lib/db/members';
 import { getReviewSummary } from '@/lib/db/revisions';
@@ -18,7 +18,7 @@ async function separately(sheetId: string, visibleTeamIds: string[]) {
   const detail = await getSheetDetail({ sheetId, visibleTeamIds });
   const head = detail.head;
   const [others, members, review, notes, standing, preferences, approved] = await Promise.all([
-    listSheetsByTeam({ teamId: detail.sheet.teamId }),
+    listSheetsByTeam({ teamId: detail.sheet.teamId, limit: MAX_TEAM_SHEETS }),
     listMembersByTeam({ teamId: detail.sheet.teamId }),
     head ? getReviewSummary({ sheetId, number: head.number }) : Promise.resolve(null),
     head ? listReviewEvents({ sheetId, revision: head.number }) : Promise.resolve([]),

@@ -17,6 +17,8 @@ export const GET = route(async (request) => {
     sort: sort.replace(/^-/, '') as SheetSort,
     descending,
     status: query.status,
+    limit: query.limit,
+    offset: query.offset,
   });
   return json(result);
 });

@@ -1,5 +1,6 @@
 import { z } from 'zod';
 import { safeText, TEXT_LIMITS } from '@/lib/engine/text';
+import { MAX_SHEET_PAGE_SIZE } from '@/lib/db/sheet-list';
 import { REVIEW_STATUSES } from '@/models';
 
 export const siteSchema = z.strictObject({
@@ -26,4 +27,11 @@ export const listSheetsQuerySchema = z.strictObject({
     })
     .optional(),
   status: z.enum([...REVIEW_STATUSES, 'draft']).optional(),
+  limit: z
+    .string()
+    .regex(/^[1-9][0-9]{0,2}$/, `must be a whole number from 1 to ${MAX_SHEET_PAGE_SIZE}`)
+    .transform(Number)
+    .refine((n) => n <= MAX_SHEET_PAGE_SIZE, `must be a whole number from 1 to ${MAX_SHEET_PAGE_SIZE}`)
+    .optional(),
+  offset: z.string().regex(/^(0|[1-9][0-9]{0,6})$/, 'must be a whole number from 0 to 9,999,999').transform(Number).optional(),
 });

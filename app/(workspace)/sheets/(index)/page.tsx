@@ -5,7 +5,7 @@ import { NewSheetForm } from '@/components/sheets/new-sheet-form';
 import { StatusTag, STATUS_WORDS, type SheetStatus } from '@/components/ui/status';
 import { requirePageUser } from '@/lib/auth/page';
 import { roleAllows } from '@/lib/auth/permissions';
-import { listSheetsByTeam, type SheetSort } from '@/lib/db/sheet-list';
+import { listSheetsByTeam, SHEET_PAGE_SIZE, type SheetSort } from '@/lib/db/sheet-list';
 import { formatMinute } from '@/lib/format/dates';
 
 export const metadata: Metadata = { title: 'Sheets' };
@@ -32,20 +32,27 @@ export default async function SheetsPage({ searchParams }: { searchParams: Promi
   const reversed = rawSort.startsWith('-');
   const descending = sortKey === 'updated' ? !reversed : reversed;
   const status = typeof params.status === 'string' && params.status in STATUS_WORDS ? (params.status as SheetStatus) : undefined;
+  // Pages of SHEET_PAGE_SIZE, 1-based in the address; anything else than a page number is the first page.
+  const page = typeof params.page === 'string' && /^[1-9][0-9]{0,4}$/.test(params.page) ? Number(params.page) : 1;
 
   if (!current) {
     return <p className="text-slate">You are not a member of any team yet.</p>;
   }
-  const { items, total } = await listSheetsByTeam({ teamId: current.id, q, sort: sortKey, descending, status });
+  const offset = (page - 1) * SHEET_PAGE_SIZE;
+  const { items, total } = await listSheetsByTeam({ teamId: current.id, q, sort: sortKey, descending, status, limit: SHEET_PAGE_SIZE, offset });
   const canEdit = roleAllows(current.role, 'edit');
+  const pages = Math.max(1, Math.ceil(total / SHEET_PAGE_SIZE));
 
-  const hrefFor = (key: SheetSort) => {
+  const listHref = ({ sort = rawSort, toPage = 1 }: { sort?: string; toPage?: number }) => {
     const next = new URLSearchParams();
     if (q) next.set('q', q);
     if (status) next.set('status', status);
-    next.set('sort', key === sortKey && !reversed ? `-${key}` : key);
+    next.set('sort', sort);
+    if (toPage > 1) next.set('page', String(toPage));
     return `/sheets?${next.toString()}`;
   };
+  // A new sort starts again at the first page.
+  const hrefFor = (key: SheetSort) => listHref({ sort: key === sortKey && !reversed ? `-${key}` : key });
 
   return (
     <div className="flex flex-col gap-4">
@@ -84,7 +91,9 @@ export default async function SheetsPage({ searchParams }: { searchParams: Promi
         <input type="hidden" name="sort" value={rawSort} />
         <Button type="submit">Search</Button>
         <span className="text-[12px] text-slate">
-          {total} {total === 1 ? 'sheet' : 'sheets'}
+          {total > SHEET_PAGE_SIZE && items.length > 0
+            ? `${offset + 1}–${offset + items.length} of ${total} sheets`
+            : `${total} ${total === 1 ? 'sheet' : 'sheets'}`}
         </span>
       </form>
 
@@ -115,7 +124,15 @@ export default async function SheetsPage({ searchParams }: { searchParams: Promi
             {items.length === 0 ? (
               <tr>
                 <td colSpan={COLUMNS.length} className="px-3 py-6 text-center text-slate">
-                  {q || status ? 'No sheet matches that search.' : 'No sheets yet.'}
+                  {page > pages ? (
+                    <>
+                      There are {pages} {pages === 1 ? 'page' : 'pages'} of sheets. <Link href={listHref({ toPage: pages })} className="text-river hover:underline">Go to the last page</Link>
+                    </>
+                  ) : q || status ? (
+                    'No sheet matches that search.'
+                  ) : (
+                    'No sheets yet.'
+                  )}
                 </td>
               </tr>
             ) : (
@@ -141,6 +158,27 @@ export default async function SheetsPage({ searchParams }: { searchParams: Promi
           </tbody>
         </table>
       </div>
+      {pages > 1 ? (
+        <nav aria-label="Pages of sheets" className="flex items-center justify-between gap-3 text-[13px]">
+          {page > 1 ? (
+            <Link href={listHref({ toPage: Math.min(page - 1, pages) })} rel="prev" className="text-river hover:underline">
+              ← Previous {SHEET_PAGE_SIZE}
+            </Link>
+          ) : (
+            <span />
+          )}
+          <span className="text-slate">
+            Page {Math.min(page, pages)} of {pages}
+          </span>
+          {page < pages ? (
+            <Link href={listHref({ toPage: page + 1 })} rel="next" className="text-river hover:underline">
+              Next {Math.min(SHEET_PAGE_SIZE, total - page * SHEET_PAGE_SIZE)} →
+            </Link>
+          ) : (
+            <span />
+          )}
+        </nav>
+      ) : null}
     </div>
   );
 }

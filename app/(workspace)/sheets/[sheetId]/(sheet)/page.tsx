@@ -63,6 +63,7 @@ export default async function SheetPage({ params, searchParams }: Params) {
       draftStanding={standing}
       forkedFrom={detail.forkedFrom ?? null}
       forks={detail.forks}
+      forkCount={detail.forkCount}
       catalogVersion={catalogVersion}
       canEdit={roleAllows(role, 'edit')}
       role={role}
