@@ -56,8 +56,9 @@ type Row = {
   reviewer_email: string | null;
 };
 
-/** Review events of a sheet (or one revision of it), oldest first. */
-export async function listReviewEvents({ sheetId, revision }: { sheetId: string; revision?: number }): Promise<ReviewEvent[]> {
+/** Review events of a sheet (or of one revision, or of some revisions), oldest first; at most the newest MAX_REVIEW_EVENTS. */
+export async function listReviewEvents({ sheetId, revision, revisions }: { sheetId: string; revision?: number; revisions?: number[] }): Promise<ReviewEvent[]> {
+  if (revisions && revisions.length === 0) return [];
   const rows = await db().query<Row>(
     `SELECT * FROM (
        SELECT e.id, e.revision, e.action, e.message, e.created_at,
@@ -66,11 +67,11 @@ export async function listReviewEvents({ sheetId, revision }: { sheetId: string;
          FROM review_events e
          LEFT JOIN users a ON a.id = e.actor_id
          LEFT JOIN users r ON r.id = e.reviewer_id
-        WHERE e.sheet_id = :sheetId ${revision === undefined ? '' : 'AND e.revision = :revision'}
+        WHERE e.sheet_id = :sheetId ${revision === undefined ? '' : 'AND e.revision = :revision'} ${revisions ? 'AND e.revision IN (:revisions)' : ''}
         ORDER BY e.created_at DESC, e.id DESC
         LIMIT :limit) newest
      ORDER BY created_at, id`,
-    { type: QueryTypes.SELECT, replacements: { sheetId, revision: revision ?? null, limit: MAX_REVIEW_EVENTS } },
+    { type: QueryTypes.SELECT, replacements: { sheetId, revision: revision ?? null, revisions: revisions ?? null, limit: MAX_REVIEW_EVENTS } },
   );
   return rows.map((r) => ({
     id: String(r.id),

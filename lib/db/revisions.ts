@@ -108,16 +108,37 @@ async function toListItems(sheetId: string, revisions: SheetRevision[]): Promise
   });
 }
 
-/** Every revision of a sheet, newest first, without documents. */
-export async function listRevisionsBySheet({ sheetId }: { sheetId: string }): Promise<{ items: RevisionListItem[]; total: number }> {
+/** Revisions per page of the history when the caller does not say (the API's `limit`, the history page). */
+export const REVISION_PAGE_SIZE = 100;
+/** The most a caller may ask for at once: a sheet may hold any number of revisions, an answer may not. */
+export const MAX_REVISION_PAGE_SIZE = 500;
+
+/**
+ * A sheet's revisions, newest first, without documents, one page at a time: `total` counts them all, `items`
+ * holds at most `limit` from `offset` on (revision numbers are unique, so pages neither repeat nor skip one).
+ */
+export async function listRevisionsBySheet({
+  sheetId,
+  limit = REVISION_PAGE_SIZE,
+  offset = 0,
+}: {
+  sheetId: string;
+  limit?: number;
+  offset?: number;
+}): Promise<{ items: RevisionListItem[]; total: number }> {
   db();
-  const revisions = await SheetRevision.findAll({
-    where: { sheetId },
-    attributes: { exclude: ['document', 'results'], include: [[literal('(results IS NULL)'), 'resultsPending']] },
-    order: [['number', 'DESC']],
-  });
+  const [revisions, total] = await Promise.all([
+    SheetRevision.findAll({
+      where: { sheetId },
+      attributes: { exclude: ['document', 'results'], include: [[literal('(results IS NULL)'), 'resultsPending']] },
+      order: [['number', 'DESC']],
+      limit: Math.min(Math.max(1, Math.trunc(limit)), MAX_REVISION_PAGE_SIZE),
+      offset: Math.max(0, Math.trunc(offset)),
+    }),
+    SheetRevision.count({ where: { sheetId } }),
+  ]);
   const items = await toListItems(sheetId, revisions);
-  return { items, total: items.length };
+  return { items, total };
 }
 
 /**

@@ -48,3 +48,43 @@ describe('the sheet index in pages', () => {
     expect(searched).not.toContain('Pages of sheets');
   });
 });
+
+describe('the revision history in pages', () => {
+  it('should page GET …/revisions with limit and offset, and the history page 100 revisions a page', async () => {
+    const { client } = await newAccount('history-pages');
+    const sheetId = (await client.post('/api/sheets', { title: 'History pages' })).body.sheet.id as string;
+    const document = (n: number) => ({ format: 'denudata-sheet@1', title: `History pages ${n}`, blocks: [] });
+    for (let n = 1; n <= 102; n += 1) {
+      const saved = await client.post(`/api/sheets/${sheetId}/revisions`, { baseRevision: n - 1, document: document(n), message: `save ${n}` });
+      expect(saved.status, `revision ${n}`).toBe(201);
+    }
+    const first = await client.get(`/api/sheets/${sheetId}/revisions?limit=3`);
+    expect(first.status).toBe(200);
+    expect(first.body.total).toBe(102);
+    expect(first.body.items.map((r: { number: number }) => r.number)).toEqual([102, 101, 100]);
+    const later = await client.get(`/api/sheets/${sheetId}/revisions?limit=2&offset=100`);
+    expect(later.body.items.map((r: { number: number }) => r.number)).toEqual([2, 1]);
+    expect((await client.get(`/api/sheets/${sheetId}/revisions`)).body.items.length).toBe(100);
+    for (const [query, field] of [['limit=0', 'limit'], ['limit=501', 'limit'], ['offset=-2', 'offset'], ['page=2', undefined]] as const) {
+      const response = await client.get(`/api/sheets/${sheetId}/revisions?${query}`);
+      expect(response.status, query).toBe(400);
+      expect(response.body.error.field, query).toBe(field);
+    }
+
+    const one = text((await client.get<string>(`/sheets/${sheetId}/revisions`)).body);
+    expect(one).toContain('r102–r3 of 102 revisions · page 1 of 2');
+    expect(one).toContain('save 3<');
+    expect(one).not.toContain('save 2<');
+    expect(one).toContain('(newest)');
+    // The oldest row of the page links to its changes from the revision before it, on the next page.
+    expect(one).toContain(`/sheets/${sheetId}/compare?from=2&amp;to=3`);
+    expect(one).toMatch(new RegExp(`href="/sheets/${sheetId}/revisions\\?page=2"[^>]*rel="next"|rel="next"[^>]*href="/sheets/${sheetId}/revisions\\?page=2"`));
+
+    const two = text((await client.get<string>(`/sheets/${sheetId}/revisions?page=2`)).body);
+    expect(two).toContain('r2–r1 of 102 revisions · page 2 of 2');
+    expect(two).not.toContain('(newest)');
+    expect(two).toContain(`/sheets/${sheetId}/compare?from=1&amp;to=2`);
+    expect(two).toMatch(/rel="prev"/);
+    expect(text((await client.get<string>(`/sheets/${sheetId}/revisions?page=7`)).body)).toContain('There are 2 pages of revisions.');
+  });
+});

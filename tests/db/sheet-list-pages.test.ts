@@ -5,7 +5,12 @@ import { getSheetDetail, MAX_LISTED_FORKS } from '@/lib/db/sheet-detail';
 import { listSheetsByTeam, MAX_SHEET_PAGE_SIZE, SHEET_PAGE_SIZE } from '@/lib/db/sheet-list';
 import { getSheetPageData, MAX_TEAM_SHEETS } from '@/lib/db/sheet-page';
 import { closeSequelize } from '@/lib/db/sequelize';
-import { makeSheet, makeTeam, type TeamFixture } from '../support/review-fixtures';
+import { listRevisionsBySheet, MAX_REVISION_PAGE_SIZE, REVISION_PAGE_SIZE } from '@/lib/db/revisions';
+import { listReviewEvents } from '@/lib/db/review-events';
+import { applyReviewAction } from '@/lib/db/review';
+import { saveRevision } from '@/lib/db/revision-save';
+import { closeEvaluationPool } from '@/lib/evaluation/pool';
+import { makeSheet, makeTeam, sampleDocument, type TeamFixture } from '../support/review-fixtures';
 
 // A team may hold any number of sheets and a sheet any number of forks (CONTRACT §3 caps neither), so every
 // list that carries them is bounded: the index and GET /api/sheets page through the team's sheets, the sheet
@@ -24,6 +29,11 @@ async function copies(sheetId: string, count: number, { prefix, forks = false }:
   );
 }
 
+afterAll(async () => {
+  await closeEvaluationPool();
+  await closeSequelize();
+});
+
 describe('bounded sheet lists (lib/db/sheet-list, sheet-detail, sheet-page)', () => {
   let team: TeamFixture;
   let first: string;
@@ -31,9 +41,6 @@ describe('bounded sheet lists (lib/db/sheet-list, sheet-detail, sheet-page)', ()
     team = await makeTeam();
     first = (await makeSheet(team.teamId, team.people.editor.id)).id;
     await copies(first, 250, { prefix: 'Paged' });
-  });
-  afterAll(async () => {
-    await closeSequelize();
   });
 
   it('should page through every sheet once, in order, with the count of all on every page', async () => {
@@ -95,5 +102,45 @@ describe('bounded sheet lists (lib/db/sheet-list, sheet-detail, sheet-page)', ()
     expect(outside.forks).toEqual([]);
     const page = await getSheetPageData({ sheetId: source, visibleTeamIds: [team.teamId] });
     expect(page.detail.forkCount).toBe(230);
+  });
+});
+
+describe('the revision history in pages (lib/db/revisions, review-events)', () => {
+  let team: TeamFixture;
+  let sheetId: string;
+  beforeAll(async () => {
+    team = await makeTeam();
+    sheetId = (await makeSheet(team.teamId, team.people.editor.id)).id;
+    const document = sampleDocument();
+    for (let n = 1; n <= 23; n += 1) {
+      await saveRevision({ sheetId, userId: team.people.editor.id, baseRevision: n - 1, document: { ...document, title: `History ${n}` }, message: `r${n}` });
+      // Only the newest revision can be put up for review: r3 and r20 when they are.
+      if (n === 3 || n === 20) {
+        await applyReviewAction({ sheetId, actorId: team.people.editor.id, action: 'request', revision: n, reviewerId: team.people.reviewer.id, message: `Check r${n}` });
+      }
+    }
+  });
+
+  it('should page through the revisions newest first, each once, with the count of all', async () => {
+    const seen: number[] = [];
+    for (let offset = 0; offset < 30; offset += 7) {
+      const page = await listRevisionsBySheet({ sheetId, limit: 7, offset });
+      expect(page.total).toBe(23);
+      seen.push(...page.items.map((r) => r.number));
+    }
+    expect(seen).toEqual(Array.from({ length: 23 }, (_, i) => 23 - i));
+    expect(REVISION_PAGE_SIZE).toBe(100);
+    expect((await listRevisionsBySheet({ sheetId })).items.length).toBe(23);
+    expect((await listRevisionsBySheet({ sheetId, limit: 0 })).items.map((r) => r.number)).toEqual([23]);
+    expect(await listRevisionsBySheet({ sheetId, offset: 23 })).toEqual({ items: [], total: 23 });
+    expect(MAX_REVISION_PAGE_SIZE).toBe(500);
+  });
+
+  it('should read the review events of the revisions asked for only', async () => {
+    const events = await listReviewEvents({ sheetId, revisions: [20, 21, 22] });
+    expect(events.map((e) => [e.revision, e.action, e.message])).toEqual([[20, 'request', 'Check r20']]);
+    expect((await listReviewEvents({ sheetId, revisions: [3] })).map((e) => e.message)).toEqual(['Check r3']);
+    expect(await listReviewEvents({ sheetId, revisions: [] })).toEqual([]);
+    expect((await listReviewEvents({ sheetId })).length).toBe(2);
   });
 });

@@ -2,7 +2,7 @@ import { Button } from '@/components/ui/button';
 import type { Metadata } from 'next';
 import Link from 'next/link';
 import { StatusTag } from '@/components/ui/status';
-import { listRevisionsBySheet } from '@/lib/db/revisions';
+import { listRevisionsBySheet, REVISION_PAGE_SIZE } from '@/lib/db/revisions';
 import { listReviewEvents } from '@/lib/db/review-events';
 import { ReviewNotes } from '@/components/review/review-notes';
 import { requireSheetPage } from '@/lib/sheet/page-access';
@@ -10,14 +10,25 @@ import { formatMinute } from '@/lib/format/dates';
 
 export const metadata: Metadata = { title: 'Revisions' };
 
-export default async function RevisionsPage({ params }: { params: Promise<{ sheetId: string }> }) {
+type Search = Record<string, string | string[] | undefined>;
+
+export default async function RevisionsPage({ params, searchParams }: { params: Promise<{ sheetId: string }>; searchParams: Promise<Search> }) {
   const { sheetId } = await params;
+  const query = await searchParams;
   const { sheet } = await requireSheetPage(sheetId);
-  const [{ items, total }, events] = await Promise.all([listRevisionsBySheet({ sheetId }), listReviewEvents({ sheetId })]);
+  // Pages of REVISION_PAGE_SIZE, newest first, 1-based in the address (anything else is the first page). One
+  // more row is read than is shown: the revision just before the page's oldest, for its "changes" link.
+  const page = typeof query.page === 'string' && /^[1-9][0-9]{0,5}$/.test(query.page) ? Number(query.page) : 1;
+  const offset = (page - 1) * REVISION_PAGE_SIZE;
+  const { items: read, total } = await listRevisionsBySheet({ sheetId, limit: REVISION_PAGE_SIZE + 1, offset });
+  const items = read.slice(0, REVISION_PAGE_SIZE);
+  const events = await listReviewEvents({ sheetId, revisions: items.map((r) => r.number) });
+  const pages = Math.max(1, Math.ceil(total / REVISION_PAGE_SIZE));
+  const pageHref = (to: number) => `/sheets/${sheetId}/revisions${to > 1 ? `?page=${to}` : ''}`;
   const notesOf = (n: number) => events.filter((e) => e.revision === n).map((e) => ({ ...e, by: e.by ? { id: e.by.id, name: e.by.name } : null, reviewer: e.reviewer ? { id: e.reviewer.id, name: e.reviewer.name } : null }));
   // Newest first: the latest number, and the number saved just before the i-th row (none for the oldest).
   const latest = items[0]?.number ?? 1;
-  const previous = (i: number): number | undefined => items[i + 1]?.number;
+  const previous = (i: number): number | undefined => read[i + 1]?.number;
   return (
     <div className="flex flex-col gap-4">
       <nav aria-label="Breadcrumb" className="text-[13px] text-slate">
@@ -27,6 +38,11 @@ export default async function RevisionsPage({ params }: { params: Promise<{ shee
       <h1 className="text-[20px] font-semibold tracking-tight">Revisions of {sheet.title}</h1>
       {total === 0 ? (
         <p className="text-[13px] text-slate">No revision yet. Save one from the sheet to keep a numbered, reproducible record.</p>
+      ) : items.length === 0 ? (
+        <p className="text-[13px] text-slate">
+          There are {pages} {pages === 1 ? 'page' : 'pages'} of revisions.{' '}
+          <Link href={pageHref(pages)} className="text-river hover:underline">Go to the last page</Link>
+        </p>
       ) : (
         <>
           <form action={`/sheets/${sheetId}/compare`} className="flex flex-wrap items-end gap-2 text-[13px]">
@@ -66,7 +82,7 @@ export default async function RevisionsPage({ params }: { params: Promise<{ shee
                   <tr key={r.number} className="border-b border-rule last:border-0" data-revision={r.number}>
                     <td className="num px-3 py-2">
                       <Link href={`/sheets/${sheetId}/revisions/${r.number}`} className="text-river hover:underline">r{r.number}</Link>
-                      {i === 0 ? <span className="ml-1 text-[12px] text-slate">(newest)</span> : null}
+                      {i === 0 && offset === 0 ? <span className="ml-1 text-[12px] text-slate">(newest)</span> : null}
                     </td>
                     <td className="px-3 py-2">{r.message || <span className="text-slate">—</span>}</td>
                     <td className="px-3 py-2">{r.author?.name ?? '—'}</td>
@@ -96,6 +112,27 @@ export default async function RevisionsPage({ params }: { params: Promise<{ shee
               </tbody>
             </table>
           </div>
+          {pages > 1 ? (
+            <nav aria-label="Pages of revisions" className="flex items-center justify-between gap-3 text-[13px]">
+              {page > 1 ? (
+                <Link href={pageHref(Math.min(page - 1, pages))} rel="prev" className="text-river hover:underline">
+                  ← Newer
+                </Link>
+              ) : (
+                <span />
+              )}
+              <span className="text-slate">
+                {`r${items[0]!.number}–r${items[items.length - 1]!.number} of ${total} revisions · page ${page} of ${pages}`}
+              </span>
+              {page < pages ? (
+                <Link href={pageHref(page + 1)} rel="next" className="text-river hover:underline">
+                  Older →
+                </Link>
+              ) : (
+                <span />
+              )}
+            </nav>
+          ) : null}
         </>
       )}
     </div>

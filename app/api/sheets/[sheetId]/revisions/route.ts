@@ -1,16 +1,17 @@
 import { requireSheetRole, requireUser } from '@/lib/auth/guard';
 import { listRevisionsBySheet } from '@/lib/db/revisions';
 import { saveRevision } from '@/lib/db/revision-save';
-import { json, notAllowed, readJson, route } from '@/lib/http';
-import { saveRevisionSchema } from './schema';
+import { json, notAllowed, readJson, readQuery, route } from '@/lib/http';
+import { listRevisionsQuerySchema, saveRevisionSchema } from './schema';
 
 type Context = { params: Promise<{ sheetId: string }> };
 
-export const GET = route(async (_request, { params }: Context) => {
+export const GET = route(async (request, { params }: Context) => {
   const user = await requireUser();
   const { sheetId } = await params;
   await requireSheetRole({ userId: user.id, sheetId, action: 'read' });
-  return json(await listRevisionsBySheet({ sheetId }));
+  const { limit, offset } = readQuery(request, listRevisionsQuerySchema);
+  return json(await listRevisionsBySheet({ sheetId, limit, offset }));
 });
 
 export const POST = route(async (request, { params }: Context) => {
