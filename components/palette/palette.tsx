@@ -12,15 +12,39 @@ import { takeEarlyPaletteKeys } from './early-keys';
 const loadDialog = () => import('./palette-dialog');
 const PaletteDialog = lazy(loadDialog);
 
+/** The element that has the focus now, unless it is the page itself or a part of the palette. */
+function focusedOutsidePalette(): HTMLElement | null {
+  const active = document.activeElement;
+  if (!(active instanceof HTMLElement) || active === document.body) return null;
+  return active.closest('[cmdk-root], [data-palette-placeholder]') ? null : active;
+}
+
 /** The palette (Ctrl+K / ⌘K), its command registry and the shortcuts sheet, for every workspace page. */
 export function PaletteProvider({ children }: { children: ReactNode }) {
   const [open, setOpen] = useState(false);
   const [query, setQuery] = useState('');
   const [shortcutsOpen, setShortcutsOpen] = useState(false);
+  // Where the focus was when the palette opened: it goes back there when the palette closes (the dialog's own
+  // close would focus its trigger, and the palette has none, so the focus fell to the page body).
+  const returnFocus = useRef<HTMLElement | null>(null);
+  const isOpen = useRef(false);
   const onOpen = useCallback((initial?: string) => {
+    if (!isOpen.current) returnFocus.current = focusedOutsidePalette();
     setQuery(initial ?? '');
     setOpen(true);
   }, []);
+  useEffect(() => {
+    isOpen.current = open;
+    const element = returnFocus.current;
+    if (open || !element) return;
+    returnFocus.current = null;
+    // After the dialog's unmount has run its own focus handling (a timeout of its own, queued before this one),
+    // and only when nothing took the focus meanwhile: a command that moves it (a new block's field) keeps it.
+    const timer = setTimeout(() => {
+      if (element.isConnected && (document.activeElement === null || document.activeElement === document.body)) element.focus({ preventScroll: true });
+    }, 0);
+    return () => clearTimeout(timer);
+  }, [open]);
   const onShowShortcuts = useCallback(() => {
     setOpen(false);
     setShortcutsOpen(true);
@@ -35,6 +59,7 @@ export function PaletteProvider({ children }: { children: ReactNode }) {
       if (event.key === 'Control' || event.key === 'Meta') void loadDialog();
       if ((event.ctrlKey || event.metaKey) && !event.altKey && event.key.toLowerCase() === 'k') {
         event.preventDefault();
+        if (!isOpen.current) returnFocus.current = focusedOutsidePalette();
         setOpen((v) => {
           if (!v) setQuery('');
           return !v;
@@ -89,6 +114,7 @@ function PaletteLoading({ query, setQuery, onClose }: { query: string; setQuery:
       <div className="fixed inset-0 z-40 bg-basalt/30" aria-hidden="true" onMouseDown={onClose} />
       <div
         ref={box}
+        data-palette-placeholder=""
         role="dialog"
         aria-modal="true"
         aria-label="Command palette"

@@ -101,6 +101,33 @@ describe('state that follows the browser or the document', () => {
     expect(await card(page, 'params').count()).toBe(1);
   });
 
+  it('should give the focus back to where it was when the palette closes, the first time and after', async () => {
+    // WAI-ARIA Authoring Practices, dialog (modal) pattern: when a dialog closes, focus returns to the element
+    // that had it before (common practice). The first opening also passes through the placeholder that holds
+    // the focus while the palette's code loads.
+    const id = await sheetWithFormula('Palette focus check');
+    const page = await pageAs('editor');
+    await page.goto(`${appUrl()}/sheets/${id}`);
+    await settled(page);
+    const focused = () => page.evaluate(() => {
+      const active = document.activeElement as HTMLElement | null;
+      return active ? `${active.tagName.toLowerCase()}|${active.getAttribute('aria-label') ?? active.textContent?.trim().slice(0, 40) ?? ''}` : 'none';
+    });
+    const history = page.getByRole('link', { name: /^History/ });
+    for (const round of [1, 2]) {
+      await history.focus();
+      const before = await focused();
+      expect(before, `round ${round}`).toMatch(/^a\|History/);
+      await page.keyboard.press('ControlOrMeta+K');
+      const input = page.locator('[cmdk-input]');
+      await input.waitFor();
+      await expect.poll(() => page.evaluate(() => document.activeElement?.hasAttribute('cmdk-input') ?? false)).toBe(true);
+      await page.keyboard.press('Escape');
+      await input.waitFor({ state: 'detached' });
+      await expect.poll(focused, { timeout: 2000 }).toBe(before);
+    }
+  });
+
   it('should put back the text of a renamed parameter and of a display unit on undo', async () => {
     const id = await sheetWithFormula('Undo of field text check');
     const page = await pageAs('editor');
