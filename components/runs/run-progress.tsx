@@ -1,7 +1,7 @@
 'use client';
 
 import { Button } from '@/components/ui/button';
-import { useEffect, useRef, useState } from 'react';
+import { useEffect, useEffectEvent, useState } from 'react';
 import type { SheetResults } from '@/lib/sheet/types';
 import { ApiError, apiFetch, failureOf } from '@/lib/api-client';
 
@@ -41,10 +41,9 @@ export function RunProgress({
   const [run, setRun] = useState<RunState>({ id: runId, status: 'queued', progress: 0 });
   const [cancelling, setCancelling] = useState(false);
   const [problem, setProblem] = useState<string | null>(null);
-  const handlers = useRef({ onDone, onEnded });
-  useEffect(() => {
-    handlers.current = { onDone, onEnded };
-  }, [onDone, onEnded]);
+  // The parent's latest callbacks, called from the polling effect without restarting it.
+  const done = useEffectEvent(onDone);
+  const ended = useEffectEvent(onEnded);
 
   useEffect(() => {
     let stopped = false;
@@ -59,11 +58,11 @@ export function RunProgress({
           setProblem(null);
           setRun(body.run);
           if (body.run.status === 'done' && body.results) {
-            handlers.current.onDone(body.results);
+            done(body.results);
             return;
           }
           if (body.run.status === 'failed' || body.run.status === 'cancelled') {
-            handlers.current.onEnded(body.run);
+            ended(body.run);
             return;
           }
         }

@@ -1,6 +1,6 @@
 'use client';
 
-import { useEffect, useRef } from 'react';
+import { useEffect, useEffectEvent } from 'react';
 import type { PaletteCommand } from '@/components/palette/command-registry';
 import { KEYMAP, commandForKey } from '@/components/palette/keymap';
 import { isTypingTarget } from '@/components/palette/shortcuts';
@@ -15,10 +15,8 @@ const ALIASES: Record<string, string> = { 'redo-y': 'redo' };
  * fields or expressions (undo shares the sheet's history there); in plain text boxes only those for fields.
  */
 export function useSheetKeyboard(commands: PaletteCommand[]): void {
-  const latest = useRef(commands);
-  useEffect(() => {
-    latest.current = commands;
-  }, [commands]);
+  // The commands as of this render, read when a key arrives (the listener itself is added once).
+  const commandFor = useEffectEvent((id: string) => commands.find((c) => c.id === id));
   useEffect(() => {
     const onKey = (event: KeyboardEvent) => {
       if (event.defaultPrevented || event.isComposing) return;
@@ -38,7 +36,7 @@ export function useSheetKeyboard(commands: PaletteCommand[]): void {
         const inExpression = Boolean((event.target as Element | null)?.closest?.('.cm-editor'));
         if (!chord.inFields && !(chord.inExpressions && inExpression)) return;
       }
-      const command = latest.current.find((c) => c.id === (ALIASES[chordId] ?? chordId));
+      const command = commandFor(ALIASES[chordId] ?? chordId);
       if (!command) return;
       event.preventDefault();
       command.run();
