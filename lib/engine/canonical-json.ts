@@ -17,6 +17,15 @@ const nativeWellFormed = typeof (String.prototype as WellFormed).isWellFormed ==
 
 function hasLoneSurrogate(value: string): boolean {
   if (nativeWellFormed) return !(value as unknown as Required<WellFormed>).isWellFormed();
+  return scanForLoneSurrogate(value);
+}
+
+/**
+ * The same test by scanning UTF-16 code units, for engines without String.prototype.isWellFormed: Node.js has
+ * it from 20, browsers from 2023 (Chrome 111, Firefox 119, Safari 16.4), and the sheet page's merge check
+ * runs this module in the browser. Exported so tests can compare it with the native one.
+ */
+export function scanForLoneSurrogate(value: string): boolean {
   for (let i = 0; i < value.length; i++) {
     const code = value.charCodeAt(i);
     if (code >= 0xd800 && code <= 0xdbff) {

@@ -22,6 +22,9 @@ export function configureUnits(math: MathJsInstance): { isValuelessUnitByMathjs:
   math.createUnit('atoms', { definition: '1', aliases: ['atom'] });
   // The annus on its own (1 mm/a), the trade's usual unit beside ka, Ma and Ga (CONTRACT §3).
   math.createUnit('a', { definition: '1 yr' });
+  // The hectare's symbol (SI Brochure, 9th ed., Table 8: ha = 10^4 m^2), usual for catchment and plot areas;
+  // mathjs knows the unit only by its name. Without prefixes, as the annus: "ha" is not hecto-annus.
+  math.createUnit('ha', { definition: '1 hectare' });
 
   // How a result is shown when no display unit is given, fixed for reproducibility.
   // mathjs shows a product, quotient or power of quantities (e.g. (2 J) / (1 s)) through

@@ -11,9 +11,10 @@ import type { Spread, UncertaintyEcho } from './uncertainty/plan';
  * The engine's semver, in every results document. It keys the caches of earlier results (incremental evaluation,
  * long runs, report verification), so a change that alters any result raises it. 1.0.1: ranges in expressions
  * include their end, as in mathjs (`1:4` is [1, 2, 3, 4]); profile_evolution's Newton stopping rule allows for the
- * rounding of elevations far from 0 m.
+ * rounding of elevations far from 0 m. 1.1.0: a degC or degF value taken from one in K is refused as ambiguous, a
+ * sum or difference below absolute zero is refused, a bare unit in a sum is named; `ha` is the hectare.
  */
-export const ENGINE_VERSION = '1.0.1';
+export const ENGINE_VERSION = '1.1.0';
 /** CONTRACT §3 Limits: the size of a results document (UTF-8 bytes of its JSON). */
 export const MAX_RESULTS_BYTES = 16 * 1024 * 1024;
 /** Room kept for the envelope (format, hash, engine) and the block names as keys. */

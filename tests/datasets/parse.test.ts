@@ -252,6 +252,10 @@ describe('checkUnitDimension (engine)', () => {
     expect(checkUnitDimension('km', 'length')).toEqual({ ok: true, toSI: 1000 });
     expect(checkUnitDimension('ft', 'length')).toMatchObject({ ok: true, toSI: 0.3048 }); // international foot, exact (common practice)
     expect(checkUnitDimension('km^2', 'area')).toEqual({ ok: true, toSI: 1e6 });
+    // The hectare by its symbol and its name: 1 ha = 10^4 m^2 (SI Brochure, 9th ed., 2019, Table 8).
+    expect(checkUnitDimension('ha', 'area')).toEqual({ ok: true, toSI: 1e4 });
+    expect(checkUnitDimension('hectare', 'area')).toEqual({ ok: true, toSI: 1e4 });
+    expect(checkUnitDimension('ha', 'length')).toMatchObject({ ok: false, reason: 'wrong_dimension' });
     expect(checkUnitDimension('m^2/yr', 'area_per_time')).toMatchObject({ ok: true, toSI: 1 / 31_557_600 });
     expect(checkUnitDimension('m^3/s/m', 'area_per_time')).toMatchObject({ ok: true, toSI: 1 });
     expect(checkUnitDimension('2 m', 'length')).toMatchObject({ ok: false, reason: 'unknown_unit' });

@@ -1,6 +1,7 @@
 import canonicalize from 'canonicalize';
+import fc from 'fast-check';
 import { describe, expect, it } from 'vitest';
-import { canonicalJson } from '@/lib/engine/canonical-json';
+import { canonicalJson, scanForLoneSurrogate } from '@/lib/engine/canonical-json';
 import { DEMO_SHEETS } from '@/lib/demo/sheets';
 import type { SheetDocument } from '@/lib/engine';
 import { canonicalSheetJson, checkSheetDocument } from '@/lib/engine/document';
@@ -22,6 +23,48 @@ describe('canonicalJson', () => {
     expect(() => canonicalJson({ x: Number.NaN })).toThrow();
     expect(() => canonicalJson([Infinity])).toThrow();
     expect(() => canonicalJson('\ud800')).toThrow();
+  });
+});
+
+// The scan used where String.prototype.isWellFormed is missing (older browsers) against Node's own
+// isWellFormed (ECMAScript 2024): a string is well formed when every surrogate is paired, a high
+// one (D800–DBFF) followed by a low one (DC00–DFFF) (The Unicode Standard, §3.9, UTF-16; from memory).
+describe('scanForLoneSurrogate (the fallback of the lone-surrogate check)', () => {
+  const native = (text: string) => !(text as unknown as { isWellFormed(): boolean }).isWellFormed();
+
+  it('should find exactly the lone surrogates, wherever they stand', () => {
+    const cases: [string, boolean][] = [
+      ['', false],
+      ['plain ascii', false],
+      ['é € 😀', false], // 😀 is the pair D83D DE00
+      ['\ud83d\ude00', false],
+      ['\ud800', true], // a high surrogate at the end
+      ['\udc00', true], // a low surrogate alone
+      ['a\ud800b', true], // a high surrogate followed by no low one
+      ['\ud800\ud800\udc00', true], // two highs: the first is alone
+      ['\udc00\ud800', true], // reversed pair
+      ['\ud83d\ude00\udc00', true], // a pair, then a lone low
+      ['x\udbff\udfff', false], // the last pair (U+10FFFF)
+      ['\ud7ff\ue000', false], // just outside the surrogate range on both sides
+      ['\ud800\ue000', true], // a high followed by U+E000, no low surrogate
+      ['\ud800\udbff', true],
+    ];
+    for (const [text, lone] of cases) {
+      expect(scanForLoneSurrogate(text), JSON.stringify(text)).toBe(lone);
+      expect(native(text), JSON.stringify(text)).toBe(lone);
+    }
+  });
+
+  it('should agree with isWellFormed on 5,000 generated strings of UTF-16 code units', () => {
+    // Code units near the surrogate range and ordinary ones, so that pairs, halves and neighbours all occur.
+    const unit = fc.oneof(fc.integer({ min: 0xd7f0, max: 0xe010 }), fc.integer({ min: 0, max: 0xffff }));
+    fc.assert(
+      fc.property(fc.array(unit, { maxLength: 12 }), (units) => {
+        const text = String.fromCharCode(...units);
+        return scanForLoneSurrogate(text) === native(text);
+      }),
+      { numRuns: 5000, seed: 8785 },
+    );
   });
 });
 

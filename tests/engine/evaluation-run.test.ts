@@ -68,7 +68,7 @@ describe('a run (evaluate.ts)', () => {
     expect(Object.keys(results.blocks)).toEqual(['late', 'early']);
     expect(results.blocks.late!.outputs.value!.value).toBe(6);
     expect(results.format).toBe('denudata-results@1');
-    expect(results.engine).toBe('1.0.1');
+    expect(results.engine).toBe('1.1.0');
   });
 
   it('should report progress after each block, ending at 1', () => {

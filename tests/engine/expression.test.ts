@@ -28,6 +28,15 @@ describe('expression', () => {
       expectClose(evaluateQuick('1 Ga to Myr').value, 1000, 1e-12);
       expectClose(evaluateQuick('1 mm/yr to km/Myr').value, 1, 1e-12);
     });
+
+    it('should read ha as the hectare, 10^4 m^2, with no prefixes (SI Brochure, 9th ed., 2019, Table 8)', () => {
+      expect(evaluateQuick('1 ha to m^2').value).toBe(10_000);
+      expect(evaluateQuick('250 ha to km^2').value).toBe(2.5);
+      expect(evaluateQuick('3 ha').unit).toBe('ha');
+      // Not hecto-annus (a is the annus, unprefixed), and no kilo-hectare.
+      expect(refusal('1 kha').message).toContain('unknown name "kha"');
+      expect(evaluateQuick('1 ha + 1 hectare to m^2').value).toBe(20_000);
+    });
   });
 
   describe('quick results', () => {
