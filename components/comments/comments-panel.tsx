@@ -127,6 +127,11 @@ export function CommentsPanel({
         Comments on <span className="num">{blockName}</span> <span className="font-normal text-slate">({open.length} open)</span>
       </h2>
       {isLoading ? <p className="text-slate">Loading…</p> : null}
+      {data && data.total > data.listed ? (
+        <p className="text-[12px] text-slate" data-testid="comments-left-out">
+          The sheet has {data.total} comments; the newest {data.listed} are listed, with the start of their threads. Older ones are kept but not shown here.
+        </p>
+      ) : null}
       {canComment ? (
         <CommentForm
           members={members}

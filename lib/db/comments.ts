@@ -28,6 +28,12 @@ export type CommentItem = {
 
 export type CommentThread = CommentItem & { replies: CommentItem[] };
 
+/**
+ * At most this many of a sheet's newest comments are listed (with the first comment of each of their threads,
+ * when older): a sheet may gather any number of comments, and the sheet page asks for them every 20 s.
+ */
+export const MAX_LISTED_COMMENTS = 500;
+
 type BlockLike = { id: string; name?: string };
 type DocumentLike = { title?: string; blocks?: BlockLike[] };
 
@@ -68,7 +74,9 @@ async function documentsFor(sheet: Sheet, numbers: number[]): Promise<Map<number
 
 /**
  * A sheet's comments as threads (oldest first), optionally for one block, with the open-thread count
- * of every block (for the sheet page's badges).
+ * of every block (for the sheet page's badges). Only the MAX_LISTED_COMMENTS newest comments are listed, each
+ * in its thread (whose first comment comes with it even when older); `total` counts them all and `listed`
+ * those in `items`, so a reader can say that older ones are left out.
  */
 export async function listCommentsBySheet({
   sheetId,
@@ -76,19 +84,23 @@ export async function listCommentsBySheet({
 }: {
   sheetId: string;
   blockId?: string;
-}): Promise<{ items: CommentThread[]; total: number; openByBlock: Record<string, number> }> {
+}): Promise<{ items: CommentThread[]; total: number; listed: number; openByBlock: Record<string, number> }> {
   db();
   const sheet = await Sheet.findByPk(sheetId);
   if (!sheet) throw notFound('Sheet');
-  const [comments, all] = await Promise.all([
-    Comment.findAll({
-      where: { sheetId, ...(blockId ? { blockId } : {}) },
-      order: [['createdAt', 'ASC'], ['id', 'ASC']],
-    }),
-    Comment.findAll({ where: { sheetId, parentId: null, resolvedAt: null }, attributes: ['blockId'] }),
+  const where = { sheetId, ...(blockId ? { blockId } : {}) };
+  const [newest, total, open] = await Promise.all([
+    Comment.findAll({ where, order: [['createdAt', 'DESC'], ['id', 'DESC']], limit: MAX_LISTED_COMMENTS }),
+    Comment.count({ where }),
+    Comment.count({ where: { sheetId, parentId: null, resolvedAt: null }, group: ['blockId'] }),
   ]);
+  // The first comment of a listed reply's thread, when it is older than the newest ones.
+  const listedIds = new Set(newest.map((c) => c.id));
+  const missingRoots = [...new Set(newest.map((c) => c.parentId).filter((id): id is string => id !== null && !listedIds.has(id)))];
+  const roots = missingRoots.length ? await Comment.findAll({ where: { id: missingRoots, sheetId } }) : [];
+  const comments = [...newest, ...roots].sort((a, b) => new Date(a.createdAt).getTime() - new Date(b.createdAt).getTime() || (a.id < b.id ? -1 : a.id > b.id ? 1 : 0));
   const openByBlock: Record<string, number> = {};
-  for (const c of all) openByBlock[c.blockId] = (openByBlock[c.blockId] ?? 0) + 1;
+  for (const row of open as unknown as { blockId: string; count: number | string }[]) openByBlock[row.blockId] = Number(row.count);
 
   const documents = await documentsFor(sheet, comments.map((c) => c.revision));
   const headBlocks = new Map(blocksOf(documents.get(sheet.headRevision)).map((b) => [b.id, blockFingerprint(b)]));
@@ -141,7 +153,7 @@ export async function listCommentsBySheet({
     threads.get(c.parentId)?.replies.push(toItem(c));
   }
   const items = [...threads.values()];
-  return { items, total: comments.length, openByBlock };
+  return { items, total, listed: comments.length, openByBlock };
 }
 
 // ---------- writing ----------

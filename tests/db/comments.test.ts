@@ -1,5 +1,7 @@
 import { beforeAll, describe, expect, it } from 'vitest';
-import { createComment, extractMentionHandles, listCommentsBySheet, resolveMentions, updateComment } from '@/lib/db/comments';
+import { QueryTypes } from 'sequelize';
+import { db } from '@/lib/db';
+import { createComment, extractMentionHandles, listCommentsBySheet, MAX_LISTED_COMMENTS, resolveMentions, updateComment } from '@/lib/db/comments';
 import { saveRevision } from '@/lib/db/revision-save';
 import { makeSheet, rejection, sampleDocument, useTeamFixture } from '../support/review-fixtures';
 
@@ -79,5 +81,43 @@ describe('comments (lib/db/comments)', () => {
     const items = (await listCommentsBySheet({ sheetId: sheet.id })).items;
     expect(items.find((c) => c.id === onParams.comment.id)?.outdated).toBe(true);
     expect(items.find((c) => c.id === onNote.comment.id)?.outdated).toBe(false);
+  });
+
+  it('should list only the newest MAX_LISTED_COMMENTS comments, with the start of their threads, and count them all', async () => {
+    const own = (await makeSheet(team.teamId, team.people.editor.id)).id;
+    await saveRevision({ sheetId: own, userId: team.people.editor.id, baseRevision: 0, document: sampleDocument(), message: 'r1' });
+    // An old thread on hill made the ordinary way, 520 replies to it and then 3 new threads on params, each a
+    // second apart (made in one INSERT … SELECT: the listing reads them as any comment).
+    const root = await createComment({ sheetId: own, authorId: team.people.reviewer.id, blockId: 'b-hill', revision: 1, body: 'The first question' });
+    await db().query(
+      `INSERT INTO comments (sheet_id, block_id, revision, parent_id, author_id, body, created_at, updated_at)
+       SELECT :sheetId, 'b-hill', 1, :root, :author, 'Reply ' || lpad(g::text, 3, '0'), now() + g * interval '1 second', now() + g * interval '1 second'
+         FROM generate_series(1, 520) g`,
+      { replacements: { sheetId: own, root: root.comment.id, author: team.people.editor.id }, type: QueryTypes.INSERT },
+    );
+    await db().query(
+      `INSERT INTO comments (sheet_id, block_id, revision, author_id, body, created_at, updated_at)
+       SELECT :sheetId, 'b-params', 1, :author, 'New thread ' || g, now() + (600 + g) * interval '1 second', now() + (600 + g) * interval '1 second'
+         FROM generate_series(1, 3) g`,
+      { replacements: { sheetId: own, author: team.people.owner.id }, type: QueryTypes.INSERT },
+    );
+    const listing = await listCommentsBySheet({ sheetId: own });
+    expect(MAX_LISTED_COMMENTS).toBe(500);
+    expect(listing.total).toBe(1 + 520 + 3);
+    // The 500 newest are the 3 new threads and replies 024 … 520; the old first comment comes with its thread.
+    expect(listing.listed).toBe(501);
+    expect(listing.items.map((t) => t.body)).toEqual(['The first question', 'New thread 1', 'New thread 2', 'New thread 3']);
+    const replies = listing.items[0]!.replies.map((r) => r.body);
+    expect(replies.length).toBe(497);
+    expect(replies[0]).toBe('Reply 024');
+    expect(replies.at(-1)).toBe('Reply 520');
+    // Open threads are counted over all comments, listed or not.
+    expect(listing.openByBlock).toEqual({ 'b-hill': 1, 'b-params': 3 });
+    // For one block: its newest 500 and the count of all its comments.
+    const hill = await listCommentsBySheet({ sheetId: own, blockId: 'b-hill' });
+    expect(hill).toMatchObject({ total: 521, listed: 501 });
+    expect(hill.items[0]!.replies[0]!.body).toBe('Reply 021');
+    const params = await listCommentsBySheet({ sheetId: own, blockId: 'b-params' });
+    expect(params).toMatchObject({ total: 3, listed: 3 });
   });
 });

@@ -48,6 +48,8 @@ describe('scanForLoneSurrogate (the fallback of the lone-surrogate check)', () =
       ['\ud7ff\ue000', false], // just outside the surrogate range on both sides
       ['\ud800\ue000', true], // a high followed by U+E000, no low surrogate
       ['\ud800\udbff', true],
+      ['\ud800\udc00', false], // the first pair (U+10000): both ends of the ranges
+      ['\udfff', true], // the last low surrogate, alone
     ];
     for (const [text, lone] of cases) {
       expect(scanForLoneSurrogate(text), JSON.stringify(text)).toBe(lone);
