@@ -242,4 +242,54 @@ describe('numerics/erf-fit', () => {
       expect(result.inverse).toBeNull();
     }
   });
+
+  it('finds the global minimum of a profile with two local minima (two steps), where LM alone keeps to its start', () => {
+    // Two scarps of one profile (3 m at x = 4 m, 1.5 m at x = −5 m): a single erf fitted with a free x0 has a local
+    // minimum at each step, and only the bigger step is the global one. The reference is independent: S on a dense
+    // (ln Kt, x0) grid, each point solved for (c, a, b) by the normal equations with Cramer's rule (common practice),
+    // then polished by ml-levenberg-marquardt from the grid's best point.
+    const x = Float64Array.from({ length: 61 }, (_, i) => -12 + (24 * i) / 60);
+    const z = Float64Array.from(x, (v) => 50 + 3 * (mathjsErf((v - 4) / (2 * Math.sqrt(1))) as number) + 1.5 * (mathjsErf((v + 5) / (2 * Math.sqrt(0.5))) as number));
+    const data: FitData = { x, z, w: Float64Array.from(x, () => 1) };
+    const options: FitOptions = { ktMin: 0.01, ktMax: 100, x0Min: -10, x0Max: 10 };
+
+    const det3 = (m: number[][]) =>
+      m[0]![0]! * (m[1]![1]! * m[2]![2]! - m[1]![2]! * m[2]![1]!) -
+      m[0]![1]! * (m[1]![0]! * m[2]![2]! - m[1]![2]! * m[2]![0]!) +
+      m[0]![2]! * (m[1]![0]! * m[2]![1]! - m[1]![1]! * m[2]![0]!);
+    const linearFit = (kt: number, x0: number): Params | null => {
+      const rows = Array.from(x, (v) => [1, mathjsErf((v - x0) / (2 * Math.sqrt(kt))) as number, v - x0]);
+      const A = [0, 1, 2].map((j) => [0, 1, 2].map((k) => rows.reduce((sum, r) => sum + r[j]! * r[k]!, 0)));
+      const r = [0, 1, 2].map((j) => rows.reduce((sum, row, i) => sum + row[j]! * z[i]!, 0));
+      const d = det3(A);
+      if (Math.abs(d) < 1e-12) return null;
+      const solve = (col: number) => det3(A.map((row, i) => row.map((v, k) => (k === col ? r[i]! : v)))) / d;
+      return [solve(0), solve(1), solve(2), kt, x0];
+    };
+    let gridBest: { params: Params; S: number } | null = null;
+    for (let i = 0; i <= 80; i++) {
+      const kt = Math.exp(Math.log(0.01) + (Math.log(1e4) * i) / 80);
+      for (let j = 0; j <= 80; j++) {
+        const params = linearFit(kt, -10 + (20 * j) / 80);
+        if (!params) continue;
+        const S = sumOfSquares(data, params);
+        if (!gridBest || S < gridBest.S) gridBest = { params, S };
+      }
+    }
+    const reference = referenceFit(data, gridBest!.params, true);
+    expect(reference.params[4]).toBeGreaterThan(3);
+    expect(reference.params[4]).toBeLessThan(5);
+
+    const result = fitErfScarp(data, options);
+    expect(result.failure).toBeUndefined();
+    expectClose(result.S, reference.S, 1e-6);
+    const got = paramsOf(result);
+    for (let k = 0; k < 5; k++) expectClose(got[k]!, reference.params[k]!, 1e-4, 1e-6);
+    expectLocalMinimum(data, got, true);
+
+    // The other minimum is real: started at the smaller step, the reference stays there, with a larger S.
+    const other = referenceFit(data, [50, 1.5, 0, 0.5, -5], true);
+    expect(other.params[4]).toBeLessThan(-4);
+    expect(other.S).toBeGreaterThan(1.5 * result.S);
+  });
 });
