@@ -13,6 +13,10 @@
  * fixed 100 requests per second, open loop (`--fixed-seconds`, default 5; 0 leaves it out).
  * With a baseline build as A (an earlier commit served from its own worktree and database), this is the
  * issue-8 comparison "against today" made in one run on one machine.
+ * On two cores the load generator and PostgreSQL share the CPU with the server under test, which pulls every
+ * rps ratio below its CPU ratio. To measure the server alone, serve both apps with `taskset -c 0`, move
+ * PostgreSQL to the other core (`taskset -a -p -c 1 <pid>` for each of its processes) and run this script
+ * with `taskset -c 1` (DEVELOPERS.md, "Ninth session").
  */
 import { execFileSync } from 'node:child_process';
 import { readFileSync } from 'node:fs';
