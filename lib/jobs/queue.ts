@@ -17,12 +17,17 @@ export const QUEUES = {
   evaluationRun: { name: 'evaluation-run', retryLimit: 0, retryDelay: 0, retryBackoff: false },
   /** Deletes rate-limit counters whose window has ended (scheduled, RATE_LIMIT_PRUNE_CRON). */
   rateLimitPrune: { name: 'rate-limits-prune', retryLimit: 1, retryDelay: 60, retryBackoff: false },
+  /** Deletes sent mails and spent reset tokens past their retention (scheduled, RETENTION_PRUNE_CRON; lib/db/retention.ts). */
+  retentionPrune: { name: 'retention-prune', retryLimit: 1, retryDelay: 60, retryBackoff: false },
   /** Fails stalled long runs and queues again runs whose job was never sent (scheduled, lib/jobs/run-sweeper.ts). */
   runSweep: { name: 'runs-sweep', retryLimit: 1, retryDelay: 30, retryBackoff: false },
 } as const;
 
 /** When the rate-limit counters are pruned: every 10 minutes (pg-boss sends one job per slot, whichever instance). */
 export const RATE_LIMIT_PRUNE_CRON = '*/10 * * * *';
+
+/** When mails and reset tokens past their retention are deleted: hourly, at 17 minutes past. */
+export const RETENTION_PRUNE_CRON = '17 * * * *';
 
 export type QueueName = (typeof QUEUES)[keyof typeof QUEUES]['name'];
 

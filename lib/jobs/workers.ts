@@ -5,7 +5,8 @@ import { deliverMail } from '@/lib/mail';
 import { getOutboxMessage, markOutboxAttemptFailed, markOutboxSent } from '@/lib/mail/outbox';
 import { notifyPasswordReset } from '@/lib/notifications';
 import { pruneRateLimits } from '@/lib/rate-limit';
-import { QUEUES, RATE_LIMIT_PRUNE_CRON, jobQueue } from './queue';
+import { pruneRetiredRecords } from '@/lib/db/retention';
+import { QUEUES, RATE_LIMIT_PRUNE_CRON, RETENTION_PRUNE_CRON, jobQueue } from './queue';
 import { RUN_SWEEP_CRON, sweepRuns } from './run-sweeper';
 import { startRunWorker } from './runs';
 
@@ -47,6 +48,7 @@ export async function startJobWorkers(): Promise<void> {
     for (const job of jobs) await runPasswordResetJob(job.data);
   });
   await scheduleRateLimitPruning(boss);
+  await scheduleRetentionPruning(boss);
   await scheduleRunSweeps(boss);
   await startRunWorker();
 }
@@ -64,5 +66,13 @@ export async function scheduleRateLimitPruning(boss: PgBoss): Promise<void> {
   await boss.schedule(QUEUES.rateLimitPrune.name, RATE_LIMIT_PRUNE_CRON, {}, { tz: 'UTC' });
   await boss.work(QUEUES.rateLimitPrune.name, { pollingIntervalSeconds: 10 }, async () => {
     await pruneRateLimits();
+  });
+}
+
+/** Schedules the pruning of mails and reset tokens past their retention and works its jobs (one job per hour). */
+export async function scheduleRetentionPruning(boss: PgBoss): Promise<void> {
+  await boss.schedule(QUEUES.retentionPrune.name, RETENTION_PRUNE_CRON, {}, { tz: 'UTC' });
+  await boss.work(QUEUES.retentionPrune.name, { pollingIntervalSeconds: 10 }, async () => {
+    await pruneRetiredRecords();
   });
 }
