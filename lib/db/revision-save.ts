@@ -168,7 +168,7 @@ export async function saveRevision({
               document: evaluated.document,
               documentHash: evaluated.hash,
               engineVersion: evaluated.engineVersion,
-              cachedResults: null,
+              cachedFrom: null,
             },
             transaction,
           )

@@ -61,23 +61,54 @@ function toRecord(row: RunRow): RunRecord {
   };
 }
 
-/** Results of an earlier finished run of the same document and engine (the cache by hash). */
-export async function findCachedRunResults({
+/** An earlier finished run of the same document and engine that holds its results (the cache by hash). */
+export interface CachedRun {
+  runId: string;
+  results: SheetResults;
+}
+
+/** The newest finished, reusable run of the same document and engine that holds its results, or null. */
+export async function findCachedRun({ documentHash, engineVersion }: { documentHash: string; engineVersion: string }): Promise<CachedRun | null> {
+  const rows = await db().query<{ id: string; results: SheetResults }>(
+    `SELECT id, results FROM runs WHERE document_hash = :documentHash AND engine_version = :engineVersion AND status = 'done'
+       AND cacheable AND results IS NOT NULL ORDER BY finished_at DESC LIMIT 1`,
+    { replacements: { documentHash, engineVersion }, type: QueryTypes.SELECT },
+  );
+  return rows[0] ? { runId: rows[0].id, results: rows[0].results } : null;
+}
+
+/** The results of an earlier finished run of the same document and engine, or null. */
+export async function findCachedRunResults(key: { documentHash: string; engineVersion: string }): Promise<SheetResults | null> {
+  return (await findCachedRun(key))?.results ?? null;
+}
+
+/**
+ * A finished run of this sheet for the same target (draft version or revision), document and engine, if there is
+ * one: a repeated request for it is answered with that run rather than a new row.
+ */
+export async function findFinishedRunFor({
+  sheetId,
+  draftVersion,
+  revisionNumber,
   documentHash,
   engineVersion,
 }: {
+  sheetId: string;
+  draftVersion: number | null;
+  revisionNumber: number | null;
   documentHash: string;
   engineVersion: string;
-}): Promise<SheetResults | null> {
-  const rows = await db().query<{ results: SheetResults }>(
-    `SELECT results FROM runs WHERE document_hash = :documentHash AND engine_version = :engineVersion AND status = 'done'
-       AND cacheable ORDER BY finished_at DESC LIMIT 1`,
-    { replacements: { documentHash, engineVersion }, type: QueryTypes.SELECT },
+}): Promise<RunRecord | null> {
+  const rows = await db().query<RunRow>(
+    `SELECT ${COLUMNS} FROM runs WHERE sheet_id = :sheetId AND draft_version IS NOT DISTINCT FROM :draftVersion
+       AND revision_number IS NOT DISTINCT FROM :revisionNumber AND document_hash = :documentHash
+       AND engine_version = :engineVersion AND status = 'done' AND cacheable ORDER BY finished_at DESC LIMIT 1`,
+    { replacements: { sheetId, draftVersion, revisionNumber, documentHash, engineVersion }, type: QueryTypes.SELECT },
   );
-  return rows[0]?.results ?? null;
+  return rows[0] ? toRecord(rows[0]) : null;
 }
 
-/** Inserts a run: queued, or done at once with cached results. */
+/** Inserts a run: queued, or done at once referring to the cached run that holds the results (never a copy). */
 export async function insertRun({
   sheetId,
   requesterId,
@@ -86,7 +117,7 @@ export async function insertRun({
   document,
   documentHash,
   engineVersion,
-  cachedResults,
+  cachedFrom,
 }: {
   sheetId: string;
   requesterId: string;
@@ -95,14 +126,15 @@ export async function insertRun({
   document: SheetDocument;
   documentHash: string;
   engineVersion: string;
-  cachedResults: SheetResults | null;
+  /** The id of the finished run that holds the results (findCachedRun), or null for a run to be queued. */
+  cachedFrom: string | null;
 }, transaction?: Transaction): Promise<RunRecord> {
-  const done = cachedResults !== null;
+  const done = cachedFrom !== null;
   const rows = await db().query<RunRow>(
     `INSERT INTO runs (id, sheet_id, requester_id, draft_version, revision_number, document, document_hash, engine_version,
-                       status, progress, results, started_at, finished_at)
+                       status, progress, results_from, started_at, finished_at)
      VALUES (:id, :sheetId, :requesterId, :draftVersion, :revisionNumber, :document, :documentHash, :engineVersion,
-             :status, :progress, :results, ${done ? 'now()' : 'NULL'}, ${done ? 'now()' : 'NULL'})
+             :status, :progress, :resultsFrom, ${done ? 'now()' : 'NULL'}, ${done ? 'now()' : 'NULL'})
      RETURNING ${COLUMNS}`,
     {
       replacements: {
@@ -116,7 +148,7 @@ export async function insertRun({
         engineVersion,
         status: done ? 'done' : 'queued',
         progress: done ? 1 : 0,
-        results: done ? JSON.stringify(cachedResults) : null,
+        resultsFrom: cachedFrom,
       },
       type: QueryTypes.SELECT,
       ...(transaction ? { transaction } : {}),
@@ -137,10 +169,11 @@ export async function getRun({ runId }: { runId: string }): Promise<RunRecord> {
 
 /** The stored results of a finished run, or null. */
 export async function getRunResults({ runId }: { runId: string }): Promise<SheetResults | null> {
-  const rows = await db().query<{ results: SheetResults | null }>(`SELECT results FROM runs WHERE id = :runId`, {
-    replacements: { runId },
-    type: QueryTypes.SELECT,
-  });
+  // Its own results, or those of the run it was answered from (insertRun with cachedFrom).
+  const rows = await db().query<{ results: SheetResults | null }>(
+    `SELECT COALESCE(r.results, h.results) AS results FROM runs r LEFT JOIN runs h ON h.id = r.results_from WHERE r.id = :runId`,
+    { replacements: { runId }, type: QueryTypes.SELECT },
+  );
   return rows[0]?.results ?? null;
 }
 

@@ -3,7 +3,8 @@ import { ENGINE_VERSION, EngineError, hashSheetDocument, type SheetDocument, typ
 import {
   cancelRun,
   failRun,
-  findCachedRunResults,
+  findCachedRun,
+  findFinishedRunFor,
   finishRun,
   getRun,
   getRunDocument,
@@ -128,7 +129,12 @@ export async function requestRun({
   revisionNumber?: number | null;
 }): Promise<RunRecord> {
   const documentHash = hashSheetDocument(document);
-  const cachedResults = await findCachedRunResults({ documentHash, engineVersion: ENGINE_VERSION });
+  const cached = await findCachedRun({ documentHash, engineVersion: ENGINE_VERSION });
+  if (cached) {
+    // The same request answered before (same sheet, target, document and engine): that run again, no new row.
+    const again = await findFinishedRunFor({ sheetId, draftVersion, revisionNumber, documentHash, engineVersion: ENGINE_VERSION });
+    if (again) return again;
+  }
   const run = await insertRun({
     sheetId,
     requesterId,
@@ -137,11 +143,11 @@ export async function requestRun({
     document,
     documentHash,
     engineVersion: ENGINE_VERSION,
-    cachedResults,
+    cachedFrom: cached?.runId ?? null,
   });
-  if (run.status === 'done' && cachedResults && revisionNumber !== null) {
+  if (run.status === 'done' && cached && revisionNumber !== null) {
     // Done at once from the cache: a revision still without results takes them now.
-    await storeRevisionResults({ sheetId, number: revisionNumber, results: cachedResults });
+    await storeRevisionResults({ sheetId, number: revisionNumber, results: cached.results });
   }
   await enqueueRun(run);
   return run;

@@ -53,7 +53,7 @@ describe('the run sweeper', () => {
       document,
       documentHash: hashSheetDocument(document),
       engineVersion: ENGINE_VERSION,
-      cachedResults: null,
+      cachedFrom: null,
     });
   };
 

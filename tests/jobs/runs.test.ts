@@ -3,9 +3,12 @@ import { existsSync } from 'node:fs';
 import path from 'node:path';
 import PgBoss from 'pg-boss';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import { evaluateSheet, estimateEvaluationCost, needsLongRun, SYNC_COST_LIMIT, type SheetDocument } from '@/lib/engine';
+import { ENGINE_VERSION, evaluateSheet, estimateEvaluationCost, hashSheetDocument, needsLongRun, SYNC_COST_LIMIT, type SheetDocument } from '@/lib/engine';
 import { databaseUrl } from '@/lib/db/config';
-import { getRun } from '@/lib/db/runs';
+import { QueryTypes } from 'sequelize';
+import { db } from '@/lib/db';
+import { getRun, insertRun } from '@/lib/db/runs';
+import { deleteSheet } from '@/lib/db/sheets';
 import { WORKER_FILE } from '@/lib/evaluation/pool';
 import { stopJobQueue } from '@/lib/jobs/queue';
 import { closeRunPool, executeRun, RUN_QUEUE, startRunWorker } from '@/lib/jobs/runs';
@@ -108,6 +111,65 @@ describe('long runs on the job queue (CONTRACT §6b)', () => {
     const a = await readSheetRun({ runId: first.id, userId: team.people.owner.id });
     const b = await readSheetRun({ runId: second.id, userId: team.people.owner.id });
     expect(b.results).toEqual(a.results);
+  }, 120_000);
+
+  it('should refer to cached results instead of copying them, answer a repeated request with the same run, and hand the results on when their holder is deleted', async () => {
+    const document = { ...sampleDocument(), title: `Held once ${Date.now()}-${Math.random()}` };
+    const stored = async (runId: string) => {
+      const [row] = await db().query<{ has_results: boolean; results_from: string | null }>(
+        'SELECT results IS NOT NULL AS has_results, results_from FROM runs WHERE id = $1',
+        { bind: [runId], type: QueryTypes.SELECT },
+      );
+      return row;
+    };
+    const runsOf = async (sheetId: string) =>
+      Number((await db().query<{ n: string }>('SELECT count(*) AS n FROM runs WHERE sheet_id = $1', { bind: [sheetId], type: QueryTypes.SELECT }))[0]!.n);
+
+    const holderSheet = await makeSheet(team.teamId, team.people.owner.id, document);
+    const holder = await startSheetRun({ sheetId: holderSheet.id, userId: team.people.owner.id, draftVersion: 1 });
+    await waitFor(() => getRun({ runId: holder.id }), (r) => r.status === 'done');
+    const expected = (await readSheetRun({ runId: holder.id, userId: team.people.owner.id })).results;
+    expect(expected).toEqual(evaluateSheet(asSheet(document)));
+    expect(await stored(holder.id)).toEqual({ has_results: true, results_from: null });
+
+    // Another sheet with the same document: done at once, referring to the holder, no copy.
+    const otherSheet = await makeSheet(team.teamId, team.people.editor.id, document);
+    const cached = await startSheetRun({ sheetId: otherSheet.id, userId: team.people.editor.id, draftVersion: 1 });
+    expect(cached.status).toBe('done');
+    expect(await stored(cached.id)).toEqual({ has_results: false, results_from: holder.id });
+    expect((await readSheetRun({ runId: cached.id, userId: team.people.viewer.id })).results).toEqual(expected);
+
+    // The same request again (same sheet, draft version, document): the same run, no new row.
+    for (let i = 0; i < 3; i++) {
+      const again = await startSheetRun({ sheetId: otherSheet.id, userId: team.people.viewer.id, draftVersion: 1 });
+      expect(again.id).toBe(cached.id);
+    }
+    expect(await runsOf(otherSheet.id)).toBe(1);
+
+    // A referring run in the holder's own sheet goes with it in the same statement (no heir from there).
+    const sibling = await insertRun({
+      sheetId: holderSheet.id,
+      requesterId: team.people.owner.id,
+      draftVersion: 2,
+      revisionNumber: null,
+      document: asSheet(document),
+      documentHash: hashSheetDocument(asSheet(document)),
+      engineVersion: ENGINE_VERSION,
+      cachedFrom: holder.id,
+    });
+    expect(await stored(sibling.id)).toEqual({ has_results: false, results_from: holder.id });
+
+    // The holder's sheet (no revision) is deleted with its runs: the referring run elsewhere takes the results over.
+    expect(await deleteSheet({ sheetId: holderSheet.id, userId: team.people.owner.id })).toBe('deleted');
+    expect(await runsOf(holderSheet.id)).toBe(0);
+    expect(await stored(cached.id)).toEqual({ has_results: true, results_from: null });
+    expect((await readSheetRun({ runId: cached.id, userId: team.people.editor.id })).results).toEqual(expected);
+
+    // A third sheet now refers to the new holder.
+    const third = await makeSheet(team.teamId, team.people.editor.id, document);
+    const fromNewHolder = await startSheetRun({ sheetId: third.id, userId: team.people.editor.id, draftVersion: 1 });
+    expect(await stored(fromNewHolder.id)).toEqual({ has_results: false, results_from: cached.id });
+    expect((await readSheetRun({ runId: fromNewHolder.id, userId: team.people.editor.id })).results).toEqual(expected);
   }, 120_000);
 
   it('should cancel a running run (requester or owner only) and stop its evaluation', async () => {
