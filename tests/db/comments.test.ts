@@ -83,6 +83,38 @@ describe('comments (lib/db/comments)', () => {
     expect(items.find((c) => c.id === onNote.comment.id)?.outdated).toBe(false);
   });
 
+  it('should compare a comment’s block with the head revision only: moved or changed-and-restored is current, removed is outdated', async () => {
+    const sheet = await makeSheet(team.teamId, team.people.editor.id);
+    const save = (baseRevision: number, document: ReturnType<typeof sampleDocument>) =>
+      saveRevision({ sheetId: sheet.id, userId: team.people.editor.id, baseRevision, document, message: `r${baseRevision + 1}` });
+    const comment = async (blockId: string, revision: number) =>
+      (await createComment({ sheetId: sheet.id, authorId: team.people.reviewer.id, blockId, revision, body: `${blockId} at ${revision}` })).comment.id;
+    await save(0, sampleDocument());
+    const onParams = await comment('b-params', 1);
+    const onNote = await comment('b-note', 1);
+    const onHill = await comment('b-hill', 1);
+    // r2: K changed and the note removed; r3: K as in r1 again, the blocks in another order, inputs written in
+    // another key order, the note still gone.
+    const r2 = sampleDocument({ K: '0.002 m^2/yr' });
+    r2.blocks = r2.blocks.filter((b) => b.id !== 'b-note');
+    await save(1, r2);
+    const onParamsAtTwo = await comment('b-params', 2);
+    const r3 = sampleDocument();
+    const [params, hill] = r3.blocks as [{ inputs: Record<string, string> }, unknown];
+    params.inputs = { C: params.inputs.C!, K: params.inputs.K! };
+    r3.blocks = [hill, params] as typeof r3.blocks;
+    await save(2, r3);
+    const onHillAtHead = await comment('b-hill', 3);
+    const outdated = new Map((await listCommentsBySheet({ sheetId: sheet.id })).items.map((c) => [c.id, c.outdated]));
+    expect(Object.fromEntries([onParams, onNote, onHill, onParamsAtTwo, onHillAtHead].map((id) => [id, outdated.get(id)]))).toEqual({
+      [onParams]: false, // changed in r2, the same again in r3 (the head)
+      [onNote]: true, // gone from the head
+      [onHill]: false, // moved, not changed
+      [onParamsAtTwo]: true, // K of r2 is not the head's
+      [onHillAtHead]: false, // made on the head
+    });
+  });
+
   it('should list only the newest MAX_LISTED_COMMENTS comments, with the start of their threads, and count them all', async () => {
     const own = (await makeSheet(team.teamId, team.people.editor.id)).id;
     await saveRevision({ sheetId: own, userId: team.people.editor.id, baseRevision: 0, document: sampleDocument(), message: 'r1' });
