@@ -1,7 +1,7 @@
 import 'server-only';
-import { Op, QueryTypes } from 'sequelize';
+import { Op, QueryTypes, type Transaction } from 'sequelize';
 import { badRequest, forbidden, notFound } from '@/lib/errors';
-import { AuditEntry, Comment, Membership, Sheet, SheetRevision, User } from '@/models';
+import { AuditEntry, Comment, Membership, Sheet, User } from '@/models';
 import { recordAudit } from './audit';
 import { isUuid } from './ids';
 import { db } from './index';
@@ -33,11 +33,6 @@ export type CommentThread = CommentItem & { replies: CommentItem[] };
  * when older): a sheet may gather any number of comments, and the sheet page asks for them every 20 s.
  */
 export const MAX_LISTED_COMMENTS = 500;
-
-type BlockLike = { id: string; name?: string };
-type DocumentLike = { title?: string; blocks?: BlockLike[] };
-
-const blocksOf = (document: unknown): BlockLike[] => ((document as DocumentLike | null)?.blocks ?? []).filter((b) => b && typeof b.id === 'string');
 
 // ---------- mentions ----------
 
@@ -176,6 +171,39 @@ export type CreatedComment = {
 };
 
 /**
+ * The name of a block as it is in a revision of a sheet (0: the draft), or its id when it has none; null when the
+ * revision has no such block, undefined when there is no such revision. Read in PostgreSQL, so a comment on a
+ * sheet with a large document does not parse that document in the app.
+ */
+async function blockNameAt({
+  sheetId,
+  revision,
+  blockId,
+  transaction,
+}: {
+  sheetId: string;
+  revision: number;
+  blockId: string;
+  transaction: Transaction;
+}): Promise<string | null | undefined> {
+  const nameIn = (column: string) =>
+    `(SELECT COALESCE(b.value ->> 'name', b.value ->> 'id') FROM jsonb_array_elements(${column} -> 'blocks') b WHERE b.value ->> 'id' = $2 LIMIT 1)`;
+  const rows =
+    revision === 0
+      ? await db().query<{ name: string | null }>(`SELECT ${nameIn('s.draft_document')} AS name FROM sheets s WHERE s.id = $1`, {
+          bind: [sheetId, blockId],
+          type: QueryTypes.SELECT,
+          transaction,
+        })
+      : await db().query<{ name: string | null }>(`SELECT ${nameIn('r.document')} AS name FROM sheet_revisions r WHERE r.sheet_id = $1 AND r.number = $3`, {
+          bind: [sheetId, blockId, revision],
+          type: QueryTypes.SELECT,
+          transaction,
+        });
+  return rows.length ? rows[0]!.name : undefined;
+}
+
+/**
  * Adds a comment (or a reply) on a block as it was in a given revision: the revision must exist (0 only
  * while the sheet has none, for the draft), and the block must be in it. A reply joins its parent's
  * thread (one level: a reply to a reply joins the same thread) and takes its block and revision.
@@ -197,30 +225,28 @@ export async function createComment({
 }): Promise<CreatedComment> {
   const sequelize = db();
   return sequelize.transaction(async (transaction) => {
-    const sheet = await Sheet.findByPk(sheetId, { transaction });
+    // Not the draft: the block's name is looked up in PostgreSQL (blockNameAt), no document is read here.
+    const sheet = await Sheet.findByPk(sheetId, { transaction, attributes: ['id', 'teamId', 'title', 'headRevision'] });
     if (!sheet) throw notFound('Sheet');
     let anchorBlock = blockId;
     let anchorRevision = revision;
     let threadId: string | null = null;
-    let document: unknown = sheet.draftDocument;
+    let blockName: string;
     if (parentId) {
       const parent = await Comment.findOne({ where: { id: parentId, sheetId }, transaction });
       if (!parent) throw badRequest('parentId: there is no such comment on this sheet', 'parentId');
       threadId = parent.parentId ?? parent.id;
       anchorBlock = parent.blockId;
       anchorRevision = parent.revision;
+      blockName = (await blockNameAt({ sheetId, revision: anchorRevision, blockId: anchorBlock, transaction })) ?? anchorBlock;
     } else {
-      if (revision === 0) {
-        if (sheet.headRevision > 0) throw badRequest('revision: comment on a saved revision (0 is only for a sheet without revisions)', 'revision');
-        document = sheet.draftDocument;
-      } else {
-        const row = await SheetRevision.findOne({ where: { sheetId, number: revision }, attributes: ['document'], transaction });
-        if (!row) throw badRequest(`revision: this sheet has no revision ${revision}`, 'revision');
-        document = row.document;
+      if (revision === 0 && sheet.headRevision > 0) {
+        throw badRequest('revision: comment on a saved revision (0 is only for a sheet without revisions)', 'revision');
       }
-      if (!blocksOf(document).some((b) => b.id === blockId)) {
-        throw badRequest(`blockId: revision ${revision} has no block with id "${blockId}"`, 'blockId');
-      }
+      const found = await blockNameAt({ sheetId, revision, blockId, transaction });
+      if (found === undefined) throw badRequest(`revision: this sheet has no revision ${revision}`, 'revision');
+      if (found === null) throw badRequest(`blockId: revision ${revision} has no block with id "${blockId}"`, 'blockId');
+      blockName = found;
     }
     const comment = await Comment.create(
       { sheetId, blockId: anchorBlock, revision: anchorRevision, parentId: threadId, authorId, body, resolvedAt: null, resolvedBy: null },
@@ -240,10 +266,6 @@ export async function createComment({
       transaction,
     );
     const author = members.find((m) => m.id === authorId) ?? null;
-    if (threadId && anchorRevision > 0) {
-      document = (await SheetRevision.findOne({ where: { sheetId, number: anchorRevision }, attributes: ['document'], transaction }))?.document;
-    }
-    const blockName = blocksOf(document).find((b) => b.id === anchorBlock)?.name ?? anchorBlock;
     return {
       comment: {
         id: comment.id,

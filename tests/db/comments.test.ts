@@ -37,6 +37,7 @@ describe('comments (lib/db/comments)', () => {
     expect(first.blockName).toBe('hill');
     const reply = await createComment({ sheetId, authorId: team.people.editor.id, blockId: 'ignored', revision: 0, body: `Yes, @${reviewerHandle}.`, parentId: first.comment.id });
     expect(reply.comment).toMatchObject({ parentId: first.comment.id, blockId: 'b-hill', revision: 1 });
+    expect(reply.blockName).toBe('hill'); // the thread's block, named as in its revision
     // A reply to a reply joins the same thread (one level).
     const nested = await createComment({ sheetId, authorId: team.people.owner.id, blockId: 'b-hill', revision: 1, body: 'Fine by me.', parentId: reply.comment.id });
     expect(nested.comment.parentId).toBe(first.comment.id);
@@ -62,6 +63,20 @@ describe('comments (lib/db/comments)', () => {
     await updateComment({ commentId: made.comment.id, userId: team.people.reviewer.id, body: 'Typo fixed' });
     const item = (await listCommentsBySheet({ sheetId, blockId: 'b-params' })).items.find((c) => c.id === made.comment.id)!;
     expect(item).toMatchObject({ body: 'Typo fixed', edited: true });
+  });
+
+  it('should anchor a comment on the draft of a sheet without revisions, named as in the draft, and refuse 0 once there are revisions', async () => {
+    const draftOnly = await makeSheet(team.teamId, team.people.editor.id);
+    const onDraft = await createComment({ sheetId: draftOnly.id, authorId: team.people.reviewer.id, blockId: 'b-params', revision: 0, body: 'Before any revision' });
+    expect(onDraft.blockName).toBe('params');
+    expect(onDraft.comment).toMatchObject({ blockId: 'b-params', revision: 0 });
+    const replyOnDraft = await createComment({ sheetId: draftOnly.id, authorId: team.people.editor.id, blockId: 'x', revision: 0, body: 'Noted', parentId: onDraft.comment.id });
+    expect(replyOnDraft.blockName).toBe('params');
+    const missing = await rejection(createComment({ sheetId: draftOnly.id, authorId: team.people.reviewer.id, blockId: 'b-nothing', revision: 0, body: 'x' }));
+    expect(missing.field).toBe('blockId');
+    expect(missing.message).toBe('blockId: revision 0 has no block with id "b-nothing"');
+    const afterSave = await rejection(createComment({ sheetId, authorId: team.people.reviewer.id, blockId: 'b-hill', revision: 0, body: 'x' }));
+    expect(afterSave.field).toBe('revision');
   });
 
   it('should refuse a block that is not in the revision, or a revision that does not exist (400)', async () => {
