@@ -61,25 +61,23 @@ function toRecord(row: RunRow): RunRecord {
   };
 }
 
-/** An earlier finished run of the same document and engine that holds its results (the cache by hash). */
-export interface CachedRun {
-  runId: string;
-  results: SheetResults;
-}
-
-/** The newest finished, reusable run of the same document and engine that holds its results, or null. */
-export async function findCachedRun({ documentHash, engineVersion }: { documentHash: string; engineVersion: string }): Promise<CachedRun | null> {
-  const rows = await db().query<{ id: string; results: SheetResults }>(
-    `SELECT id, results FROM runs WHERE document_hash = :documentHash AND engine_version = :engineVersion AND status = 'done'
+/**
+ * The newest finished, reusable run of the same document and engine that holds its results (the cache by hash),
+ * or null: only its id, so a cached run request never reads a results document (up to 16 MB) into the app.
+ */
+export async function findCachedRunId({ documentHash, engineVersion }: { documentHash: string; engineVersion: string }): Promise<string | null> {
+  const rows = await db().query<{ id: string }>(
+    `SELECT id FROM runs WHERE document_hash = :documentHash AND engine_version = :engineVersion AND status = 'done'
        AND cacheable AND results IS NOT NULL ORDER BY finished_at DESC LIMIT 1`,
     { replacements: { documentHash, engineVersion }, type: QueryTypes.SELECT },
   );
-  return rows[0] ? { runId: rows[0].id, results: rows[0].results } : null;
+  return rows[0]?.id ?? null;
 }
 
 /** The results of an earlier finished run of the same document and engine, or null. */
 export async function findCachedRunResults(key: { documentHash: string; engineVersion: string }): Promise<SheetResults | null> {
-  return (await findCachedRun(key))?.results ?? null;
+  const runId = await findCachedRunId(key);
+  return runId ? getRunResults({ runId }) : null;
 }
 
 /**
@@ -126,7 +124,7 @@ export async function insertRun({
   document: SheetDocument;
   documentHash: string;
   engineVersion: string;
-  /** The id of the finished run that holds the results (findCachedRun), or null for a run to be queued. */
+  /** The id of the finished run that holds the results (findCachedRunId), or null for a run to be queued. */
   cachedFrom: string | null;
 }, transaction?: Transaction): Promise<RunRecord> {
   const done = cachedFrom !== null;
@@ -276,13 +274,15 @@ export async function countActiveRunsByRequester({ requesterId }: { requesterId:
 }
 
 /**
- * Stores a finished run's results on its revision when the revision has none yet (a run that was done
- * at once from the cache never passes through finishRun). False when the revision already had results.
+ * A revision still without results takes those of a finished run (its own, or the run it refers to), copied
+ * inside PostgreSQL; false when the revision already had results or the run has none.
  */
-export async function storeRevisionResults({ sheetId, number, results }: { sheetId: string; number: number; results: SheetResults }): Promise<boolean> {
+export async function storeRevisionResultsFromRun({ sheetId, number, runId }: { sheetId: string; number: number; runId: string }): Promise<boolean> {
   const [, count] = await db().query(
-    `UPDATE sheet_revisions SET results = :results WHERE sheet_id = :sheetId AND number = :number AND results IS NULL`,
-    { replacements: { results: JSON.stringify(results), sheetId, number }, type: QueryTypes.UPDATE },
+    `UPDATE sheet_revisions SET results = held.results
+       FROM (SELECT COALESCE(r.results, h.results) AS results FROM runs r LEFT JOIN runs h ON h.id = r.results_from WHERE r.id = :runId) held
+      WHERE sheet_id = :sheetId AND number = :number AND sheet_revisions.results IS NULL AND held.results IS NOT NULL`,
+    { replacements: { runId, sheetId, number }, type: QueryTypes.UPDATE },
   );
   return count === 1;
 }

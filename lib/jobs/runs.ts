@@ -3,7 +3,7 @@ import { ENGINE_VERSION, EngineError, hashSheetDocument, type SheetDocument, typ
 import {
   cancelRun,
   failRun,
-  findCachedRun,
+  findCachedRunId,
   findFinishedRunFor,
   finishRun,
   getRun,
@@ -11,7 +11,7 @@ import {
   insertRun,
   markRunStarted,
   recordRunProgress,
-  storeRevisionResults,
+  storeRevisionResultsFromRun,
   type RunRecord,
 } from '@/lib/db/runs';
 import { createEvaluationPool } from '@/lib/evaluation/pool';
@@ -129,8 +129,8 @@ export async function requestRun({
   revisionNumber?: number | null;
 }): Promise<RunRecord> {
   const documentHash = hashSheetDocument(document);
-  const cached = await findCachedRun({ documentHash, engineVersion: ENGINE_VERSION });
-  if (cached) {
+  const cachedFrom = await findCachedRunId({ documentHash, engineVersion: ENGINE_VERSION });
+  if (cachedFrom) {
     // The same request answered before (same sheet, target, document and engine): that run again, no new row.
     const again = await findFinishedRunFor({ sheetId, draftVersion, revisionNumber, documentHash, engineVersion: ENGINE_VERSION });
     if (again) return again;
@@ -143,11 +143,11 @@ export async function requestRun({
     document,
     documentHash,
     engineVersion: ENGINE_VERSION,
-    cachedFrom: cached?.runId ?? null,
+    cachedFrom,
   });
-  if (run.status === 'done' && cached && revisionNumber !== null) {
-    // Done at once from the cache: a revision still without results takes them now.
-    await storeRevisionResults({ sheetId, number: revisionNumber, results: cached.results });
+  if (run.status === 'done' && cachedFrom && revisionNumber !== null) {
+    // Done at once from the cache: a revision still without results takes them now (copied in PostgreSQL).
+    await storeRevisionResultsFromRun({ sheetId, number: revisionNumber, runId: cachedFrom });
   }
   await enqueueRun(run);
   return run;

@@ -9,6 +9,8 @@ import { QueryTypes } from 'sequelize';
 import { db } from '@/lib/db';
 import { getRun, insertRun } from '@/lib/db/runs';
 import { deleteSheet } from '@/lib/db/sheets';
+import { readRevision } from '@/lib/db/revisions';
+import { saveRevision } from '@/lib/db/revision-save';
 import { WORKER_FILE } from '@/lib/evaluation/pool';
 import { stopJobQueue } from '@/lib/jobs/queue';
 import { closeRunPool, executeRun, RUN_QUEUE, startRunWorker } from '@/lib/jobs/runs';
@@ -171,6 +173,35 @@ describe('long runs on the job queue (CONTRACT §6b)', () => {
     expect(await stored(fromNewHolder.id)).toEqual({ has_results: false, results_from: cached.id });
     expect((await readSheetRun({ runId: fromNewHolder.id, userId: team.people.editor.id })).results).toEqual(expected);
   }, 120_000);
+
+  it('should give a revision without results those of a cached run when its run is asked for again (copied in PostgreSQL)', async () => {
+    // Over the cost limit: 7 uncertain quantities at 100,000 samples (as in tests/api/revision-runs.test.ts).
+    const document = {
+      format: 'denudata-sheet@1',
+      title: `Costly ${Date.now()}-${Math.random()}`,
+      uncertainty: { method: 'monte_carlo', samples: 100_000, seed: 5 },
+      blocks: Array.from({ length: 7 }, (_, i) => ({ id: `u${i}`, name: `u${i}`, type: 'quantities', inputs: { a: `normal(${i + 1} m, 0.1 m)` } })),
+    } as unknown as FixtureDocument;
+    expect(needsLongRun(asSheet(document))).toBe(true);
+    const revisionSheet = await makeSheet(team.teamId, team.people.editor.id, document);
+    const saved = (await saveRevision({ sheetId: revisionSheet.id, userId: team.people.editor.id, baseRevision: 0, document, message: 'costly' })) as { run?: { id: string } };
+    expect(saved.run?.id).toEqual(expect.any(String));
+    await cancelSheetRun({ runId: saved.run!.id, userId: team.people.editor.id });
+    expect((await readRevision({ sheetId: revisionSheet.id, number: 1 })).results).toBeNull();
+
+    // The same document evaluated on another sheet's draft holds the results now.
+    const draftSheet = await makeSheet(team.teamId, team.people.owner.id, document);
+    const holder = await startSheetRun({ sheetId: draftSheet.id, userId: team.people.owner.id, draftVersion: 1 });
+    await waitFor(() => getRun({ runId: holder.id }), (r) => r.status === 'done', 150_000);
+    const expected = (await readSheetRun({ runId: holder.id, userId: team.people.owner.id })).results!;
+
+    const again = await startSheetRun({ sheetId: revisionSheet.id, userId: team.people.editor.id, revision: 1 });
+    expect(again.status).toBe('done');
+    expect(again.revisionNumber).toBe(1);
+    const [row] = await db().query<{ results_from: string | null }>('SELECT results_from FROM runs WHERE id = $1', { bind: [again.id], type: QueryTypes.SELECT });
+    expect(row!.results_from).toBe(holder.id);
+    expect((await readRevision({ sheetId: revisionSheet.id, number: 1 })).results).toEqual(expected);
+  }, 180_000);
 
   it('should cancel a running run (requester or owner only) and stop its evaluation', async () => {
     const sheet = await makeSheet(team.teamId, team.people.editor.id, slowDocument(60));
