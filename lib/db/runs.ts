@@ -175,6 +175,15 @@ export async function getRunResults({ runId }: { runId: string }): Promise<Sheet
   return rows[0]?.results ?? null;
 }
 
+/** The stored results of a finished run as JSON text (as PostgreSQL writes them, never parsed here), or null. */
+export async function getRunResultsText({ runId }: { runId: string }): Promise<string | null> {
+  const rows = await db().query<{ results: string | null }>(
+    `SELECT COALESCE(r.results, h.results)::text AS results FROM runs r LEFT JOIN runs h ON h.id = r.results_from WHERE r.id = :runId`,
+    { replacements: { runId }, type: QueryTypes.SELECT },
+  );
+  return rows[0]?.results ?? null;
+}
+
 /** The document a run evaluates (for the job). */
 export async function getRunDocument({ runId }: { runId: string }): Promise<SheetDocument | null> {
   const rows = await db().query<{ document: SheetDocument }>(`SELECT document FROM runs WHERE id = :runId`, {

@@ -1,8 +1,8 @@
 import 'server-only';
 import { requireSheetRole } from '@/lib/auth/guard';
-import { countActiveRunsByRequester, getRun, getRunResults, type RunRecord } from '@/lib/db/runs';
+import { countActiveRunsByRequester, getRun, getRunResults, getRunResultsText, type RunRecord } from '@/lib/db/runs';
 import { getSheetDraft } from '@/lib/db/sheets';
-import { readRevision } from '@/lib/db/revisions';
+import { appendRawMembers, readRevision } from '@/lib/db/revisions';
 import { conflict, forbidden, rateLimited } from '@/lib/errors';
 import { requestRun, requestRunCancel } from '@/lib/jobs/runs';
 import { requireValidDocument } from '@/lib/sheet/evaluation.server';
@@ -61,6 +61,19 @@ export async function readSheetRun({ runId, userId }: { runId: string; userId: s
   if (run.status !== 'done') return { run: toRunBody(run) };
   const results = await getRunResults({ runId });
   return { run: toRunBody(run), ...(results ? { results } : {}) };
+}
+
+/**
+ * `readSheetRun`'s answer as JSON text, for the API: the results are spliced in as PostgreSQL writes them (see
+ * readRevisionJson for why); the same values and keys as `JSON.stringify(await readSheetRun(…))`.
+ */
+export async function readSheetRunJson({ runId, userId }: { runId: string; userId: string }): Promise<string> {
+  const run = await getRun({ runId });
+  await requireSheetRole({ userId, sheetId: run.sheetId, action: 'read' });
+  const body = { run: toRunBody(run) };
+  if (run.status !== 'done') return JSON.stringify(body);
+  const results = await getRunResultsText({ runId });
+  return appendRawMembers(body, results === null ? [] : [['results', results]]);
 }
 
 /** Cancels a run: its requester or an owner; others 403, non-members 404; a finished run 409. */

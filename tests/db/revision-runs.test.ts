@@ -7,13 +7,13 @@ import { evaluateSheet, estimateEvaluationCost, needsLongRun, SYNC_COST_LIMIT, t
 import { db } from '@/lib/db';
 import { getRun } from '@/lib/db/runs';
 import { applyReviewAction } from '@/lib/db/review';
-import { getRevision, getReviewSummary, listRevisionsBySheet, readRevision } from '@/lib/db/revisions';
+import { appendRawMembers, getRevision, getReviewSummary, listRevisionsBySheet, readRevision, readRevisionJson } from '@/lib/db/revisions';
 import { saveRevision } from '@/lib/db/revision-save';
 import { getSheetDetail } from '@/lib/db/sheet-detail';
 import { WORKER_FILE } from '@/lib/evaluation/pool';
 import { stopJobQueue } from '@/lib/jobs/queue';
 import { closeRunPool, startRunWorker } from '@/lib/jobs/runs';
-import { cancelSheetRun, startSheetRun } from '@/lib/runs/service.server';
+import { cancelSheetRun, readSheetRun, readSheetRunJson, startSheetRun } from '@/lib/runs/service.server';
 import { makeSheet as makeFixtureSheet, rejection, useTeamFixture } from '../support/review-fixtures';
 
 // CONTRACT §6b: a revision whose evaluation is estimated above the synchronous cost limit is saved at
@@ -31,6 +31,13 @@ function costlyDocument(blocks = 7, title = `Costly ${Date.now()}-${Math.random(
     uncertainty: { method: 'monte_carlo', samples: 100_000, seed: 1 },
     blocks: Array.from({ length: blocks }, (_, i) => ({ id: `u${i}`, name: `u${i}`, type: 'quantities', inputs: { a: `normal(${i + 1} m, 0.1 m)` } })),
   } as unknown as SheetDocument;
+}
+
+/** The JSON text parses to the same value as the object, with the same keys in the same order at the top. */
+async function expectSameJson(text: Promise<string>, value: object): Promise<void> {
+  const parsed = JSON.parse(await text);
+  expect(parsed).toEqual(JSON.parse(JSON.stringify(value)));
+  expect(Object.keys(parsed)).toEqual(Object.keys(value));
 }
 
 /** A sheet whose draft is the given document (the fixture's helper is typed for its sample). */
@@ -77,6 +84,8 @@ describe('revisions over the synchronous cost limit (CONTRACT §6b)', () => {
     expect(pending.evaluation.status).toBe('evaluating');
     expect(pending.evaluation.run?.id).toBe(saved.run!.id);
     expect(pending.review).toMatchObject({ status: 'unsigned', evaluating: true });
+    // The API's text (document and results spliced in as PostgreSQL writes them) says the same, key for key.
+    await expectSameJson(readRevisionJson({ sheetId: sheet.id, number: 1 }), pending);
     expect((await listRevisionsBySheet({ sheetId: sheet.id })).items[0]!.evaluation.status).toBe('evaluating');
     expect((await getSheetDetail({ sheetId: sheet.id, visibleTeamIds: [team.teamId] })).head).toMatchObject({ number: 1, evaluating: true });
     // Reports, CSV and records need the results: 409 until they are stored.
@@ -98,6 +107,10 @@ describe('revisions over the synchronous cost limit (CONTRACT §6b)', () => {
     // Equal to a synchronous evaluation of the same document, output for output (Monte Carlo is reproducible, §8.6).
     expect(stored.results).toEqual(evaluateSheet(document));
     expect(stored.results.blocks.u2!.outputs.a!.value).toBe(3);
+    await expectSameJson(readRevisionJson({ sheetId: sheet.id, number: 1 }), await readRevision({ sheetId: sheet.id, number: 1 }));
+    // The run's answer too: with its results once done.
+    await expectSameJson(readSheetRunJson({ runId: run.id, userId: team.people.viewer.id }), await readSheetRun({ runId: run.id, userId: team.people.viewer.id }));
+    expect(JSON.parse(await readSheetRunJson({ runId: run.id, userId: team.people.viewer.id })).results).toEqual(stored.results);
     const requested = await applyReviewAction({ sheetId: sheet.id, actorId: team.people.editor.id, action: 'request', revision: 1, reviewerId: team.people.reviewer.id });
     expect(requested.outcome.status).toBe('in_review');
 
@@ -133,6 +146,10 @@ describe('revisions over the synchronous cost limit (CONTRACT §6b)', () => {
     await cancelSheetRun({ runId: saved.run!.id, userId: team.people.editor.id });
     const cancelled = await readRevision({ sheetId: sheet.id, number: 1 });
     expect(cancelled.results).toBeNull();
+    // A run that is not done answers without results.
+    const cancelledRun = JSON.parse(await readSheetRunJson({ runId: saved.run!.id, userId: team.people.viewer.id }));
+    expect(Object.keys(cancelledRun)).toEqual(['run']);
+    expect(cancelledRun.run.status).toBe('cancelled');
     expect(cancelled.evaluation).toMatchObject({ status: 'failed', run: { id: saved.run!.id, status: 'cancelled' } });
     expect(
       (await rejection(applyReviewAction({ sheetId: sheet.id, actorId: team.people.owner.id, action: 'request', revision: 1, reviewerId: team.people.reviewer.id }))).status,
@@ -144,6 +161,13 @@ describe('revisions over the synchronous cost limit (CONTRACT §6b)', () => {
     const stored = await getRevision({ sheetId: sheet.id, number: 1 });
     expect(stored.results.blocks.u13!.outputs.a!.value).toBe(14);
   }, 240_000);
+
+  it('should append members whose values are JSON texts already, to empty and non-empty objects', () => {
+    expect(appendRawMembers({ a: 1, b: 'x"y' }, [['document', '{"k": [1, 2.5e-7]}'], ['results', 'null']])).toBe('{"a":1,"b":"x\\"y","document":{"k": [1, 2.5e-7]},"results":null}');
+    expect(JSON.parse(appendRawMembers({}, [['results', '[]']]))).toEqual({ results: [] });
+    expect(appendRawMembers({ run: { id: 'r' } }, [])).toBe('{"run":{"id":"r"}}');
+    expect(appendRawMembers({}, [])).toBe('{}');
+  });
 
   it('should estimate Monte Carlo cost from the blocks downstream of uncertain inputs, and profile_evolution samples at full grid cost', () => {
     // A heavy certain block beside a cheap uncertain one is not multiplied by the samples.

@@ -1,6 +1,6 @@
 import { requireUser } from '@/lib/auth/guard';
-import { cancelSheetRun, readSheetRun } from '@/lib/runs/service.server';
-import { json, notAllowed, parseWith, route, uuidParam } from '@/lib/http';
+import { cancelSheetRun, readSheetRunJson } from '@/lib/runs/service.server';
+import { json, jsonText, notAllowed, parseWith, route, uuidParam } from '@/lib/http';
 
 type Context = { params: Promise<{ runId: string }> };
 
@@ -8,7 +8,7 @@ type Context = { params: Promise<{ runId: string }> };
 export const GET = route(async (_request, { params }: Context) => {
   const user = await requireUser();
   const runId = parseWith(uuidParam, (await params).runId);
-  return json(await readSheetRun({ runId, userId: user.id }));
+  return jsonText(await readSheetRunJson({ runId, userId: user.id }));
 });
 
 /** Cancels a queued or running run: its requester or an owner of the team → 200 {run}. */
