@@ -9,9 +9,11 @@
 //  - CONNECT is handed to a `connect` listener, and without one Node drops the connection → 405;
 //  - static files (/_next/static, /fonts, the icons) do not pass through proxy.ts, and Next.js answered
 //    other methods than GET and HEAD with 500 → 405.
-// Every 405 has the contract's error shape and an Allow header.
+// Every 405 has the contract's error shape and an Allow header. Every request that passes also gets the socket's
+// peer address in PEER_HEADER (lib/http/peer.ts), for the per-address rate limits.
 import http from 'node:http';
 import type { Duplex } from 'node:stream';
+import { PEER_HEADER } from './peer';
 
 /** The methods the app serves anywhere; every other one is 405 here. */
 const SERVED = new Set(['GET', 'HEAD', 'POST', 'PUT', 'PATCH', 'DELETE', 'OPTIONS']);
@@ -75,6 +77,8 @@ export function installMethodGuard(): void {
     }
     if (event === 'request') {
       const [request, response] = args as [http.IncomingMessage, http.ServerResponse];
+      // The socket's peer, for per-address limits (lib/http/peer.ts); a client's own value is replaced.
+      request.headers[PEER_HEADER] = request.socket?.remoteAddress ?? '';
       const method = (request.method ?? '').toUpperCase();
       if (method !== 'GET' && method !== 'HEAD' && STATIC_PATHS.test(request.url ?? '')) {
         answer405(response, method, STATIC_ALLOW);

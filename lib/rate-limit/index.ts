@@ -7,6 +7,7 @@ import { RateLimiterPostgres, RateLimiterRes } from 'rate-limiter-flexible';
 import type { Sequelize } from 'sequelize';
 import { getSequelize } from '@/lib/db/sequelize';
 import { describeWait, rateLimited } from '@/lib/errors';
+import { PEER_HEADER, isTrustedProxy, normaliseAddress } from '@/lib/http/peer';
 
 const MINUTE = 60;
 const HOUR = 60 * MINUTE;
@@ -136,13 +137,20 @@ export async function pruneRateLimits(sequelize: Sequelize = getSequelize(), now
 }
 
 /**
- * The client's address for per-address limits: the last entry of X-Forwarded-For. Next.js fills that
- * header from the socket when a request arrives without one; behind a reverse proxy, the proxy must
- * set it (nginx: `proxy_set_header X-Forwarded-For $remote_addr`), since a client can send its own.
+ * The client's address for per-address limits. Behind a trusted proxy (the request's peer, which the server
+ * writes into PEER_HEADER, is loopback or listed in DENUDATA_TRUSTED_PROXIES): the last entry of X-Forwarded-For,
+ * the one that proxy wrote (nginx: `proxy_set_header X-Forwarded-For $remote_addr`). From any other peer: the
+ * peer itself, so a client talking to the app directly cannot spread its attempts over made-up addresses.
+ * Without a peer header (called outside the server): the last X-Forwarded-For entry, as before.
  */
 export function clientAddress(headers: Headers | Record<string, string | string[] | undefined>): string {
-  const raw = headers instanceof Headers ? headers.get('x-forwarded-for') : headers['x-forwarded-for'];
-  const value = Array.isArray(raw) ? raw.join(',') : raw;
-  const last = value?.split(',').map((part) => part.trim()).filter(Boolean).pop();
-  return last ? last.slice(0, 64) : 'unknown';
+  const read = (name: string) => {
+    const raw = headers instanceof Headers ? headers.get(name) : headers[name];
+    return (Array.isArray(raw) ? raw.join(',') : raw) ?? undefined;
+  };
+  const peer = read(PEER_HEADER)?.trim();
+  if (peer && !isTrustedProxy(peer)) return normaliseAddress(peer).slice(0, 64);
+  const last = read('x-forwarded-for')?.split(',').map((part) => part.trim()).filter(Boolean).pop();
+  if (last) return last.slice(0, 64);
+  return peer ? normaliseAddress(peer).slice(0, 64) : 'unknown';
 }

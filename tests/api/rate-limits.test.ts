@@ -4,6 +4,7 @@
 // (X-Forwarded-For, which the app takes as the client's) so the per-address limits of one test do not
 // touch another's. The window's end is moved into the past in the shared table to show that a limit
 // lifts when its window passes.
+import { QueryTypes } from 'sequelize';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { closeSequelize, getSequelize } from '@/lib/db/sequelize';
 import { fetchablePorts, startAppInstance, type AppInstance } from '../support/app-instance';
@@ -130,6 +131,20 @@ describe('sign-up: 10 per address per hour', () => {
     expectLimited(refused.created, 'sign-up 11');
     expect(Number(refused.created.headers.get('retry-after'))).toBeGreaterThan(3500);
     expect((await signUp(b.origin, { 'x-forwarded-for': address() })).created.status).toBe(201);
+  });
+
+  it('should count by the peer the server saw, never by a peer header the client sends (lib/http/peer.ts)', async () => {
+    // From loopback (a trusted peer, as a proxy on the same host would be) the forwarded address counts; a
+    // client's own x-denudata-peer is replaced by the server, so the made-up 192.0.2.x never becomes the key.
+    const forwarded = `10.77.${process.pid % 250}.${(Date.now() % 250) + 1}`;
+    const spoofed = `192.0.2.${(Date.now() % 250) + 1}`;
+    const { created } = await signUp(a.origin, { 'x-forwarded-for': forwarded, 'x-denudata-peer': spoofed });
+    expect(created.status).toBe(201);
+    const rows = await getSequelize().query<{ key: string; points: number }>('SELECT key, points FROM rate_limits WHERE key = ANY($1)', {
+      bind: [[`signUpAddress:${forwarded}`, `signUpAddress:${spoofed}`]],
+      type: QueryTypes.SELECT,
+    });
+    expect(rows).toEqual([{ key: `signUpAddress:${forwarded}`, points: 1 }]);
   });
 });
 

@@ -4,6 +4,7 @@
 import { afterAll, describe, expect, it } from 'vitest';
 import { AppError } from '@/lib/errors';
 import { RATE_LIMITS, RateLimit, clientAddress, type RateLimitName } from '@/lib/rate-limit';
+import { PEER_HEADER, isTrustedProxy } from '@/lib/http/peer';
 import { closeSequelize, getSequelize } from '@/lib/db/sequelize';
 import { Sequelize } from 'sequelize';
 import pg from 'pg';
@@ -95,5 +96,38 @@ describe('clientAddress', () => {
     expect(clientAddress(new Headers({ 'x-forwarded-for': '203.0.113.9, 10.0.0.2' }))).toBe('10.0.0.2');
     expect(clientAddress({ 'x-forwarded-for': '::1' })).toBe('::1');
     expect(clientAddress(new Headers())).toBe('unknown');
+  });
+
+  it('should believe X-Forwarded-For only from a trusted peer (loopback or DENUDATA_TRUSTED_PROXIES), else take the peer', () => {
+    const forwarded = '198.51.100.7, 203.0.113.40';
+    // Behind a proxy on the same host (and in the test runs): the entry that proxy wrote.
+    expect(clientAddress(new Headers({ [PEER_HEADER]: '127.0.0.1', 'x-forwarded-for': forwarded }))).toBe('203.0.113.40');
+    expect(clientAddress({ [PEER_HEADER]: '::ffff:127.0.0.1', 'x-forwarded-for': forwarded })).toBe('203.0.113.40');
+    expect(clientAddress({ [PEER_HEADER]: '::1', 'x-forwarded-for': forwarded })).toBe('203.0.113.40');
+    // A client talking to the app directly: its own address, whatever it claims.
+    expect(clientAddress({ [PEER_HEADER]: '192.0.2.33', 'x-forwarded-for': forwarded })).toBe('192.0.2.33');
+    expect(clientAddress({ [PEER_HEADER]: '::ffff:192.0.2.33', 'x-forwarded-for': forwarded })).toBe('192.0.2.33');
+    expect(clientAddress({ [PEER_HEADER]: '2001:DB8::5' })).toBe('2001:db8::5');
+    // A trusted peer that forwarded nothing: the peer.
+    expect(clientAddress({ [PEER_HEADER]: '127.0.0.1' })).toBe('127.0.0.1');
+  });
+
+  it('should trust the proxies listed in DENUDATA_TRUSTED_PROXIES and no look-alikes', () => {
+    expect(isTrustedProxy('10.0.0.2', '10.0.0.2, 10.0.0.3')).toBe(true);
+    expect(isTrustedProxy('::ffff:10.0.0.3', '10.0.0.2,10.0.0.3')).toBe(true);
+    expect(isTrustedProxy('10.0.0.20', '10.0.0.2')).toBe(false);
+    expect(isTrustedProxy('127.0.0.1', '')).toBe(true);
+    expect(isTrustedProxy('127.1.2.3', '')).toBe(true);
+    expect(isTrustedProxy('128.0.0.1', '')).toBe(false);
+    expect(isTrustedProxy('::2', '')).toBe(false);
+    expect(isTrustedProxy('192.0.2.33', '')).toBe(false);
+    const saved = process.env.DENUDATA_TRUSTED_PROXIES;
+    process.env.DENUDATA_TRUSTED_PROXIES = '192.0.2.33';
+    try {
+      expect(clientAddress({ [PEER_HEADER]: '192.0.2.33', 'x-forwarded-for': '198.51.100.7' })).toBe('198.51.100.7');
+    } finally {
+      if (saved === undefined) delete process.env.DENUDATA_TRUSTED_PROXIES;
+      else process.env.DENUDATA_TRUSTED_PROXIES = saved;
+    }
   });
 });
