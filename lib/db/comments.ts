@@ -1,8 +1,9 @@
 import 'server-only';
-import { Op, QueryTypes, type Transaction } from 'sequelize';
+import { Op } from 'sequelize';
 import { badRequest, forbidden, notFound } from '@/lib/errors';
 import { AuditEntry, Comment, Membership, Sheet, User } from '@/models';
 import { recordAudit } from './audit';
+import { blockNameAt, blocksUnchangedSince, revisionBlockKey } from './document-blocks';
 import { isUuid } from './ids';
 import { db } from './index';
 import { toPublicUser, type PublicUser } from './users';
@@ -48,36 +49,6 @@ export async function listTeamMembersAsPeople({ teamId }: { teamId: string }): P
 // ---------- reading ----------
 
 /**
- * Of the (revision, block) pairs asked for, those whose block is the same in the head revision, compared in
- * PostgreSQL (jsonb equality: key order ignored, numbers by value, as the JSON texts parsed would compare). Each
- * revision's document is expanded once there; only the pairs come back, so a sheet with many large revisions
- * costs the app nothing per listing (the sheet page lists comments every 20 s): it used to read every such
- * document into the app and parse it (about 100 ms of the server's main thread for 40 revisions of 600 kB).
- */
-async function blocksUnchangedSince(sheetId: string, headRevision: number, pairs: { revision: number; blockId: string }[]): Promise<Set<string>> {
-  if (pairs.length === 0) return new Set();
-  const rows = await db().query<{ revision: number; block_id: string }>(
-    `WITH wanted AS (SELECT DISTINCT w.revision, w.block_id FROM unnest($2::int[], $3::text[]) AS w(revision, block_id)),
-     then_blocks AS (
-       SELECT r.number AS revision, b.value ->> 'id' AS block_id, b.value AS block
-         FROM sheet_revisions r CROSS JOIN LATERAL jsonb_array_elements(r.document -> 'blocks') b
-        WHERE r.sheet_id = $1 AND r.number IN (SELECT revision FROM wanted)
-          AND b.value ->> 'id' IN (SELECT block_id FROM wanted)),
-     head_blocks AS (
-       SELECT b.value ->> 'id' AS block_id, b.value AS block
-         FROM sheet_revisions r CROSS JOIN LATERAL jsonb_array_elements(r.document -> 'blocks') b
-        WHERE r.sheet_id = $1 AND r.number = $4 AND b.value ->> 'id' IN (SELECT block_id FROM wanted))
-     SELECT w.revision, w.block_id FROM wanted w
-       JOIN then_blocks t ON t.revision = w.revision AND t.block_id = w.block_id
-       JOIN head_blocks h ON h.block_id = w.block_id
-      GROUP BY w.revision, w.block_id
-     HAVING bool_and(t.block = h.block)`,
-    { bind: [sheetId, pairs.map((p) => p.revision), pairs.map((p) => p.blockId), headRevision], type: QueryTypes.SELECT },
-  );
-  return new Set(rows.map((r) => `${r.revision}\u0000${r.block_id}`));
-}
-
-/**
  * A sheet's comments as threads (oldest first), optionally for one block, with the open-thread count
  * of every block (for the sheet page's badges). Only the MAX_LISTED_COMMENTS newest comments are listed, each
  * in its thread (whose first comment comes with it even when older); `total` counts them all and `listed`
@@ -115,7 +86,7 @@ export async function listCommentsBySheet({
     sheet.headRevision,
     comments.filter((c) => earlier(c) && c.revision > 0).map((c) => ({ revision: c.revision, blockId: c.blockId })),
   );
-  const outdated = (c: Comment) => earlier(c) && !unchanged.has(`${c.revision}\u0000${c.blockId}`);
+  const outdated = (c: Comment) => earlier(c) && !unchanged.has(revisionBlockKey(c.revision, c.blockId));
 
   const members = await listTeamMembersAsPeople({ teamId: sheet.teamId });
   const people = new Map(members.map((m) => [m.id, m]));
@@ -169,39 +140,6 @@ export type CreatedComment = {
   blockName: string;
   mentioned: PublicUser[];
 };
-
-/**
- * The name of a block as it is in a revision of a sheet (0: the draft), or its id when it has none; null when the
- * revision has no such block, undefined when there is no such revision. Read in PostgreSQL, so a comment on a
- * sheet with a large document does not parse that document in the app.
- */
-async function blockNameAt({
-  sheetId,
-  revision,
-  blockId,
-  transaction,
-}: {
-  sheetId: string;
-  revision: number;
-  blockId: string;
-  transaction: Transaction;
-}): Promise<string | null | undefined> {
-  const nameIn = (column: string) =>
-    `(SELECT COALESCE(b.value ->> 'name', b.value ->> 'id') FROM jsonb_array_elements(${column} -> 'blocks') b WHERE b.value ->> 'id' = $2 LIMIT 1)`;
-  const rows =
-    revision === 0
-      ? await db().query<{ name: string | null }>(`SELECT ${nameIn('s.draft_document')} AS name FROM sheets s WHERE s.id = $1`, {
-          bind: [sheetId, blockId],
-          type: QueryTypes.SELECT,
-          transaction,
-        })
-      : await db().query<{ name: string | null }>(`SELECT ${nameIn('r.document')} AS name FROM sheet_revisions r WHERE r.sheet_id = $1 AND r.number = $3`, {
-          bind: [sheetId, blockId, revision],
-          type: QueryTypes.SELECT,
-          transaction,
-        });
-  return rows.length ? rows[0]!.name : undefined;
-}
 
 /**
  * Adds a comment (or a reply) on a block as it was in a given revision: the revision must exist (0 only

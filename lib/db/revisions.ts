@@ -3,6 +3,7 @@ import { literal, QueryTypes } from 'sequelize';
 import { conflict, notFound } from '@/lib/errors';
 import type { SheetDocument, SheetResults } from '@/lib/engine';
 import { SheetRevision, User, type ReviewStatus } from '@/models';
+import { appendRawMembers } from '@/lib/http/json-text';
 import { db } from './index';
 import { latestRevisionRuns, type RunRecord } from './runs';
 import { toPublicUser, type PublicUser } from './users';
@@ -184,14 +185,6 @@ export async function readRevisionJson({ sheetId, number }: { sheetId: string; n
     ['document', documentText],
     ['results', resultsText],
   ]);
-}
-
-/** An object's JSON text with more members whose values are JSON texts already (appended in order). */
-export function appendRawMembers(object: object, members: [string, string][]): string {
-  const head = JSON.stringify(object);
-  const rest = members.map(([key, text]) => `${JSON.stringify(key)}:${text}`).join(',');
-  if (!rest) return head;
-  return head === '{}' ? `{${rest}}` : `${head.slice(0, -1)},${rest}}`;
 }
 
 /**

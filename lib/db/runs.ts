@@ -61,23 +61,29 @@ function toRecord(row: RunRow): RunRecord {
   };
 }
 
+/** The newest finished, reusable run of a document and engine that holds its results (the cache by hash). */
+const CACHE_HOLDER = `WHERE document_hash = :documentHash AND engine_version = :engineVersion AND status = 'done'
+  AND cacheable AND results IS NOT NULL ORDER BY finished_at DESC LIMIT 1`;
+
 /**
  * The newest finished, reusable run of the same document and engine that holds its results (the cache by hash),
  * or null: only its id, so a cached run request never reads a results document (up to 16 MB) into the app.
  */
 export async function findCachedRunId({ documentHash, engineVersion }: { documentHash: string; engineVersion: string }): Promise<string | null> {
   const rows = await db().query<{ id: string }>(
-    `SELECT id FROM runs WHERE document_hash = :documentHash AND engine_version = :engineVersion AND status = 'done'
-       AND cacheable AND results IS NOT NULL ORDER BY finished_at DESC LIMIT 1`,
+    `SELECT id FROM runs ${CACHE_HOLDER}`,
     { replacements: { documentHash, engineVersion }, type: QueryTypes.SELECT },
   );
   return rows[0]?.id ?? null;
 }
 
 /** The results of an earlier finished run of the same document and engine, or null. */
-export async function findCachedRunResults(key: { documentHash: string; engineVersion: string }): Promise<SheetResults | null> {
-  const runId = await findCachedRunId(key);
-  return runId ? getRunResults({ runId }) : null;
+export async function findCachedRunResults({ documentHash, engineVersion }: { documentHash: string; engineVersion: string }): Promise<SheetResults | null> {
+  const rows = await db().query<{ results: SheetResults }>(
+    `SELECT results FROM runs ${CACHE_HOLDER}`,
+    { replacements: { documentHash, engineVersion }, type: QueryTypes.SELECT },
+  );
+  return rows[0]?.results ?? null;
 }
 
 /**
@@ -165,22 +171,21 @@ export async function getRun({ runId }: { runId: string }): Promise<RunRecord> {
   return toRecord(rows[0]);
 }
 
+/** A run's results as JSON text: its own, or those of the run it was answered from (insertRun with cachedFrom). */
+const HELD_RESULTS_TEXT = `(SELECT COALESCE(r.results, h.results)::text FROM runs r LEFT JOIN runs h ON h.id = r.results_from WHERE r.id = :runId)`;
+
 /** The stored results of a finished run, or null. */
 export async function getRunResults({ runId }: { runId: string }): Promise<SheetResults | null> {
-  // Its own results, or those of the run it was answered from (insertRun with cachedFrom).
-  const rows = await db().query<{ results: SheetResults | null }>(
-    `SELECT COALESCE(r.results, h.results) AS results FROM runs r LEFT JOIN runs h ON h.id = r.results_from WHERE r.id = :runId`,
-    { replacements: { runId }, type: QueryTypes.SELECT },
-  );
-  return rows[0]?.results ?? null;
+  const text = await getRunResultsText({ runId });
+  return text === null ? null : (JSON.parse(text) as SheetResults);
 }
 
 /** The stored results of a finished run as JSON text (as PostgreSQL writes them, never parsed here), or null. */
 export async function getRunResultsText({ runId }: { runId: string }): Promise<string | null> {
-  const rows = await db().query<{ results: string | null }>(
-    `SELECT COALESCE(r.results, h.results)::text AS results FROM runs r LEFT JOIN runs h ON h.id = r.results_from WHERE r.id = :runId`,
-    { replacements: { runId }, type: QueryTypes.SELECT },
-  );
+  const rows = await db().query<{ results: string | null }>(`SELECT ${HELD_RESULTS_TEXT} AS results`, {
+    replacements: { runId },
+    type: QueryTypes.SELECT,
+  });
   return rows[0]?.results ?? null;
 }
 
@@ -288,8 +293,7 @@ export async function countActiveRunsByRequester({ requesterId }: { requesterId:
  */
 export async function storeRevisionResultsFromRun({ sheetId, number, runId }: { sheetId: string; number: number; runId: string }): Promise<boolean> {
   const [, count] = await db().query(
-    `UPDATE sheet_revisions SET results = held.results
-       FROM (SELECT COALESCE(r.results, h.results) AS results FROM runs r LEFT JOIN runs h ON h.id = r.results_from WHERE r.id = :runId) held
+    `UPDATE sheet_revisions SET results = held.results::jsonb FROM (SELECT ${HELD_RESULTS_TEXT} AS results) held
       WHERE sheet_id = :sheetId AND number = :number AND sheet_revisions.results IS NULL AND held.results IS NOT NULL`,
     { replacements: { runId, sheetId, number }, type: QueryTypes.UPDATE },
   );

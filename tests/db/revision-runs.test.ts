@@ -7,8 +7,9 @@ import { evaluateSheet, estimateEvaluationCost, needsLongRun, SYNC_COST_LIMIT, t
 import { db } from '@/lib/db';
 import { getRun } from '@/lib/db/runs';
 import { applyReviewAction } from '@/lib/db/review';
-import { appendRawMembers, getRevision, getReviewSummary, listRevisionsBySheet, readRevision, readRevisionJson } from '@/lib/db/revisions';
+import { getRevision, getReviewSummary, listRevisionsBySheet, readRevision, readRevisionJson } from '@/lib/db/revisions';
 import { saveRevision } from '@/lib/db/revision-save';
+import { appendRawMembers } from '@/lib/http/json-text';
 import { getSheetDetail } from '@/lib/db/sheet-detail';
 import { WORKER_FILE } from '@/lib/evaluation/pool';
 import { stopJobQueue } from '@/lib/jobs/queue';

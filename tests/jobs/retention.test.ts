@@ -9,6 +9,7 @@ import { MAIL_RETENTION_MS, RESET_TOKEN_RETENTION_MS, pruneRetiredRecords } from
 import { createUserWithTeam } from '@/lib/db/users';
 import { jobQueue, QUEUES, RETENTION_PRUNE_CRON, stopJobQueue } from '@/lib/jobs/queue';
 import { scheduleRetentionPruning } from '@/lib/jobs/workers';
+import { pollUntil, scheduledCron } from '../support/jobs';
 
 afterAll(async () => {
   await stopJobQueue();
@@ -75,14 +76,9 @@ describe('retention of mails and reset tokens', () => {
     const stale = await mail('sent', new Date(Date.now() - 45 * DAY), new Date(Date.now() - 45 * DAY));
     await boss.send(QUEUES.retentionPrune.name, {});
     await scheduleRetentionPruning(boss);
-    const [schedule] = await db().query<{ cron: string }>('SELECT cron FROM pgboss.schedule WHERE name = $1', {
-      bind: [QUEUES.retentionPrune.name],
-      type: QueryTypes.SELECT,
-    });
-    expect(schedule?.cron).toBe(RETENTION_PRUNE_CRON);
+    expect(await scheduledCron(QUEUES.retentionPrune.name)).toBe(RETENTION_PRUNE_CRON);
     expect(RETENTION_PRUNE_CRON).toBe('17 * * * *');
-    const deadline = Date.now() + 30_000;
-    while ((await existing('mail_outbox', [stale])).length > 0 && Date.now() < deadline) await new Promise((r) => setTimeout(r, 250));
+    await pollUntil(async () => (await existing('mail_outbox', [stale])).length === 0);
     expect(await existing('mail_outbox', [stale])).toEqual([]);
   }, 40_000);
 });

@@ -8,6 +8,7 @@ import { AppError } from '@/lib/errors';
 import { jobQueue, QUEUES, RATE_LIMIT_PRUNE_CRON, stopJobQueue } from '@/lib/jobs/queue';
 import { scheduleRateLimitPruning } from '@/lib/jobs/workers';
 import { RATE_LIMIT_TABLE, RateLimit, pruneRateLimits } from '@/lib/rate-limit';
+import { pollUntil, scheduledCron } from '../support/jobs';
 
 afterAll(async () => {
   await stopJobQueue();
@@ -72,13 +73,8 @@ describe('pruning the rate-limit table', () => {
     await insertRow(stale, 5, Date.now() - 1000);
     await boss.send(QUEUES.rateLimitPrune.name, {});
     await scheduleRateLimitPruning(boss);
-    const [schedule] = await getSequelize().query<{ cron: string }>('SELECT cron FROM pgboss.schedule WHERE name = $1', {
-      bind: [QUEUES.rateLimitPrune.name],
-      type: QueryTypes.SELECT,
-    });
-    expect(schedule?.cron).toBe(RATE_LIMIT_PRUNE_CRON);
-    const deadline = Date.now() + 30_000;
-    while ((await rowsFor([stale])).size > 0 && Date.now() < deadline) await new Promise((r) => setTimeout(r, 250));
+    expect(await scheduledCron(QUEUES.rateLimitPrune.name)).toBe(RATE_LIMIT_PRUNE_CRON);
+    await pollUntil(async () => (await rowsFor([stale])).size === 0);
     expect((await rowsFor([stale])).size).toBe(0);
   }, 40_000);
 });

@@ -1,7 +1,7 @@
 // The limits of CONTRACT §3 on their shared PostgreSQL store (lib/rate-limit): every limit counts to its
 // number in its window and refuses the next event with 429 rate_limited and Retry-After; two limiter
 // objects on the same table (as two app instances hold) share the count. Real PostgreSQL.
-import { afterAll, describe, expect, it } from 'vitest';
+import { afterAll, describe, expect, it, vi } from 'vitest';
 import { AppError } from '@/lib/errors';
 import { RATE_LIMITS, RateLimit, clientAddress, type RateLimitName } from '@/lib/rate-limit';
 import { PEER_HEADER, isTrustedProxy } from '@/lib/http/peer';
@@ -121,13 +121,11 @@ describe('clientAddress', () => {
     expect(isTrustedProxy('128.0.0.1', '')).toBe(false);
     expect(isTrustedProxy('::2', '')).toBe(false);
     expect(isTrustedProxy('192.0.2.33', '')).toBe(false);
-    const saved = process.env.DENUDATA_TRUSTED_PROXIES;
-    process.env.DENUDATA_TRUSTED_PROXIES = '192.0.2.33';
+    vi.stubEnv('DENUDATA_TRUSTED_PROXIES', '192.0.2.33');
     try {
       expect(clientAddress({ [PEER_HEADER]: '192.0.2.33', 'x-forwarded-for': '198.51.100.7' })).toBe('198.51.100.7');
     } finally {
-      if (saved === undefined) delete process.env.DENUDATA_TRUSTED_PROXIES;
-      else process.env.DENUDATA_TRUSTED_PROXIES = saved;
+      vi.unstubAllEnvs();
     }
   });
 });
